@@ -1,0 +1,69 @@
+'use client';
+
+import { useState } from 'react';
+import { useForm } from 'react-hook-form';
+import { Button, ButtonLink } from '@/components/ui/button';
+import { Field, Input, Notice } from '@/components/ui/field';
+import { signInWithPassword } from '@/lib/auth-client';
+
+interface Props {
+  token: string;
+  email: string;
+  hasAccount: boolean;
+}
+
+export function AcceptInvitationForm({ token, email, hasAccount }: Props) {
+  const form = useForm<{ name: string; password: string }>();
+  const [message, setMessage] = useState<{ tone: 'error' | 'ok'; text: string }>();
+  const [fieldErrors, setFieldErrors] = useState<Record<string, string[]>>({});
+
+  const onSubmit = form.handleSubmit(async (values) => {
+    setMessage(undefined);
+    const res = await fetch('/api/invitations/accept', {
+      method: 'POST',
+      headers: { 'content-type': 'application/json' },
+      body: JSON.stringify(hasAccount ? { token } : { token, ...values }),
+    });
+    const data = await res.json().catch(() => ({}));
+    if (!res.ok) {
+      setFieldErrors(data.error?.fields ?? {});
+      setMessage({ tone: 'error', text: data.error?.message ?? 'The invitation could not be accepted.' });
+      return;
+    }
+    if (hasAccount) {
+      setMessage({ tone: 'ok', text: 'Done: you are now a member. Sign in to continue.' });
+      return;
+    }
+    const signedIn = await signInWithPassword(email, values.password);
+    if (signedIn.ok) window.location.assign('/');
+    else setMessage({ tone: 'error', text: signedIn.message });
+  });
+
+  if (message?.tone === 'ok') {
+    return (
+      <div className="flex flex-col gap-3">
+        <Notice tone="ok">{message.text}</Notice>
+        <ButtonLink href="/signin">Sign in</ButtonLink>
+      </div>
+    );
+  }
+
+  return (
+    <form onSubmit={onSubmit} noValidate className="flex flex-col gap-4">
+      {!hasAccount && (
+        <>
+          <Field id="name" label="Your name" error={fieldErrors.name?.[0]}>
+            <Input id="name" autoComplete="name" {...form.register('name')} />
+          </Field>
+          <Field id="password" label="Choose a password" hint="At least 10 characters." error={fieldErrors.password?.[0]}>
+            <Input id="password" type="password" autoComplete="new-password" {...form.register('password')} />
+          </Field>
+        </>
+      )}
+      {message && <Notice tone="error">{message.text}</Notice>}
+      <Button type="submit" size="large" disabled={form.formState.isSubmitting}>
+        Accept the invitation
+      </Button>
+    </form>
+  );
+}

@@ -1,0 +1,72 @@
+'use client';
+
+import { zodResolver } from '@hookform/resolvers/zod';
+import { useState } from 'react';
+import { useForm } from 'react-hook-form';
+import { z } from 'zod';
+import { Button } from '@/components/ui/button';
+import { Field, Input, Notice } from '@/components/ui/field';
+import { describeAuthError, requestSignInLink, signInWithPassword } from '@/lib/auth-client';
+import { emailSchema, signInSchema } from '@/lib/validation/auth';
+
+type Mode = 'password' | 'link';
+
+export function SignInForm({ callbackUrl, initialError }: { callbackUrl: string; initialError?: string }) {
+  const [mode, setMode] = useState<Mode>('password');
+  const [message, setMessage] = useState<string | undefined>(initialError ? describeAuthError(initialError) : undefined);
+  const schema = mode === 'password' ? signInSchema : z.object({ email: emailSchema, password: z.string().optional() });
+  const form = useForm<{ email: string; password?: string }>({ resolver: zodResolver(schema) });
+  const { errors, isSubmitting } = form.formState;
+
+  const onSubmit = form.handleSubmit(async ({ email, password }) => {
+    setMessage(undefined);
+    if (mode === 'password') {
+      const result = await signInWithPassword(email, password ?? '', callbackUrl);
+      if (result.ok) window.location.assign(callbackUrl);
+      else setMessage(result.message);
+    } else {
+      const result = await requestSignInLink(email, callbackUrl);
+      if (result.ok) window.location.assign('/signin/check-email');
+      else setMessage(result.message);
+    }
+  });
+
+  return (
+    <form onSubmit={onSubmit} noValidate className="flex flex-col gap-4" aria-describedby={message ? 'signin-message' : undefined}>
+      <h1 className="text-2xl font-extrabold">Sign in</h1>
+      <div role="tablist" aria-label="How to sign in" className="grid grid-cols-2 gap-2">
+        {(['password', 'link'] as const).map((m) => (
+          <button
+            key={m}
+            type="button"
+            role="tab"
+            aria-selected={mode === m}
+            onClick={() => {
+              setMode(m);
+              setMessage(undefined);
+            }}
+            className={`min-h-touch rounded-lg border-2 font-bold ${mode === m ? 'border-rootstock bg-rootstock-tint' : 'border-line'}`}
+          >
+            {m === 'password' ? 'Password' : 'E-mail me a link'}
+          </button>
+        ))}
+      </div>
+      <Field id="email" label="E-mail" error={errors.email?.message}>
+        <Input id="email" type="email" autoComplete="email" inputMode="email" {...form.register('email')} />
+      </Field>
+      {mode === 'password' && (
+        <Field id="password" label="Password" error={errors.password?.message}>
+          <Input id="password" type="password" autoComplete="current-password" {...form.register('password')} />
+        </Field>
+      )}
+      {message && (
+        <div id="signin-message" aria-live="assertive">
+          <Notice tone="error">{message}</Notice>
+        </div>
+      )}
+      <Button type="submit" size="large" disabled={isSubmitting}>
+        {isSubmitting ? 'Signing in…' : mode === 'password' ? 'Sign in' : 'Send me a sign-in link'}
+      </Button>
+    </form>
+  );
+}

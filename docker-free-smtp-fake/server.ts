@@ -1,0 +1,99 @@
+/**
+ * Local stand-in for a mail server: accepts any mail over SMTP on loopback, keeps it in
+ * memory, and shows it over HTTP — a web inbox for people trying the demo, and a JSON API
+ * (`GET /api/messages`, `DELETE /api/messages`) that integration and browser tests read.
+ */
+import http from 'node:http';
+import { parseArgs } from 'node:util';
+import { simpleParser } from 'mailparser';
+import { SMTPServer } from 'smtp-server';
+
+const { values } = parseArgs({
+  options: {
+    'smtp-port': { type: 'string', default: '2525' },
+    'http-port': { type: 'string', default: '2526' },
+  },
+});
+
+interface Message {
+  id: number;
+  from: string;
+  to: string[];
+  subject: string;
+  text: string;
+  html: string;
+  receivedAt: string;
+}
+
+const messages: Message[] = [];
+let nextId = 1;
+
+const smtp = new SMTPServer({
+  authOptional: true,
+  disabledCommands: ['STARTTLS'],
+  logger: false,
+  onData(stream, session, callback) {
+    simpleParser(stream)
+      .then((mail) => {
+        messages.push({
+          id: nextId++,
+          from: mail.from?.text ?? '',
+          to: session.envelope.rcptTo.map((r) => r.address.toLowerCase()),
+          subject: mail.subject ?? '',
+          text: mail.text ?? '',
+          html: typeof mail.html === 'string' ? mail.html : '',
+          receivedAt: new Date().toISOString(),
+        });
+        callback();
+      })
+      .catch((err: Error) => callback(err));
+  },
+});
+
+const escape = (s: string) =>
+  s.replace(/[&<>"]/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;' })[c]!);
+
+const web = http.createServer((req, res) => {
+  const url = new URL(req.url ?? '/', 'http://localhost');
+  if (url.pathname === '/api/messages') {
+    if (req.method === 'DELETE') {
+      messages.length = 0;
+      res.writeHead(204).end();
+      return;
+    }
+    const to = url.searchParams.get('to')?.toLowerCase();
+    const list = to ? messages.filter((m) => m.to.includes(to)) : messages;
+    res.writeHead(200, { 'content-type': 'application/json' }).end(JSON.stringify(list));
+    return;
+  }
+  const rows = [...messages]
+    .reverse()
+    .map(
+      (m) =>
+        `<article><h2>${escape(m.subject)}</h2><p><b>To:</b> ${escape(m.to.join(', '))} · ${m.receivedAt}</p>` +
+        `<pre>${escape(m.text).replace(/(https?:\/\/[^\s<]+)/g, '<a href="$1">$1</a>')}</pre></article>`,
+    )
+    .join('<hr>');
+  res
+    .writeHead(200, { 'content-type': 'text/html; charset=utf-8' })
+    .end(
+      `<!doctype html><meta charset="utf-8"><title>Local inbox</title>` +
+        `<body style="font-family:sans-serif;max-width:48rem;margin:2rem auto">` +
+        `<h1>Local inbox (${messages.length})</h1>${rows || '<p>No mail yet.</p>'}</body>`,
+    );
+});
+
+smtp.listen(Number(values['smtp-port']), '127.0.0.1', () => {
+  web.listen(Number(values['http-port']), '127.0.0.1', () => {
+    console.log(
+      `smtp-fake listening on smtp://127.0.0.1:${values['smtp-port']}, inbox http://127.0.0.1:${values['http-port']}`,
+    );
+  });
+});
+
+for (const signal of ['SIGINT', 'SIGTERM'] as const) {
+  process.on(signal, () => {
+    web.close();
+    smtp.close(() => process.exit(0));
+  });
+}

@@ -1,0 +1,46 @@
+/**
+ * Every connection Vineward makes comes from these variables, checked once at start-up so a
+ * wrong deployment fails with a message naming each bad variable (see .env.example).
+ */
+import { z } from 'zod';
+
+const flag = z
+  .enum(['0', '1', 'true', 'false'])
+  .optional()
+  .transform((v) => v === '1' || v === 'true');
+
+const schema = z.object({
+  DATABASE_URL: z.string().regex(/^postgres(ql)?:\/\//, 'must be a postgres:// connection URL'),
+  S3_ENDPOINT: z.url('must be the URL of an S3-compatible endpoint').optional(),
+  S3_REGION: z.string().min(1, 'must name a region (any value for the local fake)'),
+  S3_BUCKET: z.string().min(3, 'must name the bucket'),
+  S3_ACCESS_KEY_ID: z.string().min(1, 'is required'),
+  S3_SECRET_ACCESS_KEY: z.string().min(1, 'is required'),
+  S3_FORCE_PATH_STYLE: flag,
+  SMTP_URL: z.string().regex(/^smtps?:\/\//, 'must be an smtp:// or smtps:// URL'),
+  MAIL_FROM: z.string().min(3).default('Vineward <no-reply@example.com>'),
+  NEXTAUTH_SECRET: z.string().min(32, 'must be at least 32 characters of random text'),
+  NEXTAUTH_URL: z.url('must be the public URL of the app, e.g. http://localhost:3000'),
+  VINEWARD_DEMO: flag,
+});
+
+export type Env = z.infer<typeof schema>;
+
+let cached: Env | undefined;
+
+export function describeEnvProblems(error: z.ZodError) {
+  return error.issues.map((i) => `  - ${i.path.join('.') || '(env)'}: ${i.message}`).join('\n');
+}
+
+export function getEnv(source: NodeJS.ProcessEnv = process.env): Env {
+  if (cached && source === process.env) return cached;
+  const parsed = schema.safeParse(source);
+  if (!parsed.success) {
+    throw new Error(
+      `Vineward cannot start: some environment variables are missing or malformed:\n${describeEnvProblems(parsed.error)}\n` +
+        'See .env.example for what each one means.',
+    );
+  }
+  if (source === process.env) cached = parsed.data;
+  return parsed.data;
+}

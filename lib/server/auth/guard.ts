@@ -1,0 +1,56 @@
+import 'server-only';
+import { getServerSession } from 'next-auth';
+import { cookies } from 'next/headers';
+import { can, type Permission, type Role } from '@/lib/roles';
+import { authOptions } from '@/lib/server/auth/options';
+import { db } from '@/lib/server/db';
+import { AppError } from '@/lib/server/errors';
+import { listMemberships, type MembershipView } from '@/lib/server/queries/organisations';
+
+export const ORG_COOKIE = 'vw-org';
+
+/** The person behind a request, in the organisation they are working in now. */
+export interface Member {
+  userId: string;
+  email: string;
+  name: string | null;
+  organisationId: string;
+  organisationName: string;
+  unitSystem: 'metric' | 'imperial';
+  role: Role;
+  memberships: MembershipView[];
+}
+
+/**
+ * Resolves session → person → current organisation → role, from the database on every call,
+ * so a removed member or a changed role takes effect at once. Returns null when signed out.
+ */
+export async function currentMember(): Promise<Member | null> {
+  const session = await getServerSession(authOptions());
+  const userId = session?.user?.id;
+  if (!userId) return null;
+  const memberships = await listMemberships(db(), userId);
+  if (memberships.length === 0) return null;
+  const wanted = (await cookies()).get(ORG_COOKIE)?.value;
+  const current = memberships.find((m) => m.organisationId === wanted) ?? memberships[0]!;
+  return {
+    userId,
+    email: session.user.email ?? '',
+    name: session.user.name ?? null,
+    organisationId: current.organisationId,
+    organisationName: current.organisationName,
+    unitSystem: current.unitSystem,
+    role: current.role,
+    memberships,
+  };
+}
+
+/** The one check every route handler and server action makes. */
+export async function requireMember(permission: Permission = 'read'): Promise<Member> {
+  const member = await currentMember();
+  if (!member) throw new AppError('unauthenticated', 'Please sign in to continue.');
+  if (!can(member.role, permission)) {
+    throw new AppError('forbidden', `Your role (${member.role}) in ${member.organisationName} cannot do this.`);
+  }
+  return member;
+}

@@ -1,0 +1,33 @@
+import 'server-only';
+import nodemailer, { type Transporter } from 'nodemailer';
+import { getEnv } from '@/lib/env';
+
+const store = globalThis as unknown as { vinewardMailer?: Transporter };
+
+function transport() {
+  store.vinewardMailer ??= nodemailer.createTransport(getEnv().SMTP_URL);
+  return store.vinewardMailer;
+}
+
+export interface Mail {
+  to: string;
+  subject: string;
+  text: string;
+  html?: string;
+}
+
+export async function sendMail(mail: Mail) {
+  await transport().sendMail({ from: getEnv().MAIL_FROM, ...mail });
+}
+
+/** A plain, readable mail: our wordmark, a paragraph, one big link. */
+export function linkMail(o: { to: string; subject: string; intro: string; action: string; url: string; outro?: string }): Mail {
+  const escape = (s: string) => s.replace(/[&<>"]/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;' })[c]!);
+  const text = `${o.intro}\n\n${o.action}: ${o.url}\n\n${o.outro ?? ''}\n— Vineward`.replace(/\n{3,}/g, '\n\n');
+  const html = `<div style="font-family:sans-serif;max-width:32rem">
+<p style="font-size:20px;font-weight:700;color:#2f4a1f">Vineward</p>
+<p>${escape(o.intro)}</p>
+<p><a href="${escape(o.url)}" style="display:inline-block;padding:12px 20px;background:#2f4a1f;color:#fff;border-radius:8px;text-decoration:none">${escape(o.action)}</a></p>
+<p style="color:#555">${escape(o.outro ?? '')}</p></div>`;
+  return { to: o.to, subject: o.subject, text, html };
+}

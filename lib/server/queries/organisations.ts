@@ -1,0 +1,63 @@
+import 'server-only';
+import type { Role } from '@/lib/roles';
+import type { Db } from '@/lib/server/db';
+
+export interface OrganisationRow {
+  id: string;
+  name: string;
+  unit_system: 'metric' | 'imperial';
+  keep_photo_location: boolean;
+  created_at: Date;
+}
+
+export interface MembershipView {
+  organisationId: string;
+  organisationName: string;
+  unitSystem: 'metric' | 'imperial';
+  role: Role;
+}
+
+export async function insertOrganisation(db: Db, org: { name: string; unitSystem?: 'metric' | 'imperial' }) {
+  const [row] = await db<OrganisationRow>('organisations')
+    .insert({ name: org.name, unit_system: org.unitSystem ?? 'metric' })
+    .returning('*');
+  return row!;
+}
+
+export function getOrganisation(db: Db, id: string) {
+  return db<OrganisationRow>('organisations').where({ id }).first();
+}
+
+export async function listMemberships(db: Db, userId: string): Promise<MembershipView[]> {
+  return db('memberships as m')
+    .join('organisations as o', 'o.id', 'm.organisation_id')
+    .where('m.user_id', userId)
+    .orderBy('o.name')
+    .select({
+      organisationId: 'o.id',
+      organisationName: 'o.name',
+      unitSystem: 'o.unit_system',
+      role: 'm.role',
+    });
+}
+
+export async function upsertMembership(db: Db, m: { organisationId: string; userId: string; role: Role }) {
+  await db('memberships')
+    .insert({ organisation_id: m.organisationId, user_id: m.userId, role: m.role })
+    .onConflict(['organisation_id', 'user_id'])
+    .merge(['role']);
+}
+
+export function listMembers(db: Db, organisationId: string) {
+  return db('memberships as m')
+    .join('users as u', 'u.id', 'm.user_id')
+    .where('m.organisation_id', organisationId)
+    .orderBy([{ column: 'm.role' }, { column: 'u.email' }])
+    .select<{ userId: string; email: string; name: string | null; role: Role; since: Date }[]>({
+      userId: 'u.id',
+      email: 'u.email',
+      name: 'u.name',
+      role: 'm.role',
+      since: 'm.created_at',
+    });
+}

@@ -1,0 +1,55 @@
+/** Builds the Next.js app when its sources changed, and runs `next start` as a child process. */
+import { spawn, type ChildProcess } from 'node:child_process';
+import { createHash } from 'node:crypto';
+import { existsSync, readdirSync, readFileSync, statSync, writeFileSync } from 'node:fs';
+import path from 'node:path';
+import { log, root, run, waitForPort } from './services';
+
+const SOURCES = ['app', 'components', 'lib', 'service-worker', 'public', 'types', 'proxy.ts', 'instrumentation.ts',
+  'next.config.mjs', 'tailwind.config.ts', 'postcss.config.mjs', 'package-lock.json', 'tsconfig.json'];
+
+function walk(entry: string, out: string[]) {
+  const full = path.join(root, entry);
+  if (!existsSync(full)) return;
+  const stat = statSync(full);
+  if (stat.isDirectory()) {
+    for (const name of readdirSync(full).sort()) walk(path.join(entry, name), out);
+  } else if (!entry.endsWith('sw.js') && !entry.endsWith('sw.js.map')) {
+    out.push(`${entry}:${stat.size}:${stat.mtimeMs}`);
+  }
+}
+
+function fingerprint() {
+  const files: string[] = [];
+  for (const s of SOURCES) walk(s, files);
+  return createHash('sha256').update(files.join('\n')).digest('hex');
+}
+
+const stamp = path.join(root, '.next', 'vineward-build.txt');
+
+export function buildIfNeeded(env: NodeJS.ProcessEnv) {
+  const print = fingerprint();
+  if (existsSync(path.join(root, '.next', 'BUILD_ID')) && existsSync(stamp) && readFileSync(stamp, 'utf8') === print) {
+    log('The app is already built for these sources');
+    return;
+  }
+  log('Building the app (about a minute on 2 cores)…');
+  run(process.execPath, ['node_modules/next/dist/bin/next', 'build'], { env: { ...env, NEXT_TELEMETRY_DISABLED: '1' } });
+  if (existsSync(path.join(root, 'scripts/build-service-worker.ts'))) {
+    run(process.execPath, ['--import', 'tsx', 'scripts/build-service-worker.ts'], { env });
+  }
+  writeFileSync(stamp, print);
+}
+
+export async function startNext(port: number, env: NodeJS.ProcessEnv): Promise<ChildProcess> {
+  const child = spawn(process.execPath, ['node_modules/next/dist/bin/next', 'start', '-p', String(port), '-H', '127.0.0.1'], {
+    cwd: root,
+    env: { ...env, NEXT_TELEMETRY_DISABLED: '1', PORT: String(port) },
+    stdio: ['ignore', 'inherit', 'inherit'],
+  });
+  await Promise.race([
+    waitForPort(port, 60_000),
+    new Promise((_, reject) => child.once('exit', (code) => reject(new Error(`next start exited with code ${code}`)))),
+  ]);
+  return child;
+}
