@@ -1,0 +1,275 @@
+// Every rule-of-thumb threshold in one typed object, so a block can override it later (stored as
+// JSON beside the block) without touching code. Each default says where it comes from.
+import { BALANCED_PRUNING_FORMULAS, validateFormula, type BalancedPruningFormula } from './pruning';
+
+export interface BudRange {
+  readonly min: number;
+  readonly max: number;
+}
+
+export interface ViticultureSettings {
+  readonly canes: {
+    /** Below this base diameter a cane is not worth keeping at all. */
+    readonly veryThinBelowMm: number;
+    /** Below this a cane is thin: usable only if nothing better. */
+    readonly thinBelowMm: number;
+    /** Above this a cane is a bull cane: over-vigorous, usually less fruitful. */
+    readonly bullAboveMm: number;
+    /** The thickness canes are ranked against when a plan picks the best ones. */
+    readonly idealMm: number;
+    /** A longest internode above this marks a shade cane. */
+    readonly shadeInternodeAboveMm: number;
+    /** This many minor faults together make a cane one to remove. */
+    readonly minorFaultsToRemove: number;
+  };
+  readonly budsPerCane: {
+    /** From this base diameter a cane counts as normal rather than thin. */
+    readonly normalFromMm: number;
+    /** From this base diameter a cane counts as thick (vigorous). */
+    readonly thickFromMm: number;
+    readonly thin: BudRange;
+    readonly normal: BudRange;
+    readonly thick: BudRange;
+  };
+  readonly plan: {
+    /** Fruit canes a cane-pruned vine keeps when there is no bud target. */
+    readonly canesPerVine: number;
+    /** Most fruit canes a plan may keep while chasing a bud target. */
+    readonly maxCanesPerVine: number;
+    /** Renewal spurs per kept cane (rounded up over the vine). */
+    readonly renewalSpursPerCane: number;
+    readonly budsPerRenewalSpur: number;
+    /** Spurs a spur-pruned vine keeps when there is no bud target. */
+    readonly spursPerVine: number;
+    readonly budsPerSpur: number;
+    /** Most buds a fruiting spur may keep while chasing a bud target. */
+    readonly maxBudsPerSpur: number;
+  };
+  readonly pruning: {
+    /** Used when a pruning weight comes without a formula (a block sets its grape type here). */
+    readonly formula: BalancedPruningFormula;
+  };
+  readonly budbreak: {
+    /** Budbreak under this percentage is weak. */
+    readonly weakBelowPercent: number;
+    /** Under this it is poor. */
+    readonly poorBelowPercent: number;
+    /** Under this the vine has all but failed to push. */
+    readonly failedBelowPercent: number;
+  };
+  readonly budInjury: {
+    /** From this primary bud kill, leave that percentage more buds. */
+    readonly extraFromPercent: number;
+    /** Above this, prune minimally or wait until budbreak. */
+    readonly minimalAbovePercent: number;
+  };
+  readonly ravaz: {
+    /** A Ravaz index below this reads as under-cropped. */
+    readonly underBelow: number;
+    /** Above this it reads as over-cropped. */
+    readonly overAbove: number;
+  };
+  readonly trunkInjury: {
+    /** Girdling above this share of the circumference needs action. */
+    readonly actAbovePercent: number;
+    /** Above this the trunk is likely lost without renewal: urgent. */
+    readonly urgentAbovePercent: number;
+  };
+  readonly caneInjury: {
+    /** Severe injury on this many canes or more is urgent. */
+    readonly urgentFromCanes: number;
+  };
+  readonly pruningRecord: {
+    /** Deviation of retained buds from the target, in percent of the target. */
+    readonly fineWithinPercent: number;
+    readonly watchWithinPercent: number;
+    readonly actWithinPercent: number;
+  };
+}
+
+export type SettingsOverride = {
+  readonly [G in keyof ViticultureSettings]?: Partial<ViticultureSettings[G]>;
+};
+
+export const DEFAULT_SETTINGS: ViticultureSettings = deepFreeze<ViticultureSettings>({
+  canes: {
+    // 3/16 in. Common practice, no source.
+    veryThinBelowMm: 4.8,
+    // 1/4 in: grovida.us "Pruning Mature Vines" ("1/4 inch or more") and the Yuma Sun garden
+    // column, 2022 ("diameter of 1/4-1/2 inch").
+    thinBelowMm: 6.35,
+    // 1/2 in, the upper end of the Yuma Sun 2022 range.
+    bullAboveMm: 12.7,
+    // 3/8 in, the middle of that published 1/4–1/2 in range ("about pencil thickness").
+    idealMm: 9.525,
+    // Common practice, no source. WineSkills UK puts the ideal internode near 60 mm and the Oxford
+    // Companion to Wine (2006) gives 50–150 mm for cuttings; American table grapes run near 6 in
+    // (grovida.us), so blocks of those should raise this.
+    shadeInternodeAboveMm: 100,
+    // Common practice, no source.
+    minorFaultsToRemove: 2,
+  },
+  budsPerCane: {
+    // 5/16 and 7/16 in: one sixteenth either side of 3/8 in. Common practice, no source.
+    normalFromMm: 7.9375,
+    thickFromMm: 11.1125,
+    // Common practice, no source; poorly ripened canes may carry only 6–8 nodes (grovida.us).
+    thin: { min: 8, max: 10 },
+    // Yuma Sun 2022 ("leaving 12-15 buds"); 12–14 is the product brief's figure.
+    normal: { min: 12, max: 14 },
+    // Common practice, no source (the product brief's 16–18); canes run 10–20 nodes in the Midwest
+    // Grape Production Guide (OSU B919).
+    thick: { min: 16, max: 18 },
+  },
+  plan: {
+    // Two canes (double Guyot, bilateral cane): from memory.
+    canesPerVine: 2,
+    // Four-cane Kniffin keeps four canes (UT PB1475 contents; low authority).
+    maxCanesPerVine: 4,
+    // One renewal spur per cane; one and a half is also common. Common practice, no source.
+    renewalSpursPerCane: 1,
+    // "Renewal spur is 1 to 2 nodes long" (Midwest Grape Production Guide, OSU B919); Yuma Sun 2022:
+    // "only two buds".
+    budsPerRenewalSpur: 2,
+    // Common practice, no source; 24 buds sits inside Ohio State's 20–50 buds per vine check for
+    // 5–8 ft vine spacing (2023 primer).
+    spursPerVine: 12,
+    // Oxford Companion to Wine (2006), "spur pruning": spurs "retain only two buds".
+    budsPerSpur: 2,
+    // Common practice, no source; OSU B919 allows spurs of 2 to 6 nodes.
+    maxBudsPerSpur: 4,
+  },
+  pruning: {
+    // Ohio State 2023 primer, "Vinifera 20 + 20".
+    formula: BALANCED_PRUNING_FORMULAS.vinifera,
+  },
+  budbreak: {
+    // No published threshold exists (check-values §5). Common practice, no source.
+    weakBelowPercent: 75,
+    poorBelowPercent: 50,
+    failedBelowPercent: 20,
+  },
+  budInjury: {
+    // Cornell Northern New York Grape Update, "Evaluating bud injury and adjusting pruning"
+    // (28 Feb 2014): under 20% no extra buds, 20–80% leave that percentage more.
+    extraFromPercent: 20,
+    minimalAbovePercent: 80,
+  },
+  ravaz: {
+    // Wines & Vines, June 2017: "the optimum Ravaz Index ... can range from 5 to 10" (vinifera).
+    underBelow: 5,
+    overAbove: 10,
+  },
+  trunkInjury: {
+    // Common practice, no source: past half the circumference the trunk is usually renewed.
+    actAbovePercent: 25,
+    urgentAbovePercent: 50,
+  },
+  caneInjury: {
+    // Common practice, no source: a two-cane vine with three badly hurt canes has no good spare.
+    urgentFromCanes: 3,
+  },
+  pruningRecord: {
+    // Common practice, no source.
+    fineWithinPercent: 10,
+    watchWithinPercent: 25,
+    actWithinPercent: 50,
+  },
+});
+
+/**
+ * Defaults with `partial` laid over them, group by group, then checked: a stored override that makes
+ * no sense (negative, out of order) throws a RangeError naming the key instead of silently skewing
+ * every judgement on the block.
+ */
+export function mergeSettings(partial: SettingsOverride = {}): ViticultureSettings {
+  const merged: Record<string, Record<string, unknown>> = {};
+  for (const [group, defaults] of Object.entries(DEFAULT_SETTINGS)) merged[group] = { ...defaults };
+  for (const [group, values] of Object.entries(partial as Record<string, Record<string, unknown> | undefined>)) {
+    if (!(group in merged)) throw new RangeError(`unknown settings group '${group}'`);
+    for (const [key, value] of Object.entries(values ?? {})) {
+      if (!(key in merged[group])) throw new RangeError(`unknown setting '${group}.${key}'`);
+      // Left-out keys in a stored override come back as undefined; they mean "use the default".
+      // Copied, so freezing the result never freezes an object the caller still holds.
+      if (value !== undefined) merged[group][key] = value !== null && typeof value === 'object' ? { ...value } : value;
+    }
+  }
+  const settings = merged as unknown as ViticultureSettings;
+  validateSettings(settings);
+  checked.add(settings);
+  return deepFreeze(settings);
+}
+
+// Results of mergeSettings, so passing one back in (as planVine does per cane) skips the checks.
+const checked = new WeakSet<object>([DEFAULT_SETTINGS]);
+
+/** Settings as the calculations take them: left out means the defaults, no re-checking. */
+export function resolveSettings(settings: SettingsOverride | undefined): ViticultureSettings {
+  if (settings === undefined) return DEFAULT_SETTINGS;
+  return checked.has(settings) ? (settings as ViticultureSettings) : mergeSettings(settings);
+}
+
+function validateSettings(s: ViticultureSettings): void {
+  for (const [group, values] of Object.entries(s)) {
+    for (const [key, value] of Object.entries(values as Record<string, unknown>)) {
+      if (typeof value === 'number') {
+        if (!Number.isFinite(value) || value < 0) {
+          throw new RangeError(`settings.${group}.${key} must be a finite number of 0 or more, got ${String(value)}`);
+        }
+      } else if (key !== 'formula') {
+        const range = value as BudRange;
+        if (!isRange(range)) {
+          throw new RangeError(`settings.${group}.${key} must be { min, max } whole numbers with min <= max`);
+        }
+      }
+    }
+  }
+  validateFormula(s.pruning.formula);
+  ascending('canes', ['veryThinBelowMm', 'thinBelowMm', 'bullAboveMm'], s.canes);
+  ascending('canes', ['thinBelowMm', 'idealMm', 'bullAboveMm'], s.canes);
+  ascending('budsPerCane', ['normalFromMm', 'thickFromMm'], s.budsPerCane);
+  ascending('plan', ['canesPerVine', 'maxCanesPerVine'], s.plan);
+  ascending('plan', ['budsPerSpur', 'maxBudsPerSpur'], s.plan);
+  ascending('budbreak', ['failedBelowPercent', 'poorBelowPercent', 'weakBelowPercent'], s.budbreak);
+  ascending('budInjury', ['extraFromPercent', 'minimalAbovePercent'], s.budInjury);
+  ascending('ravaz', ['underBelow', 'overAbove'], s.ravaz);
+  ascending('trunkInjury', ['actAbovePercent', 'urgentAbovePercent'], s.trunkInjury);
+  ascending('pruningRecord', ['fineWithinPercent', 'watchWithinPercent', 'actWithinPercent'], s.pruningRecord);
+  for (const key of ['canesPerVine', 'maxCanesPerVine', 'spursPerVine', 'budsPerSpur', 'maxBudsPerSpur', 'budsPerRenewalSpur'] as const) {
+    if (!Number.isInteger(s.plan[key])) throw new RangeError(`settings.plan.${key} must be a whole number`);
+  }
+  if (s.plan.canesPerVine < 1 || s.plan.budsPerSpur < 1) {
+    throw new RangeError('settings.plan.canesPerVine and budsPerSpur must be at least 1');
+  }
+  if (s.budbreak.weakBelowPercent > 100 || s.budInjury.minimalAbovePercent > 100 || s.trunkInjury.urgentAbovePercent > 100) {
+    throw new RangeError('percent settings must not exceed 100');
+  }
+}
+
+function isRange(value: BudRange): boolean {
+  return (
+    value !== null &&
+    typeof value === 'object' &&
+    Number.isInteger(value.min) &&
+    Number.isInteger(value.max) &&
+    value.min >= 0 &&
+    value.min <= value.max
+  );
+}
+
+function ascending<G extends keyof ViticultureSettings>(group: G, keys: string[], values: ViticultureSettings[G]): void {
+  const numbers = keys.map((key) => (values as Record<string, number>)[key]);
+  for (let i = 1; i < numbers.length; i++) {
+    if (numbers[i - 1] > numbers[i]) {
+      throw new RangeError(`settings.${group}: ${keys.join(' <= ')} must hold, got ${numbers.join(', ')}`);
+    }
+  }
+}
+
+function deepFreeze<T>(value: T): T {
+  if (value !== null && typeof value === 'object' && !Object.isFrozen(value)) {
+    for (const inner of Object.values(value)) deepFreeze(inner);
+    Object.freeze(value);
+  }
+  return value;
+}
