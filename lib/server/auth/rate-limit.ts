@@ -1,5 +1,5 @@
 import 'server-only';
-import { RateLimiterPostgres, RateLimiterRes } from 'rate-limiter-flexible';
+import { RateLimiterPostgres, type RateLimiterRes } from 'rate-limiter-flexible';
 import { db } from '@/lib/server/db';
 import { AppError } from '@/lib/server/errors';
 

@@ -1,0 +1,34 @@
+import { expect, test } from '@playwright/test';
+
+async function signIn(page: import('@playwright/test').Page, email: string, password: string) {
+  await page.goto('/signin');
+  await page.getByLabel('E-mail').fill(email);
+  await page.getByLabel('Password').fill(password);
+  await page.getByRole('button', { name: 'Sign in' }).click();
+}
+
+test('the demo manager signs in through the page and lands on the desk', async ({ page }) => {
+  await signIn(page, 'manager@example.com', 'vineward-demo');
+  await expect(page).toHaveURL(/\/desk$/);
+  await expect(page.getByRole('heading', { name: 'Desk' })).toBeVisible();
+  await expect(page.getByText('Ninefold Ridge Estate').first()).toBeVisible();
+  await expect(page.getByRole('link', { name: 'Team' })).toBeVisible();
+});
+
+test('the demo scout signs in through the page and lands in the field', async ({ page }) => {
+  await signIn(page, 'scout@example.com', 'vineward-demo');
+  await expect(page).toHaveURL(/\/field$/);
+  await expect(page.getByRole('heading', { name: 'Field' })).toBeVisible();
+  await expect(page.getByRole('link', { name: 'Team' })).toHaveCount(0);
+});
+
+test('a wrong password shows a clear message and stays on the sign-in page', async ({ page }) => {
+  await signIn(page, 'manager@example.com', 'not-the-password');
+  await expect(page.getByRole('alert')).toContainText('That e-mail and password do not match');
+  await expect(page).toHaveURL(/\/signin/);
+});
+
+test('a signed-out visitor is sent to the sign-in page', async ({ page }) => {
+  await page.goto('/desk');
+  await expect(page).toHaveURL(/\/signin/);
+});
