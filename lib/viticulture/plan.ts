@@ -114,7 +114,7 @@ interface Allocation {
 
 function planCanes(canes: CaneInput[], target: number | null, s: ViticultureSettings): Allocation {
   const ranges = canes.map((cane) => recommendedBudsPerCane(cane.baseDiameterMm, s));
-  const spursFor = (k: number): number => Math.ceil(k * s.plan.renewalSpursPerCane - 1e-9);
+  const spursFor = (k: number): number => Math.max(0, Math.ceil(k * s.plan.renewalSpursPerCane - 1e-9));
   const defaultCount = Math.min(s.plan.canesPerVine, canes.length);
 
   if (target === null) {
