@@ -18,7 +18,10 @@ async function post(path: string, fields: Record<string, string>): Promise<SignI
   });
   const data = (await res.json().catch(() => ({}))) as { url?: string; error?: { message?: string } };
   if (res.status === 429 || data.error) return { ok: false, message: data.error?.message ?? 'Too many attempts; wait and try again.' };
-  if (!res.ok) return { ok: false, message: 'Sign-in is not available right now. Try again in a minute.' };
+  // A refused password comes back as 401 with the error in the URL, like other failures.
+  if (!res.ok && !(res.status === 401 && data.url)) {
+    return { ok: false, message: 'Sign-in is not available right now. Try again in a minute.' };
+  }
   const error = data.url ? new URL(data.url, location.origin).searchParams.get('error') : null;
   if (error) return { ok: false, message: describeAuthError(error) };
   return { ok: true, url: data.url };

@@ -32,7 +32,7 @@ export function describeEnvProblems(error: z.ZodError) {
   return error.issues.map((i) => `  - ${i.path.join('.') || '(env)'}: ${i.message}`).join('\n');
 }
 
-export function getEnv(source: NodeJS.ProcessEnv = process.env): Env {
+export function getEnv(source: Record<string, string | undefined> = process.env): Env {
   if (cached && source === process.env) return cached;
   const parsed = schema.safeParse(source);
   if (!parsed.success) {

@@ -5,7 +5,7 @@ import { existsSync, readdirSync, readFileSync, statSync, writeFileSync } from '
 import path from 'node:path';
 import { log, root, run, waitForPort } from './services';
 
-const SOURCES = ['app', 'components', 'lib', 'service-worker', 'public', 'types', 'proxy.ts', 'instrumentation.ts',
+const SOURCES = ['app', 'components', 'lib', 'service-worker', 'public', 'types', 'proxy.ts', 'instrumentation.ts', 'instrumentation-node.ts',
   'next.config.mjs', 'tailwind.config.ts', 'postcss.config.mjs', 'package-lock.json', 'tsconfig.json'];
 
 function walk(entry: string, out: string[]) {

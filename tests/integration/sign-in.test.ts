@@ -24,6 +24,7 @@ describe('sign-in', () => {
     const { manager } = await makeTeam();
     const client = new Client();
     const res = await client.signIn(manager.email, 'not the password');
+    expect(res.status).toBe(401);
     const body = (await res.json()) as { url: string };
     expect(body.url).toContain('error=CredentialsSignin');
     expect(client.signedIn).toBe(false);
@@ -72,7 +73,7 @@ describe('sign-in', () => {
     const headers = { 'x-forwarded-for': `198.51.100.${Math.floor(Math.random() * 250) + 1}` };
     for (let i = 0; i < 10; i++) {
       const res = await client.signIn(advisor.email, `wrong-${i}`, headers);
-      expect(res.status).toBe(200);
+      expect(res.status).toBe(401);
     }
     const blocked = await client.signIn(advisor.email, PASSWORD, headers);
     expect(blocked.status).toBe(429);

@@ -1,14 +1,14 @@
 import type { Metadata } from 'next';
 import Link from 'next/link';
 import { ROLES } from '@/lib/roles';
-import { requireMember } from '@/lib/server/auth/guard';
+import { memberForPage } from '@/lib/server/auth/guard';
 import { db } from '@/lib/server/db';
 import { listMembers } from '@/lib/server/queries/organisations';
 
 export const metadata: Metadata = { title: 'Desk' };
 
 export default async function DeskPage() {
-  const member = await requireMember('read');
+  const member = await memberForPage();
   const members = await listMembers(db(), member.organisationId);
   return (
     <div className="flex flex-col gap-6">

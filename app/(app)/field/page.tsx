@@ -1,11 +1,11 @@
 import type { Metadata } from 'next';
 import { ButtonLink } from '@/components/ui/button';
-import { requireMember } from '@/lib/server/auth/guard';
+import { memberForPage } from '@/lib/server/auth/guard';
 
 export const metadata: Metadata = { title: 'Field' };
 
 export default async function FieldPage() {
-  const member = await requireMember('read');
+  const member = await memberForPage();
   return (
     <div className="mx-auto flex max-w-md flex-col gap-4">
       <div>

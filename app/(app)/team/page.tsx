@@ -1,8 +1,6 @@
 import type { Metadata } from 'next';
 import { InviteForm } from '@/components/layout/invite-form';
-import { Notice } from '@/components/ui/field';
-import { can } from '@/lib/roles';
-import { currentMember } from '@/lib/server/auth/guard';
+import { memberForPage } from '@/lib/server/auth/guard';
 import { db } from '@/lib/server/db';
 import { listOpenInvitations } from '@/lib/server/queries/invitations';
 import { listMembers } from '@/lib/server/queries/organisations';
@@ -10,10 +8,7 @@ import { listMembers } from '@/lib/server/queries/organisations';
 export const metadata: Metadata = { title: 'Team' };
 
 export default async function TeamPage() {
-  const member = (await currentMember())!;
-  if (!can(member.role, 'manage-organisation')) {
-    return <Notice tone="warn">Only managers of {member.organisationName} can manage the team.</Notice>;
-  }
+  const member = await memberForPage('manage-organisation');
   const [members, invitations] = await Promise.all([
     listMembers(db(), member.organisationId),
     listOpenInvitations(db(), member.organisationId),

@@ -1,7 +1,8 @@
 import 'server-only';
 import { getServerSession } from 'next-auth';
 import { cookies } from 'next/headers';
-import { can, type Permission, type Role } from '@/lib/roles';
+import { redirect } from 'next/navigation';
+import { can, homeFor, type Permission, type Role } from '@/lib/roles';
 import { authOptions } from '@/lib/server/auth/options';
 import { db } from '@/lib/server/db';
 import { AppError } from '@/lib/server/errors';
@@ -52,5 +53,13 @@ export async function requireMember(permission: Permission = 'read'): Promise<Me
   if (!can(member.role, permission)) {
     throw new AppError('forbidden', `Your role (${member.role}) in ${member.organisationName} cannot do this.`);
   }
+  return member;
+}
+
+/** For pages: the same check, answered with a redirect instead of a JSON error. */
+export async function memberForPage(permission: Permission = 'read'): Promise<Member> {
+  const member = await currentMember();
+  if (!member) redirect('/signin');
+  if (!can(member.role, permission)) redirect(homeFor(member.role));
   return member;
 }

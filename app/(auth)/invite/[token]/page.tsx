@@ -22,7 +22,7 @@ export default async function InvitePage({ params }: { params: Promise<{ token: 
   }
   return (
     <div className="flex flex-col gap-4">
-      <h1 className="text-2xl font-extrabold">Join {invitation.organisationName}</h1>
+      <h1 className="text-2xl font-extrabold">{`Join ${invitation.organisationName}`}</h1>
       <p>
         You are invited as <strong>{invitation.role}</strong> with the address <strong>{invitation.email}</strong>.
       </p>
