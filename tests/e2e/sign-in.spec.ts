@@ -1,6 +1,6 @@
-import { expect, test } from '@playwright/test';
+import { expect, test, type Page } from '@playwright/test';
 
-async function signIn(page: import('@playwright/test').Page, email: string, password: string) {
+async function signIn(page: Page, email: string, password: string) {
   await page.goto('/signin');
   await page.getByLabel('E-mail').fill(email);
   await page.getByLabel('Password').fill(password);

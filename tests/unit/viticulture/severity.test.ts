@@ -1,0 +1,140 @@
+import { describe, expect, it } from 'vitest';
+import {
+  DEFAULT_SETTINGS,
+  OBSERVATION_KINDS,
+  SEVERITIES,
+  isObservationKind,
+  observationSeverity,
+  type Observation,
+} from '@/lib/viticulture';
+
+const S = DEFAULT_SETTINGS;
+
+describe('observationSeverity', () => {
+  it('has a rule for every observation kind, each answering 0–3', () => {
+    const samples: Observation[] = [
+      { kind: 'cane-diameter', data: { diameterMm: 9.5 } },
+      { kind: 'shade-cane', data: { longestInternodeMm: 60, exposure: 'sun', colourGood: true } },
+      { kind: 'weak-budbreak', data: { budsRetained: 28, budsPushed: 15 } },
+      { kind: 'trunk-injury', data: { cause: 'cold', severity: 'light', girdlingPercent: 0 } },
+      { kind: 'cane-injury', data: { cause: 'hail', canesAffected: 1, severity: 'light' } },
+      { kind: 'missing-vine', data: { state: 'missing' } },
+      { kind: 'bud-injury', data: { budsCut: 100, primariesDead: 12 } },
+      { kind: 'pruning-record', data: { canesKept: 2, budsPerCane: 13, renewalSpurs: 2 } },
+      { kind: 'note', data: {} },
+    ];
+    expect(samples.map((o) => o.kind)).toEqual([...OBSERVATION_KINDS]);
+    for (const o of samples) expect(SEVERITIES).toContain(observationSeverity(o.kind, o.data));
+  });
+
+  it('scores a cane by its assessCane verdict: fruit cane 0, second choice 1, remove 2', () => {
+    expect(observationSeverity('cane-diameter', { diameterMm: 9.5 })).toBe(0);
+    expect(observationSeverity('cane-diameter', { diameterMm: 14 })).toBe(1);
+    expect(observationSeverity('cane-diameter', { diameterMm: 9.5, injured: true })).toBe(2);
+    expect(observationSeverity('cane-diameter', { diameterMm: 9.5, flat: true, origin: 'older-wood' })).toBe(2);
+  });
+
+  it('scores a shade cane from the signs measured, with or without its diameter', () => {
+    const limit = S.canes.shadeInternodeAboveMm;
+    expect(observationSeverity('shade-cane', { longestInternodeMm: limit, exposure: 'partial', colourGood: true })).toBe(0);
+    expect(observationSeverity('shade-cane', { longestInternodeMm: limit + 40, exposure: 'shade', colourGood: true })).toBe(1);
+    expect(observationSeverity('shade-cane', { longestInternodeMm: limit + 40, exposure: 'shade', colourGood: false })).toBe(2);
+    expect(observationSeverity('shade-cane', { longestInternodeMm: 60, exposure: 'sun', colourGood: true, diameterMm: 5.5 })).toBe(1);
+  });
+
+  it('scores budbreak against the settings only (no published threshold exists)', () => {
+    const { weakBelowPercent, poorBelowPercent, failedBelowPercent } = S.budbreak;
+    const at = (percent: number) => observationSeverity('weak-budbreak', { budsRetained: 100, budsPushed: percent });
+    expect(at(weakBelowPercent)).toBe(0);
+    expect(at(weakBelowPercent - 1)).toBe(1);
+    expect(at(poorBelowPercent - 1)).toBe(2);
+    expect(at(failedBelowPercent - 1)).toBe(3);
+    expect(observationSeverity('weak-budbreak', { budsRetained: 100, budsPushed: 85 }, { budbreak: { weakBelowPercent: 90 } })).toBe(1);
+  });
+
+  it('makes severe trunk injury or girdling past the urgent setting urgent, moderate injury or partial girdling 2, any other 1', () => {
+    const trunk = (severity: 'light' | 'moderate' | 'severe', girdlingPercent: number) =>
+      observationSeverity('trunk-injury', { cause: 'mechanical', severity, girdlingPercent });
+    expect(trunk('light', 0)).toBe(1);
+    expect(trunk('light', S.trunkInjury.actAbovePercent + 1)).toBe(2);
+    expect(trunk('moderate', 0)).toBe(2);
+    expect(trunk('light', S.trunkInjury.urgentAbovePercent)).toBe(2);
+    expect(trunk('light', S.trunkInjury.urgentAbovePercent + 1)).toBe(3);
+    expect(trunk('severe', 0)).toBe(3);
+  });
+
+  it('scores cane injury by severity, urgent when severe on many canes, fine when no cane is affected', () => {
+    const cane = (severity: 'light' | 'moderate' | 'severe', canesAffected: number) =>
+      observationSeverity('cane-injury', { cause: 'hail', canesAffected, severity });
+    expect(cane('severe', 0)).toBe(0);
+    expect(cane('light', 5)).toBe(1);
+    expect(cane('moderate', 1)).toBe(2);
+    expect(cane('severe', S.caneInjury.urgentFromCanes - 1)).toBe(2);
+    expect(cane('severe', S.caneInjury.urgentFromCanes)).toBe(3);
+  });
+
+  it('makes a missing or dead vine a replanting job (2) and a dying one urgent (3)', () => {
+    expect(observationSeverity('missing-vine', { state: 'missing' })).toBe(2);
+    expect(observationSeverity('missing-vine', { state: 'dead' })).toBe(2);
+    expect(observationSeverity('missing-vine', { state: 'dying' })).toBe(3);
+  });
+
+  it('scores winter bud injury by the Cornell NNY bands: under 20% 0, 20–80% 2, above 80% 3 (NNY Grape Update, 2014)', () => {
+    expect(observationSeverity('bud-injury', { budsCut: 100, primariesDead: 19 })).toBe(0);
+    expect(observationSeverity('bud-injury', { budsCut: 100, primariesDead: 20 })).toBe(2);
+    expect(observationSeverity('bud-injury', { budsCut: 100, primariesDead: 80 })).toBe(2);
+    expect(observationSeverity('bud-injury', { budsCut: 100, primariesDead: 81 })).toBe(3);
+  });
+
+  it('scores a pruning record by how far its buds stray from the target, in the settings\' steps', () => {
+    // 2 canes × 13 buds + 2 renewal spurs × 2 buds = 30 buds retained.
+    const record = (budTarget: number) => observationSeverity('pruning-record', { canesKept: 2, budsPerCane: 13, renewalSpurs: 2, budTarget });
+    expect(record(30)).toBe(0);
+    expect(record(33)).toBe(0); // 9% off
+    expect(record(36)).toBe(1); // 16.7% off
+    expect(record(45)).toBe(2); // 33% off
+    expect(record(70)).toBe(3); // 57% off
+    expect(record(0)).toBe(3);
+  });
+
+  it('derives the target from a pruning weight in kilograms with the settings\' formula (vinifera 20 + 20 by default)', () => {
+    // 0.6803886 kg is 1.5 lb: 30 buds under 20 + 20.
+    expect(observationSeverity('pruning-record', { canesKept: 2, budsPerCane: 13, renewalSpurs: 2, pruningWeightKg: 0.6803886 })).toBe(0);
+    expect(observationSeverity('pruning-record', { canesKept: 2, budsPerCane: 13, renewalSpurs: 2, pruningWeightKg: 0.8 })).toBe(1); // 1.76 lb → 35 buds, 14% off
+  });
+
+  it('has nothing to measure a pruning record without a target against, and scores an empty record against a zero target as fine', () => {
+    expect(observationSeverity('pruning-record', { canesKept: 1, budsPerCane: 40, renewalSpurs: 0 })).toBe(0);
+    expect(observationSeverity('pruning-record', { canesKept: 0, budsPerCane: 0, renewalSpurs: 0, budTarget: 0 })).toBe(0);
+  });
+
+  it('scores a note 0', () => {
+    expect(observationSeverity('note', {})).toBe(0);
+  });
+
+  it('rejects an unknown kind, missing data and invalid fields with RangeErrors', () => {
+    expect(() => observationSeverity('frost' as never, {} as never)).toThrow(/kind must be one of/);
+    expect(() => observationSeverity('note', null as never)).toThrow(/data for 'note' must be an object/);
+    expect(() => observationSeverity('cane-diameter', { diameterMm: 0 })).toThrow(/diameterMm/);
+    expect(() => observationSeverity('shade-cane', { longestInternodeMm: 60, exposure: 'dusk' as never, colourGood: true })).toThrow(/exposure/);
+    expect(() => observationSeverity('shade-cane', { longestInternodeMm: 60, exposure: 'sun', colourGood: true, diameterMm: -1 })).toThrow(/diameterMm/);
+    expect(() => observationSeverity('weak-budbreak', { budsRetained: 10, budsPushed: 12 })).toThrow(/cannot exceed/);
+    expect(() => observationSeverity('trunk-injury', { cause: 'cold', severity: 'light', girdlingPercent: 120 })).toThrow(/girdlingPercent/);
+    expect(() => observationSeverity('trunk-injury', { cause: 'frost' as never, severity: 'light', girdlingPercent: 0 })).toThrow(/cause/);
+    expect(() => observationSeverity('cane-injury', { cause: 'hail', canesAffected: 1.5, severity: 'light' })).toThrow(/canesAffected/);
+    expect(() => observationSeverity('cane-injury', { cause: 'hail', canesAffected: 1, severity: 'awful' as never })).toThrow(/severity/);
+    expect(() => observationSeverity('missing-vine', { state: 'gone' as never })).toThrow(/state/);
+    expect(() => observationSeverity('bud-injury', { budsCut: 0, primariesDead: 0 })).toThrow(/budsCut/);
+    expect(() => observationSeverity('pruning-record', { canesKept: -1, budsPerCane: 13, renewalSpurs: 2 })).toThrow(/canesKept/);
+    expect(() => observationSeverity('pruning-record', { canesKept: 1, budsPerCane: 13, renewalSpurs: 2, budTarget: -5 })).toThrow(/budTarget/);
+  });
+});
+
+describe('observation kinds', () => {
+  it('are the kebab-case kinds of the sync contract, recognised by isObservationKind', () => {
+    expect(OBSERVATION_KINDS).toEqual(['cane-diameter', 'shade-cane', 'weak-budbreak', 'trunk-injury', 'cane-injury', 'missing-vine', 'bud-injury', 'pruning-record', 'note']);
+    expect(isObservationKind('weak-budbreak')).toBe(true);
+    expect(isObservationKind('Weak budbreak')).toBe(false);
+    expect(isObservationKind(3)).toBe(false);
+  });
+});
