@@ -39,7 +39,9 @@ async function main() {
     }
     buildIfNeeded(env);
     const next = await startNext(profile.appPort, env);
-    next.once('exit', (code) => void stop(code ?? 1));
+    next.once('exit', (code) => {
+      if (!stopping) void stop(code ?? 1);
+    });
     const seconds = ((Date.now() - started) / 1000).toFixed(1);
     console.log(`
   Vineward is running at ${env.NEXTAUTH_URL}   (ready in ${seconds} s)

@@ -3,7 +3,7 @@ import { spawn, type ChildProcess } from 'node:child_process';
 import { createHash } from 'node:crypto';
 import { existsSync, readdirSync, readFileSync, statSync, writeFileSync } from 'node:fs';
 import path from 'node:path';
-import { log, root, run, waitForPort } from './services';
+import { log, root, run, track, waitForPort } from './services';
 
 const SOURCES = ['app', 'components', 'lib', 'service-worker', 'public', 'types', 'proxy.ts', 'instrumentation.ts', 'instrumentation-node.ts',
   'next.config.mjs', 'tailwind.config.ts', 'postcss.config.mjs', 'package-lock.json', 'tsconfig.json'];
@@ -47,6 +47,7 @@ export async function startNext(port: number, env: NodeJS.ProcessEnv): Promise<C
     env: { ...env, NEXT_TELEMETRY_DISABLED: '1', PORT: String(port) },
     stdio: ['ignore', 'inherit', 'inherit'],
   });
+  track(child);
   await Promise.race([
     waitForPort(port, 60_000),
     new Promise((_, reject) => child.once('exit', (code) => reject(new Error(`next start exited with code ${code}`)))),

@@ -41,6 +41,8 @@ export function profileEnv(p: Profile, outside: NodeJS.ProcessEnv = process.env)
   const env: NodeJS.ProcessEnv = {
     ...outside,
     NEXT_TELEMETRY_DISABLED: '1',
+    // The SDK is pinned to a release that supports Node 20 (see STACK.md); its notice about later releases is noise here.
+    AWS_SDK_JS_NODE_VERSION_SUPPORT_WARNING_DISABLED: 'true',
     S3_ENDPOINT: outside.S3_ENDPOINT ?? (local.s3 ? `http://127.0.0.1:${p.s3Port}` : undefined),
     S3_REGION: outside.S3_REGION ?? 'local',
     S3_BUCKET: outside.S3_BUCKET ?? 'vineward',

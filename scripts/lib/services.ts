@@ -166,6 +166,13 @@ export function portIsFree(port: number) {
 
 const children = new Set<ChildProcess>();
 
+/** Remembers a child process so that stopChildren() ends it. */
+export function track(child: ChildProcess) {
+  children.add(child);
+  child.once('exit', () => children.delete(child));
+  return child;
+}
+
 /** Starts a Node program of ours (TypeScript through tsx) and waits until it listens. */
 export async function startNode(name: string, script: string, args: string[], port: number, env?: NodeJS.ProcessEnv) {
   if (!(await portIsFree(port))) throw new Error(`${name}: port ${port} on 127.0.0.1 is taken; stop what runs there first`);
@@ -174,9 +181,8 @@ export async function startNode(name: string, script: string, args: string[], po
     env: env ?? process.env,
     stdio: ['ignore', 'pipe', 'inherit'],
   });
-  children.add(child);
+  track(child);
   child.stdout?.on('data', (chunk: Buffer) => process.env.VINEWARD_VERBOSE && process.stdout.write(chunk));
-  child.once('exit', () => children.delete(child));
   await waitForPort(port);
   return child;
 }
