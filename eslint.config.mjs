@@ -4,7 +4,7 @@ import tseslint from 'typescript-eslint';
 const ioModules = ['fs', 'node:*', 'knex', 'pg', 'react', 'react-dom', 'next', 'next/*', '@aws-sdk/*', 'nodemailer', 'sharp'];
 
 export default tseslint.config(
-  { ignores: ['.next/**', 'node_modules/**', '.data/**', 'coverage/**', 'public/sw.js', 'test-results/**', 'playwright-report/**', 'next-env.d.ts'] },
+  { ignores: ['.next/**', '.next-slot-*/**', 'node_modules/**', '.data/**', 'coverage/**', 'public/sw.js', 'test-results/**', 'playwright-report/**', 'next-env.d.ts'] },
   js.configs.recommended,
   ...tseslint.configs.recommended,
   {

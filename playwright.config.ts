@@ -3,6 +3,7 @@ import { defineConfig } from '@playwright/test';
 // Driven by scripts/test.ts, which starts the app and its services and sets APP_URL.
 export default defineConfig({
   testDir: 'tests/e2e',
+  outputDir: `test-results/slot-${process.env.VINEWARD_SLOT ?? 0}`,
   workers: 1,
   retries: 0,
   timeout: 60_000,

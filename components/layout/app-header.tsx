@@ -14,6 +14,7 @@ interface Props {
 const NAV: { href: string; label: string; roles: Role[] }[] = [
   { href: '/field', label: 'Field', roles: ['manager', 'scout', 'pruner'] },
   { href: '/desk', label: 'Desk', roles: ['manager', 'advisor', 'scout', 'pruner'] },
+  { href: '/blocks', label: 'Blocks', roles: ['manager', 'advisor', 'scout', 'pruner'] },
   { href: '/team', label: 'Team', roles: ['manager'] },
   { href: '/safety', label: 'Safety', roles: ['manager', 'scout', 'pruner', 'advisor'] },
 ];

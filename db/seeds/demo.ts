@@ -5,6 +5,7 @@
  */
 import bcrypt from 'bcryptjs';
 import type { Knex } from 'knex';
+import { seedDemoLayout } from './demo-layout';
 
 export const DEMO_PASSWORD = 'vineward-demo';
 
@@ -44,4 +45,6 @@ export async function seedDemo(knex: Knex) {
     ])
     .onConflict(['organisation_id', 'user_id'])
     .ignore();
+
+  await seedDemoLayout(knex, DEMO_ORG_ID);
 }

@@ -25,11 +25,11 @@ function fingerprint() {
   return createHash('sha256').update(files.join('\n')).digest('hex');
 }
 
-const stamp = path.join(root, '.next', 'vineward-build.txt');
-
 export function buildIfNeeded(env: NodeJS.ProcessEnv) {
+  const dist = path.join(root, env.NEXT_DIST_DIR ?? '.next');
+  const stamp = path.join(dist, 'vineward-build.txt');
   const print = fingerprint();
-  if (existsSync(path.join(root, '.next', 'BUILD_ID')) && existsSync(stamp) && readFileSync(stamp, 'utf8') === print) {
+  if (existsSync(path.join(dist, 'BUILD_ID')) && existsSync(stamp) && readFileSync(stamp, 'utf8') === print) {
     log('The app is already built for these sources');
     return;
   }

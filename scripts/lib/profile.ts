@@ -18,9 +18,24 @@ export interface Profile {
   inboxPort: number;
 }
 
+/**
+ * VINEWARD_SLOT=N (1–9) gives a test run its own ports, data folder and build folder, so that
+ * several people (or agents) can run `npm test` side by side in one checkout.
+ */
+export const slot = Math.max(0, Math.min(9, Number(process.env.VINEWARD_SLOT ?? 0) || 0));
+export const distDir = slot ? `.next-slot-${slot}` : '.next';
+
 export const PROFILES: Record<Profile['name'], Profile> = {
   demo: { name: 'demo', dir: path.join(root, '.data/demo'), appPort: 3000, pgPort: 54329, s3Port: 4569, smtpPort: 2525, inboxPort: 2526 },
-  test: { name: 'test', dir: path.join(root, '.data/test'), appPort: 3100, pgPort: 54339, s3Port: 4579, smtpPort: 2535, inboxPort: 2536 },
+  test: {
+    name: 'test',
+    dir: path.join(root, slot ? `.data/test-${slot}` : '.data/test'),
+    appPort: 3100 + slot * 10,
+    pgPort: 54339 + slot * 10,
+    s3Port: 4579 + slot * 10,
+    smtpPort: 2535 + slot * 10,
+    inboxPort: 2536 + slot * 10,
+  },
 };
 
 function secret(dir: string) {
@@ -41,6 +56,7 @@ export function profileEnv(p: Profile, outside: NodeJS.ProcessEnv = process.env)
   const env: NodeJS.ProcessEnv = {
     ...outside,
     NEXT_TELEMETRY_DISABLED: '1',
+    NEXT_DIST_DIR: p.name === 'test' ? distDir : '.next',
     // The SDK is pinned to a release that supports Node 20 (see STACK.md); its notice about later releases is noise here.
     AWS_SDK_JS_NODE_VERSION_SUPPORT_WARNING_DISABLED: 'true',
     S3_ENDPOINT: outside.S3_ENDPOINT ?? (local.s3 ? `http://127.0.0.1:${p.s3Port}` : undefined),
