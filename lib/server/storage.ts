@@ -1,5 +1,6 @@
 import 'server-only';
-import { HeadBucketCommand, S3Client } from '@aws-sdk/client-s3';
+import { GetObjectCommand, HeadBucketCommand, PutObjectCommand, S3Client } from '@aws-sdk/client-s3';
+import { getSignedUrl } from '@aws-sdk/s3-request-presigner';
 import { getEnv } from '@/lib/env';
 
 const store = globalThis as unknown as { vinewardS3?: S3Client };
@@ -29,4 +30,21 @@ export async function storageReachable(): Promise<boolean> {
   } catch {
     return false;
   }
+}
+
+/**
+ * Object keys are namespaced by organisation; the bucket is private and every read goes through a
+ * short-lived presigned URL handed out after the guard, so keys never need to be secret.
+ */
+export const photoKey = (organisationId: string, photoId: string) => `orgs/${organisationId}/photos/${photoId}.jpg`;
+export const thumbKey = (organisationId: string, photoId: string) => `orgs/${organisationId}/photos/${photoId}.thumb.jpg`;
+
+export const PRESIGN_SECONDS = 300;
+
+export function presignGet(key: string, seconds = PRESIGN_SECONDS) {
+  return getSignedUrl(s3(), new GetObjectCommand({ Bucket: bucket(), Key: key }), { expiresIn: seconds });
+}
+
+export function presignPut(key: string, contentType: string, seconds = PRESIGN_SECONDS) {
+  return getSignedUrl(s3(), new PutObjectCommand({ Bucket: bucket(), Key: key, ContentType: contentType }), { expiresIn: seconds });
 }
