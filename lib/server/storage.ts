@@ -32,12 +32,7 @@ export async function storageReachable(): Promise<boolean> {
   }
 }
 
-/**
- * Object keys are namespaced by organisation; the bucket is private and every read goes through a
- * short-lived presigned URL handed out after the guard, so keys never need to be secret.
- */
-export const photoKey = (organisationId: string, photoId: string) => `orgs/${organisationId}/photos/${photoId}.jpg`;
-export const thumbKey = (organisationId: string, photoId: string) => `orgs/${organisationId}/photos/${photoId}.thumb.jpg`;
+export { photoKey, thumbKey } from '@/lib/storage-keys';
 
 export const PRESIGN_SECONDS = 300;
 

@@ -1,0 +1,63 @@
+/**
+ * `npm run bench`: speed and size figures, printed with their targets and ratios (never asserted
+ * in tests). Starts the same throwaway services as `npm test` (slot from VINEWARD_SLOT), builds and
+ * starts the app, then runs every tests/bench/*.bench.ts in turn; each exports
+ * `default async function (ctx: BenchContext)` and prints its own lines through ctx.report.
+ *
+ *   npm run bench -- grid     runs only benches whose file name contains "grid"
+ */
+import { readdirSync } from 'node:fs';
+import path from 'node:path';
+import knex from 'knex';
+import { seedDemo } from '../db/seeds/demo';
+import type { BenchContext } from '../tests/bench/context';
+import { buildIfNeeded, startNext } from './lib/app';
+import { migrate } from './lib/migrate';
+import { PROFILES } from './lib/profile';
+import { log, root, stopChild } from './lib/services';
+import { startStack } from './lib/stack';
+
+async function main() {
+  const filter = process.argv.slice(2).find((a) => !a.startsWith('-'));
+  const files = readdirSync(path.join(root, 'tests/bench'))
+    .filter((f) => f.endsWith('.bench.ts') && (!filter || f.includes(filter)))
+    .sort();
+  const profile = PROFILES.test;
+  const stack = await startStack(profile, { fast: true });
+  let next: Awaited<ReturnType<typeof startNext>> | undefined;
+  try {
+    const env: NodeJS.ProcessEnv = { ...stack.env, BCRYPT_COST: '4', APP_URL: `http://localhost:${profile.appPort}` };
+    Object.assign(process.env, env);
+    await migrate(env.DATABASE_URL!);
+    const db = knex({ client: 'pg', connection: env.DATABASE_URL, pool: { min: 0, max: 8 } });
+    await seedDemo(db);
+    buildIfNeeded(env);
+    next = await startNext(profile.appPort, env);
+    const lines: string[] = [];
+    const ctx: BenchContext = {
+      db,
+      appUrl: env.APP_URL!,
+      env,
+      distDir: path.join(root, env.NEXT_DIST_DIR ?? '.next'),
+      report(line: string) {
+        lines.push(line);
+        console.log(`  ${line}`);
+      },
+    };
+    for (const file of files) {
+      log(`Bench ${file}`);
+      const mod = (await import(path.join(root, 'tests/bench', file))) as { default: (ctx: BenchContext) => Promise<void> };
+      await mod.default(ctx);
+    }
+    await db.destroy();
+    console.log(`\nSummary\n${lines.map((l) => `  ${l}`).join('\n')}`);
+  } finally {
+    if (next) await stopChild(next);
+    await stack.stop();
+  }
+}
+
+main().catch((err) => {
+  console.error(err);
+  process.exit(1);
+});
