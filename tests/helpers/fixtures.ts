@@ -52,3 +52,30 @@ export async function makeTeam() {
   );
   return { org, manager: manager!, scout: scout!, pruner: pruner!, advisor: advisor! };
 }
+
+/** A small block with every slot planted, built straight in the database. */
+export async function makeBlock(organisationId: string, o: { rows?: number; vinesPerRow?: number; name?: string } = {}) {
+  const rows = o.rows ?? 3;
+  const vinesPerRow = o.vinesPerRow ?? 10;
+  const db = testDb();
+  const [block] = await db('blocks')
+    .insert({
+      organisation_id: organisationId,
+      name: o.name ?? `Block ${randomUUID().slice(0, 6)}`,
+      variety: 'Test Noir',
+      training_system: 'cane',
+      row_spacing_m: 2.5,
+      vine_spacing_m: 1.2,
+      row_count: rows,
+      vines_per_row: vinesPerRow,
+      vines_per_panel: 5,
+    })
+    .returning('*');
+  await db('block_rows').insert(Array.from({ length: rows }, (_, i) => ({ block_id: block.id, row_number: i + 1, vine_count: vinesPerRow })));
+  await db.raw(
+    `insert into vine_positions (block_id, row_number, position)
+     select ?, r, p from generate_series(1, ?) r, generate_series(1, ?) p`,
+    [block.id, rows, vinesPerRow],
+  );
+  return block as { id: string; name: string; organisation_id: string };
+}
