@@ -12,6 +12,8 @@ export const PERMISSIONS = {
   'edit-own-observation': ['manager', 'scout', 'pruner'],
   'flag-vine': ['manager', 'scout', 'pruner'],
   'manage-tasks': ['manager'],
+  // Sampling plans are usually drawn up by the consulting viticulturist.
+  'plan-sampling': ['manager', 'advisor'],
   'complete-task': ['manager', 'pruner'],
   comment: ['manager', 'scout', 'pruner', 'advisor'],
   read: ['manager', 'scout', 'pruner', 'advisor'],

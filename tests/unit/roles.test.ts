@@ -9,6 +9,8 @@ const TABLE: [Permission, Record<Role, boolean>][] = [
   ['edit-own-observation', { manager: true, scout: true, pruner: true, advisor: false }],
   ['flag-vine', { manager: true, scout: true, pruner: true, advisor: false }],
   ['manage-tasks', { manager: true, scout: false, pruner: false, advisor: false }],
+  // Not in the DESIGN table: the field-scouting issue says plans are made "by a manager or advisor".
+  ['plan-sampling', { manager: true, scout: false, pruner: false, advisor: true }],
   ['complete-task', { manager: true, scout: false, pruner: true, advisor: false }],
   ['comment', { manager: true, scout: true, pruner: true, advisor: true }],
   ['read', { manager: true, scout: true, pruner: true, advisor: true }],

@@ -1,0 +1,47 @@
+import 'server-only';
+import type { Db } from '@/lib/server/db';
+
+export interface SamplingPlanView {
+  id: string;
+  blockId: string;
+  name: string;
+  seed: number;
+  options: Record<string, unknown>;
+  addresses: { row: number; position: number }[];
+  createdAt: Date;
+}
+
+export function listSamplingPlans(db: Db, organisationId: string, blockId?: string) {
+  const q = db('sampling_plans')
+    .where({ organisation_id: organisationId })
+    .orderBy('created_at', 'desc')
+    .select<SamplingPlanView[]>({
+      id: 'id',
+      blockId: 'block_id',
+      name: 'name',
+      seed: 'seed',
+      options: 'options',
+      addresses: 'addresses',
+      createdAt: 'created_at',
+    });
+  if (blockId) q.andWhere({ block_id: blockId });
+  return q;
+}
+
+export async function insertSamplingPlan(
+  db: Db,
+  p: { organisationId: string; blockId: string; name: string; seed: number; options: unknown; addresses: unknown; createdBy: string },
+) {
+  const [row] = await db('sampling_plans')
+    .insert({
+      organisation_id: p.organisationId,
+      block_id: p.blockId,
+      name: p.name,
+      seed: p.seed,
+      options: JSON.stringify(p.options),
+      addresses: JSON.stringify(p.addresses),
+      created_by: p.createdBy,
+    })
+    .returning('id');
+  return row.id as string;
+}

@@ -1,0 +1,39 @@
+import 'server-only';
+import { randomInt } from 'node:crypto';
+import type { z } from 'zod';
+import type { Member } from '@/lib/server/auth/guard';
+import { db } from '@/lib/server/db';
+import { AppError } from '@/lib/server/errors';
+import { getBlock, listPositions } from '@/lib/server/queries/blocks';
+import { insertSamplingPlan } from '@/lib/server/queries/sampling-plans';
+import type { samplingPlanSchema } from '@/lib/validation/sampling-plan';
+import { samplingPlan } from '@/lib/viticulture';
+
+/** Draws a reproducible list of vines (the seed is stored) over the planted slots of a block. */
+export async function createSamplingPlan(member: Member, input: z.infer<typeof samplingPlanSchema>) {
+  const block = await getBlock(db(), member.organisationId, input.blockId);
+  if (!block) throw new AppError('not-found', 'No such block in your organisation.', { blockId: ['No such block'] });
+  const positions = await listPositions(db(), block.id);
+  const vinesPerRow: Record<number, number> = {};
+  for (const p of positions) vinesPerRow[p.row_number] = Math.max(vinesPerRow[p.row_number] ?? 0, p.position);
+  const seed = input.seed ?? randomInt(0, 2 ** 31 - 1);
+  const options = { count: input.count, seed, avoidRowEnds: input.avoidRowEnds };
+  const addresses = samplingPlan(
+    {
+      rows: Object.keys(vinesPerRow).map(Number),
+      vinesPerRow,
+      skip: positions.filter((p) => p.status === 'missing' || p.status === 'dead').map((p) => ({ row: p.row_number, position: p.position })),
+    },
+    options,
+  );
+  const id = await insertSamplingPlan(db(), {
+    organisationId: member.organisationId,
+    blockId: block.id,
+    name: input.name,
+    seed,
+    options,
+    addresses,
+    createdBy: member.userId,
+  });
+  return { id, name: input.name, seed, count: addresses.length, addresses };
+}
