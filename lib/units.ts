@@ -82,7 +82,7 @@ function toMm(value: number, unit: LengthUnit) {
 }
 
 // A number ("2.4", "10 1/2", "3/8") followed by an optional unit word or mark.
-const TOKEN = /^\s*(\d+(?:\.\d+)?(?:\s+\d+\/\d+)?|\d+\/\d+|\.\d+)\s*(millimet(?:re|er)s?|centimet(?:re|er)s?|met(?:re|er)s?|inch(?:es)?|feet|foot|mm|cm|ft|in|m|''|["″'′])?/;
+const TOKEN = /^\s*(\d+\s+\d+\/\d+|\d+\/\d+|\d+(?:\.\d+)?|\.\d+)\s*(millimet(?:re|er)s?|centimet(?:re|er)s?|met(?:re|er)s?|inch(?:es)?|feet|foot|mm|cm|ft|in|m|''|["″'′])?/;
 
 function numberOf(text: string) {
   const [whole, fraction] = text.includes('/') ? (text.includes(' ') ? text.split(/\s+/) : ['0', text]) : [text, undefined];
