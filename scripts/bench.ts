@@ -30,7 +30,7 @@ async function main() {
     Object.assign(process.env, env);
     await migrate(env.DATABASE_URL!);
     const db = knex({ client: 'pg', connection: env.DATABASE_URL, pool: { min: 0, max: 8 } });
-    await seedDemo(db);
+    await seedDemo(db, { env });
     buildIfNeeded(env);
     next = await startNext(profile.appPort, env);
     const lines: string[] = [];

@@ -32,7 +32,7 @@ async function main() {
     if (env.VINEWARD_DEMO === '1') {
       const db = knex({ client: 'pg', connection: env.DATABASE_URL });
       try {
-        await seedDemo(db);
+        await seedDemo(db, { env });
       } finally {
         await db.destroy();
       }

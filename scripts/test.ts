@@ -53,7 +53,7 @@ async function main() {
     };
     await migrate(env.DATABASE_URL!);
     const db = knex({ client: 'pg', connection: env.DATABASE_URL });
-    await seedDemo(db).finally(() => db.destroy());
+    await seedDemo(db, { env }).finally(() => db.destroy());
 
     const needsApp = only !== 'unit';
     if (needsApp) {

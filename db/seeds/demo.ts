@@ -6,6 +6,7 @@
 import bcrypt from 'bcryptjs';
 import type { Knex } from 'knex';
 import { seedDemoLayout } from './demo-layout';
+import { seedDemoObservations, type DemoObservationOptions } from './demo-observations';
 
 export const DEMO_PASSWORD = 'vineward-demo';
 
@@ -19,7 +20,7 @@ export const DEMO_USERS = [
   { id: '8a6b2c10-1d4e-4f3a-8b7c-000000000004', email: 'advisor@example.com', name: 'Dr. Anselm Pryde', role: 'advisor' },
 ] as const;
 
-export async function seedDemo(knex: Knex) {
+export async function seedDemo(knex: Knex, options: DemoObservationOptions = {}) {
   await knex('organisations')
     .insert([
       { id: DEMO_ORG_ID, name: 'Ninefold Ridge Estate', unit_system: 'metric' },
@@ -47,4 +48,5 @@ export async function seedDemo(knex: Knex) {
     .ignore();
 
   await seedDemoLayout(knex, DEMO_ORG_ID);
+  await seedDemoObservations(knex, DEMO_ORG_ID, options);
 }
