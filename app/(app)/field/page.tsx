@@ -1,25 +1,34 @@
 import type { Metadata } from 'next';
+import { getTranslations } from 'next-intl/server';
+import { FieldBlockList } from '@/components/field/field-block-list';
+import { LanguageSwitch } from '@/components/field/language-switch';
 import { ButtonLink } from '@/components/ui/button';
+import { isLocale } from '@/i18n/locales';
 import { memberForPage } from '@/lib/server/auth/guard';
+import { db } from '@/lib/server/db';
+import { getUserById } from '@/lib/server/queries/users';
 
 export const metadata: Metadata = { title: 'Field' };
 
 export default async function FieldPage() {
   const member = await memberForPage();
+  const t = await getTranslations('field');
+  const user = await getUserById(db(), member.userId);
   return (
-    <div className="mx-auto flex max-w-md flex-col gap-4">
+    <div className="flex flex-col gap-4">
       <div>
         <p className="text-bark-soft">{member.organisationName}</p>
-        <h1 className="text-3xl font-extrabold">Field</h1>
-        <p className="mt-1">
-          Hello {member.name ?? member.email} — <strong>{member.role}</strong>.
-        </p>
+        <h1 className="text-3xl font-extrabold">{t('title')}</h1>
+        <p className="mt-1">{t('hello', { name: member.name ?? member.email })}</p>
       </div>
-      <ButtonLink href="/safety" size="large" variant="secondary">
-        Cautions before you go out
+      <LanguageSwitch saved={isLocale(user?.locale) ? user.locale : 'en'} />
+      <h2 className="text-xl font-bold">{t('chooseBlock')}</h2>
+      <FieldBlockList />
+      <ButtonLink href="/field/outbox" variant="secondary">
+        {t('outbox')}
       </ButtonLink>
-      <ButtonLink href="/desk" size="large" variant="secondary">
-        Team and organisation
+      <ButtonLink href="/safety" variant="secondary">
+        {t('cautions')}
       </ButtonLink>
     </div>
   );

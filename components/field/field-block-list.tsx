@@ -1,0 +1,42 @@
+'use client';
+
+import { useQuery } from '@tanstack/react-query';
+import { useTranslations } from 'next-intl';
+import { Notice } from '@/components/ui/field';
+
+interface BlockSummary {
+  id: string;
+  name: string;
+  variety: string;
+  rowCount: number;
+  vineCount: number;
+}
+
+export function FieldBlockList() {
+  const t = useTranslations('field');
+  const { data, isPending, isError } = useQuery({
+    queryKey: ['blocks'],
+    queryFn: async () => {
+      const res = await fetch('/api/blocks');
+      if (!res.ok) throw new Error(String(res.status));
+      return ((await res.json()) as { blocks: BlockSummary[] }).blocks;
+    },
+    networkMode: 'always',
+  });
+  if (isPending) return <p>{t('loading')}</p>;
+  if (isError) return <Notice tone="warn">{t('offlineNoBlock')}</Notice>;
+  if (data.length === 0) return <Notice>{t('noBlocks')}</Notice>;
+  return (
+    <ul className="flex flex-col gap-2">
+      {data.map((b) => (
+        <li key={b.id}>
+          {/* A plain link: a full page load works offline from the service worker's copy. */}
+          <a href={`/field/blocks/${b.id}`} className="flex min-h-16 flex-col justify-center rounded-xl border-2 border-line bg-panel px-4 py-2 no-underline hover:border-rootstock">
+            <span className="text-lg font-extrabold">{b.name}</span>
+            <span className="text-bark-soft">{t('blockSummary', { variety: b.variety, rows: b.rowCount, vines: b.vineCount })}</span>
+          </a>
+        </li>
+      ))}
+    </ul>
+  );
+}

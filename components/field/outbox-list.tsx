@@ -1,0 +1,105 @@
+'use client';
+
+import { useTranslations } from 'next-intl';
+import { useEffect, useState } from 'react';
+import { ObservationForm } from '@/components/field/observation-form';
+import { Button } from '@/components/ui/button';
+import { Notice } from '@/components/ui/field';
+import {
+  listObservations,
+  listPhotos,
+  onOutboxChange,
+  reissueObservation,
+  removeObservation,
+  removePhoto,
+  replaceObservation,
+  type ObservationEntry,
+  type PhotoEntry,
+} from '@/lib/offline/outbox';
+import { syncNow } from '@/lib/offline/sync';
+import type { ObservationKind } from '@/lib/viticulture';
+
+/** Everything still on this phone, and a way to fix or discard what the server refused. */
+export function OutboxList({ owner, imperial }: { owner: string; imperial: boolean }) {
+  const t = useTranslations();
+  const [records, setRecords] = useState<ObservationEntry[]>([]);
+  const [photos, setPhotos] = useState<PhotoEntry[]>([]);
+  const [editing, setEditing] = useState<ObservationEntry>();
+
+  useEffect(() => {
+    const load = () => {
+      void listObservations().then((all) => setRecords(all.filter((e) => e.owner === owner)));
+      void listPhotos().then((all) => setPhotos(all.filter((p) => p.owner === owner)));
+    };
+    load();
+    return onOutboxChange(load);
+  }, [owner]);
+
+  if (editing) {
+    return (
+      <ObservationForm
+        kind={editing.record.kind as ObservationKind}
+        imperial={imperial}
+        allowNext={false}
+        initial={{ data: editing.record.data as Record<string, unknown>, note: String(editing.record.note ?? '') }}
+        onCancel={() => setEditing(undefined)}
+        onSave={async (saved) => {
+          await replaceObservation({ ...editing.record, data: saved.data, note: saved.note });
+          setEditing(undefined);
+          void syncNow();
+        }}
+      />
+    );
+  }
+
+  if (records.length === 0 && photos.length === 0) return <Notice tone="ok">{t('outbox.empty')}</Notice>;
+
+  return (
+    <ul className="flex flex-col gap-2">
+      {records.map((e) => (
+        <li key={e.id} className={`rounded-xl border-2 bg-panel p-3 ${e.state === 'rejected' ? 'border-alarm' : 'border-line'}`} data-testid="outbox-record">
+          <p className="font-bold">
+            {t(`kinds.${e.record.kind as ObservationKind}`)} · {t('field.address', { row: e.record.row, position: e.record.position })}
+          </p>
+          <p className="text-sm text-bark-soft">{e.state === 'rejected' ? t('outbox.rejected') : t('outbox.queued')}</p>
+          {e.errors?.map((err) => (
+            <p key={err.field + err.message} className="text-sm font-bold text-alarm">
+              {err.field}: {err.message}
+            </p>
+          ))}
+          {e.state === 'rejected' && (
+            <div className="mt-2 flex flex-wrap gap-2">
+              {e.conflict ? (
+                <Button type="button" onClick={() => void reissueObservation(e.id).then(() => syncNow())}>
+                  {t('outbox.keepAsNew')}
+                </Button>
+              ) : (
+                <Button type="button" onClick={() => setEditing(e)}>
+                  {t('outbox.edit')}
+                </Button>
+              )}
+              <Button type="button" variant="danger" onClick={() => window.confirm(t('outbox.confirmDiscard')) && void removeObservation(e.id)}>
+                {t('outbox.discard')}
+              </Button>
+            </div>
+          )}
+        </li>
+      ))}
+      {photos.map((p) => (
+        <li key={p.id} className={`rounded-xl border-2 bg-panel p-3 ${p.state === 'rejected' ? 'border-alarm' : 'border-line'}`} data-testid="outbox-photo">
+          <p className="font-bold">📷 {Math.round(p.bytes / 1024)} KB</p>
+          {p.state === 'rejected' ? (
+            <>
+              <p className="text-sm font-bold text-alarm">{t('outbox.photoRejected', { reason: p.error ?? '' })}</p>
+              <Button type="button" variant="danger" className="mt-2" onClick={() => window.confirm(t('outbox.confirmDiscard')) && void removePhoto(p.id)}>
+                {t('outbox.discard')}
+              </Button>
+            </>
+          ) : (
+            <p className="text-sm text-bark-soft">{t('outbox.queued')}</p>
+          )}
+        </li>
+      ))}
+    </ul>
+  );
+}

@@ -1,0 +1,268 @@
+'use client';
+
+import { useQuery } from '@tanstack/react-query';
+import { useTranslations } from 'next-intl';
+import { useCallback, useEffect, useMemo, useState } from 'react';
+import { ObservationForm, type SavedObservation } from '@/components/field/observation-form';
+import { ReiWarning } from '@/components/field/rei-warning';
+import { Notice } from '@/components/ui/field';
+import { toPostAddress } from '@/lib/address';
+import { cn } from '@/lib/cn';
+import { enqueueObservation, enqueuePhoto, listObservations, onOutboxChange } from '@/lib/offline/outbox';
+import { requestBackgroundSync, syncNow } from '@/lib/offline/sync';
+import { STATUS_BY_LETTER, useFieldLayout } from '@/lib/offline/use-field-layout';
+import { OBSERVATION_KINDS, type ObservationKind } from '@/lib/viticulture';
+
+interface Address {
+  row: number;
+  position: number;
+}
+
+const SEVERITY_STYLE = ['border-line', 'border-cut', 'border-alarm', 'border-alarm bg-alarm-tint'];
+
+function readAddress(): { address?: Address; planId?: string } {
+  const q = new URLSearchParams(window.location.search);
+  const planId = q.get('plan') ?? undefined;
+  const row = Number(q.get('row'));
+  const position = Number(q.get('position'));
+  return { planId, address: row > 0 && position > 0 ? { row, position } : undefined };
+}
+
+/** Queued records of this phone for one vine, kept live as the outbox changes. */
+function useQueuedHere(blockId: string, at: Address | undefined) {
+  const [count, setCount] = useState(0);
+  useEffect(() => {
+    if (!at) return;
+    const load = () =>
+      void listObservations().then((all) =>
+        setCount(all.filter((e) => e.record.blockId === blockId && e.record.row === at.row && e.record.position === at.position).length),
+      );
+    load();
+    return onOutboxChange(load);
+  }, [blockId, at]);
+  return count;
+}
+
+export function VineStepper({ blockId, owner }: { blockId: string; owner: string }) {
+  const t = useTranslations();
+  const { data: layout, isPending, isError } = useFieldLayout(blockId);
+  const [at, setAt] = useState<Address>();
+  const [planId, setPlanId] = useState<string>();
+  const [kind, setKind] = useState<ObservationKind>();
+  const [flash, setFlash] = useState<string>();
+  const [jump, setJump] = useState('');
+
+  useEffect(() => {
+    const initial = readAddress();
+    setPlanId(initial.planId);
+    setAt(initial.address);
+  }, []);
+
+  const plan = useMemo(() => layout?.plans.find((p) => p.id === planId), [layout, planId]);
+  useEffect(() => {
+    if (plan && !at) setAt(plan.addresses[0]);
+  }, [plan, at]);
+
+  const rowOf = useCallback((row: number) => layout?.rows.find((r) => r.row === row), [layout]);
+
+  const moveTo = useCallback(
+    (next: Address) => {
+      setAt(next);
+      setKind(undefined);
+      const q = new URLSearchParams({ row: String(next.row), position: String(next.position) });
+      if (planId) q.set('plan', planId);
+      window.history.replaceState(null, '', `?${q}`);
+    },
+    [planId],
+  );
+
+  const step = useCallback(
+    (delta: 1 | -1) => {
+      if (!at || !layout) return;
+      if (plan) {
+        const i = plan.addresses.findIndex((a) => a.row === at.row && a.position === at.position);
+        const next = plan.addresses[i + delta];
+        if (next) moveTo(next);
+        return;
+      }
+      const row = rowOf(at.row);
+      if (!row) return;
+      const position = at.position + delta;
+      if (position >= 1 && position <= row.vineCount) moveTo({ row: at.row, position });
+    },
+    [at, layout, plan, rowOf, moveTo],
+  );
+
+  const queuedHere = useQueuedHere(blockId, at);
+  const history = useQuery({
+    queryKey: ['vine', blockId, at?.row, at?.position],
+    enabled: !!at,
+    networkMode: 'always',
+    queryFn: async () => {
+      const res = await fetch(`/api/field/blocks/${blockId}/vine?row=${at!.row}&position=${at!.position}`);
+      if (!res.ok) throw new Error(String(res.status));
+      return (await res.json()) as { observations: { id: string; kind: ObservationKind; severity: number; observedAt: string; note: string }[] };
+    },
+  });
+
+  if (isPending) return <p>{t('field.loading')}</p>;
+  if (isError || !layout) return <Notice tone="warn">{t('field.offlineNoBlock')}</Notice>;
+  if (!at) return <p>{t('field.loading')}</p>;
+
+  const row = rowOf(at.row);
+  const letter = row?.statuses[at.position - 1] as keyof typeof STATUS_BY_LETTER | undefined;
+  const status = letter ? STATUS_BY_LETTER[letter] : undefined;
+  const finding = layout.findings.find(([r, p]) => r === at.row && p === at.position);
+  const panel = layout.block.vinesPerPanel;
+  const post = panel ? toPostAddress(at.row, at.position, panel) : undefined;
+  const planIndex = plan ? plan.addresses.findIndex((a) => a.row === at.row && a.position === at.position) : -1;
+  const nextInPlan = plan ? plan.addresses[planIndex + 1] : undefined;
+
+  async function save(saved: SavedObservation, next: boolean) {
+    const id = crypto.randomUUID();
+    await enqueueObservation(owner, {
+      id,
+      blockId,
+      row: at!.row,
+      position: at!.position,
+      kind: kind!,
+      data: saved.data,
+      note: saved.note,
+      observedAt: new Date().toISOString(),
+    });
+    for (const photo of saved.photos) {
+      await enqueuePhoto({
+        id: photo.id,
+        owner,
+        observationId: id,
+        blob: photo.blob,
+        contentType: 'image/jpeg',
+        bytes: photo.blob.size,
+        takenAt: new Date().toISOString(),
+      });
+    }
+    setFlash(t('form.saved'));
+    setKind(undefined);
+    void syncNow();
+    void requestBackgroundSync();
+    if (next) step(1);
+  }
+
+  return (
+    <div className="flex flex-col gap-3 pb-28">
+      <ReiWarning sprays={layout.sprays} />
+      <header className={cn('rounded-xl border-4 bg-panel p-3', SEVERITY_STYLE[finding?.[2] ?? 0])} data-testid="vine-address">
+        <p className="text-sm font-bold text-bark-soft">{layout.block.name}</p>
+        <p className="text-3xl font-extrabold" aria-live="polite">
+          {t('field.address', { row: at.row, position: at.position })}
+        </p>
+        {post && <p className="text-lg">{t('field.postAddress', { post: post.post, vine: post.vine })}</p>}
+        {plan && <p className="font-bold">{t('field.planStep', { index: planIndex + 1, total: plan.addresses.length, name: plan.name })}</p>}
+        <p className="mt-1">
+          <span className={cn('font-bold', status && status !== 'planted' && 'text-alarm')}>{status ? t(`field.status.${status}`) : ''}</span>
+          {' · '}
+          {t('field.openFindings', { count: finding?.[3] ?? 0 })}
+          {finding ? ` (${t('field.worst', { label: t(`field.severity.${finding[2]}`) })})` : ''}
+        </p>
+        {queuedHere > 0 && <p className="text-sm text-cut">{t('field.waitingHere', { count: queuedHere })}</p>}
+      </header>
+
+      {flash && !kind && (
+        <p role="status" className="rounded-lg bg-rootstock-tint p-2 font-bold">
+          ✓ {flash}
+        </p>
+      )}
+
+      {kind ? (
+        <ObservationForm kind={kind} imperial={layout.block.unitSystem === 'imperial'} onSave={save} onCancel={() => setKind(undefined)} />
+      ) : (
+        <>
+          <section aria-label={t('field.record')}>
+            <ul className="grid grid-cols-2 gap-2">
+              {OBSERVATION_KINDS.map((k) => (
+                <li key={k}>
+                  <button
+                    type="button"
+                    onClick={() => {
+                      setFlash(undefined);
+                      setKind(k);
+                    }}
+                    className="flex min-h-16 w-full items-center justify-center rounded-xl border-2 border-rootstock bg-panel px-2 text-center font-bold"
+                  >
+                    {t(`kinds.${k}`)}
+                  </button>
+                </li>
+              ))}
+            </ul>
+          </section>
+          {plan && nextInPlan && (
+            <p className="rounded-lg bg-panel p-2 font-bold">
+              {panel
+                ? t('field.planDirections', { ...toPostAddress(nextInPlan.row, nextInPlan.position, panel) })
+                : t('field.planDirectionsNoPost', { ...nextInPlan })}
+            </p>
+          )}
+          <form
+            className="flex items-end gap-2"
+            onSubmit={(e) => {
+              e.preventDefault();
+              const position = Number(jump);
+              if (row && position >= 1 && position <= row.vineCount) moveTo({ row: at.row, position });
+              setJump('');
+            }}
+          >
+            <label className="flex flex-1 flex-col font-bold">
+              {t('field.jumpTo')}
+              <input
+                value={jump}
+                onChange={(e) => setJump(e.target.value)}
+                inputMode="numeric"
+                pattern="[0-9]*"
+                className="min-h-touch rounded-lg border-2 border-line bg-panel px-3"
+              />
+            </label>
+            <button type="submit" className="min-h-touch rounded-lg border-2 border-rootstock px-4 font-bold text-rootstock">
+              {t('field.go')}
+            </button>
+          </form>
+          <VineHistory items={history.data?.observations} />
+        </>
+      )}
+
+      {!kind && (
+        <nav className="fixed inset-x-0 bottom-0 z-10 border-t-2 border-line bg-ground p-2" aria-label="Vines">
+          <div className="mx-auto grid max-w-md grid-cols-2 gap-2">
+            <button type="button" onClick={() => step(-1)} className="min-h-20 rounded-xl border-2 border-rootstock bg-panel text-xl font-extrabold text-rootstock">
+              ◀ {t('field.previous')}
+            </button>
+            <button type="button" onClick={() => step(1)} className="min-h-20 rounded-xl bg-rootstock text-xl font-extrabold text-white">
+              {t('field.next')} ▶
+            </button>
+          </div>
+        </nav>
+      )}
+    </div>
+  );
+}
+
+function VineHistory({ items }: { items?: { id: string; kind: ObservationKind; severity: number; observedAt: string; note: string }[] }) {
+  const t = useTranslations();
+  return (
+    <section>
+      <h2 className="mb-1 text-lg font-bold">{t('field.history')}</h2>
+      {!items?.length ? (
+        <p className="text-bark-soft">{t('field.noHistory')}</p>
+      ) : (
+        <ul className="flex flex-col gap-1">
+          {items.map((o) => (
+            <li key={o.id} className={cn('rounded-lg border-l-8 bg-panel p-2', SEVERITY_STYLE[o.severity])}>
+              <span className="font-bold">{t(`kinds.${o.kind}`)}</span> · {new Date(o.observedAt).toLocaleDateString()} · {t(`field.severity.${o.severity}`)}
+              {o.note && <p className="text-sm">{o.note}</p>}
+            </li>
+          ))}
+        </ul>
+      )}
+    </section>
+  );
+}
+

@@ -1,0 +1,31 @@
+'use client';
+
+import { Workbox } from 'workbox-window';
+import { useEffect, useState } from 'react';
+
+/**
+ * Registers the service worker and, when a new version is waiting, asks before switching:
+ * swapping code under a scout in the middle of a form would be worse than a stale page.
+ */
+export function ServiceWorker({ labels }: { labels: { update: string; reload: string } }) {
+  const [waiting, setWaiting] = useState<Workbox>();
+  useEffect(() => {
+    if (!('serviceWorker' in navigator) || process.env.NODE_ENV !== 'production') return;
+    const wb = new Workbox('/sw.js', { scope: '/' });
+    wb.addEventListener('waiting', () => setWaiting(wb));
+    wb.addEventListener('controlling', () => window.location.reload());
+    void wb.register();
+    const check = () => void wb.update();
+    const interval = window.setInterval(check, 30 * 60 * 1000);
+    return () => window.clearInterval(interval);
+  }, []);
+  if (!waiting) return null;
+  return (
+    <div role="alert" data-testid="sw-update" className="fixed inset-x-3 bottom-3 z-50 mx-auto flex max-w-md items-center gap-3 rounded-xl border-2 border-rootstock bg-panel p-3 shadow-lg">
+      <span className="font-bold">{labels.update}</span>
+      <button type="button" className="ml-auto min-h-touch rounded-lg bg-rootstock px-4 font-bold text-white" onClick={() => waiting.messageSkipWaiting()}>
+        {labels.reload}
+      </button>
+    </div>
+  );
+}
