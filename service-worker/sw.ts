@@ -5,6 +5,7 @@
  * wakes open pages to drain the outbox when Background Sync fires. The outbox itself lives in the
  * page (IndexedDB); this worker never holds or drops a record.
  */
+import { clientsClaim } from 'workbox-core';
 import { cleanupOutdatedCaches, matchPrecache, precacheAndRoute } from 'workbox-precaching';
 import { registerRoute, setCatchHandler } from 'workbox-routing';
 import { CacheFirst, NetworkFirst } from 'workbox-strategies';
@@ -14,6 +15,9 @@ declare const self: ServiceWorkerGlobalScope & { __WB_MANIFEST: { url: string; r
 
 precacheAndRoute(self.__WB_MANIFEST);
 cleanupOutdatedCaches();
+// The first worker takes over the open page at once, so it works offline without a reload. Later
+// versions wait for the person to accept the update (see components/layout/service-worker.tsx).
+clientsClaim();
 
 const OFFLINE_PAGE = '/offline';
 
