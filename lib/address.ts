@@ -9,17 +9,18 @@
  * vine of that panel) "row 14, post 6, vine 5". A row of v vines has ⌈v / n⌉ + 1 posts.
  */
 
-export interface SlotAddress {
+// Type aliases rather than interfaces, so an address passes where a plain record of values is expected.
+export type SlotAddress = {
   row: number;
   position: number;
-}
+};
 
-export interface PostAddress {
+export type PostAddress = {
   row: number;
   post: number;
   /** 1 … vinesPerPanel, counted from the post towards the far end of the row. */
   vine: number;
-}
+};
 
 function whole(name: string, value: number, min = 1) {
   if (!Number.isInteger(value) || value < min) throw new RangeError(`${name} must be a whole number of ${min} or more, got ${String(value)}`);

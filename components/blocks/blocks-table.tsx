@@ -1,0 +1,169 @@
+'use client';
+
+import { useQuery } from '@tanstack/react-query';
+import {
+  flexRender,
+  getCoreRowModel,
+  getFilteredRowModel,
+  getSortedRowModel,
+  useReactTable,
+  type ColumnDef,
+  type FilterFn,
+  type SortingState,
+} from '@tanstack/react-table';
+import Link from 'next/link';
+import { useMemo, useState } from 'react';
+import { Field, Input, Notice, Select } from '@/components/ui/field';
+import type { BlockView } from '@/lib/server/services/blocks';
+import { formatAreaM2, formatCount, formatLengthM, type UnitSystem } from '@/lib/units';
+import { TRAINING_SYSTEMS } from '@/lib/validation/block';
+import { api } from './api';
+
+const TRAINING_LABEL = { cane: 'Cane', spur: 'Spur', other: 'Other' } as const;
+
+const matches: FilterFn<BlockView> = (row, _column, query: string) => {
+  const b = row.original;
+  const text = [b.name, b.variety, b.clone, b.rootstock, b.plantingYear].filter(Boolean).join(' ').toLowerCase();
+  return query
+    .toLowerCase()
+    .split(/\s+/)
+    .every((word) => text.includes(word));
+};
+
+function columnsFor(units: UnitSystem): ColumnDef<BlockView>[] {
+  const number = (value: number) => formatCount(value);
+  return [
+    {
+      accessorKey: 'name',
+      header: 'Block',
+      cell: ({ row }) => (
+        <Link href={`/blocks/${row.original.id}`} className="font-bold text-rootstock underline">
+          {row.original.name}
+          {row.original.archivedAt && <span className="ml-2 text-sm font-normal text-bark-soft">(archived)</span>}
+        </Link>
+      ),
+    },
+    { accessorKey: 'variety', header: 'Variety' },
+    {
+      accessorKey: 'trainingSystem',
+      header: 'Training',
+      cell: ({ getValue }) => TRAINING_LABEL[getValue<BlockView['trainingSystem']>()],
+      filterFn: 'equalsString',
+    },
+    { accessorKey: 'rowCount', header: 'Rows', cell: ({ getValue }) => number(getValue<number>()), meta: { numeric: true } },
+    { accessorKey: 'vineCount', header: 'Vines', cell: ({ getValue }) => number(getValue<number>()), meta: { numeric: true } },
+    { id: 'missing', accessorFn: (b) => b.counts.missing + b.counts.dead, header: 'Missing or dead', meta: { numeric: true } },
+    { id: 'replant', accessorFn: (b) => b.counts.replant, header: 'Replants', meta: { numeric: true } },
+    {
+      id: 'spacing',
+      accessorFn: (b) => b.rowSpacingM * b.vineSpacingM,
+      header: 'Spacing (row × vine)',
+      cell: ({ row }) => `${formatLengthM(row.original.rowSpacingM, units)} × ${formatLengthM(row.original.vineSpacingM, units)}`,
+    },
+    { accessorKey: 'areaM2', header: 'Area', cell: ({ getValue }) => formatAreaM2(getValue<number>(), units), meta: { numeric: true } },
+    { accessorKey: 'plantingYear', header: 'Planted', sortUndefined: 'last', meta: { numeric: true } },
+  ];
+}
+
+export function BlocksTable({ units }: { units: UnitSystem }) {
+  const [archived, setArchived] = useState(false);
+  const [sorting, setSorting] = useState<SortingState>([{ id: 'name', desc: false }]);
+  const [query, setQuery] = useState('');
+  const [training, setTraining] = useState('');
+  const list = useQuery({
+    queryKey: ['blocks', { archived }],
+    queryFn: () => api<{ blocks: BlockView[] }>(`/api/blocks${archived ? '?archived=1' : ''}`),
+  });
+  const columns = useMemo(() => columnsFor(units), [units]);
+  const columnFilters = useMemo(() => (training ? [{ id: 'trainingSystem', value: training }] : []), [training]);
+  const table = useReactTable({
+    data: list.data?.blocks ?? [],
+    columns,
+    state: { sorting, globalFilter: query, columnFilters },
+    onSortingChange: setSorting,
+    globalFilterFn: matches,
+    getCoreRowModel: getCoreRowModel(),
+    getSortedRowModel: getSortedRowModel(),
+    getFilteredRowModel: getFilteredRowModel(),
+  });
+  const rows = table.getRowModel().rows;
+
+  return (
+    <div className="flex flex-col gap-4">
+      <div className="grid gap-3 sm:grid-cols-[1fr_12rem_auto] sm:items-end">
+        <Field id="block-search" label="Find a block">
+          <Input id="block-search" type="search" value={query} onChange={(e) => setQuery(e.target.value)} placeholder="Name, variety, clone…" />
+        </Field>
+        <Field id="block-training" label="Training">
+          <Select id="block-training" value={training} onChange={(e) => setTraining(e.target.value)}>
+            <option value="">All</option>
+            {TRAINING_SYSTEMS.map((t) => (
+              <option key={t} value={t}>
+                {TRAINING_LABEL[t]}
+              </option>
+            ))}
+          </Select>
+        </Field>
+        <label className="flex min-h-touch items-center gap-2 font-bold">
+          <input type="checkbox" className="size-6" checked={archived} onChange={(e) => setArchived(e.target.checked)} />
+          Show archived
+        </label>
+      </div>
+      {list.isError && <Notice tone="error">{list.error.message}</Notice>}
+      {list.isPending ? (
+        <p aria-busy="true">Loading blocks…</p>
+      ) : (
+        <div className="overflow-x-auto rounded-lg border-2 border-line bg-panel">
+          <table className="w-full border-collapse text-left">
+            <thead>
+              {table.getHeaderGroups().map((group) => (
+                <tr key={group.id} className="border-b-2 border-line">
+                  {group.headers.map((header) => {
+                    const sorted = header.column.getIsSorted();
+                    const numeric = (header.column.columnDef.meta as { numeric?: boolean } | undefined)?.numeric;
+                    return (
+                      <th
+                        key={header.id}
+                        scope="col"
+                        aria-sort={sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : 'none'}
+                        className={numeric ? 'text-right' : undefined}
+                      >
+                        <button
+                          type="button"
+                          onClick={header.column.getToggleSortingHandler()}
+                          className="inline-flex min-h-touch items-center gap-1 px-3 font-bold whitespace-nowrap"
+                        >
+                          {flexRender(header.column.columnDef.header, header.getContext())}
+                          <span aria-hidden="true">{sorted === 'asc' ? '▲' : sorted === 'desc' ? '▼' : '↕'}</span>
+                        </button>
+                      </th>
+                    );
+                  })}
+                </tr>
+              ))}
+            </thead>
+            <tbody>
+              {rows.map((row) => (
+                <tr key={row.id} className="border-b border-line">
+                  {row.getVisibleCells().map((cell) => {
+                    const numeric = (cell.column.columnDef.meta as { numeric?: boolean } | undefined)?.numeric;
+                    return (
+                      <td key={cell.id} className={`px-3 py-2 whitespace-nowrap ${numeric ? 'text-right tabular-nums' : ''}`}>
+                        {flexRender(cell.column.columnDef.cell, cell.getContext())}
+                      </td>
+                    );
+                  })}
+                </tr>
+              ))}
+            </tbody>
+          </table>
+          {rows.length === 0 && (
+            <p className="p-4 text-bark-soft">
+              {list.data?.blocks.length ? 'No block matches these filters.' : 'No blocks yet.'}
+            </p>
+          )}
+        </div>
+      )}
+    </div>
+  );
+}
