@@ -15,6 +15,8 @@ const NAV: { href: string; label: string; roles: Role[] }[] = [
   { href: '/field', label: 'Field', roles: ['manager', 'scout', 'pruner'] },
   { href: '/desk', label: 'Desk', roles: ['manager', 'advisor', 'scout', 'pruner'] },
   { href: '/blocks', label: 'Blocks', roles: ['manager', 'advisor', 'scout', 'pruner'] },
+  { href: '/grid', label: 'Grid', roles: ['manager', 'advisor', 'scout', 'pruner'] },
+  { href: '/photos', label: 'Photos', roles: ['manager', 'advisor', 'scout', 'pruner'] },
   { href: '/team', label: 'Team', roles: ['manager'] },
   { href: '/safety', label: 'Safety', roles: ['manager', 'scout', 'pruner', 'advisor'] },
 ];

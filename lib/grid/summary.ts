@@ -1,0 +1,76 @@
+/**
+ * The figures beside the grid, from what the grid query returns: counts by kind and severity,
+ * incidence per kind with its Wilson interval, the rows with the most problem vines, and slot counts.
+ */
+import { cellLevel, cellSlot, SLOTS, type Slot } from '@/lib/grid/cells';
+import { wilsonInterval, type ObservationKind, type ProportionInterval } from '@/lib/viticulture';
+
+export interface KindCounts {
+  kind: ObservationKind;
+  /** Matching observations at severity 0, 1, 2 and 3. */
+  bySeverity: [number, number, number, number];
+  /** Vines whose worst matching observation of this kind is at least "watch". */
+  vinesAffected: number;
+}
+
+export interface KindSummary extends KindCounts {
+  observations: number;
+  /** Share of vines scouted in the period that show this problem; null when none were scouted. */
+  incidence: ProportionInterval | null;
+}
+
+export interface RowProblems {
+  row: number;
+  /** Vines at "watch" or worse. */
+  problems: number;
+  /** Vines at "act now". */
+  urgent: number;
+}
+
+export interface GridSummary {
+  /** Vines with any record in the date range (and by the chosen person), whatever its kind or status. */
+  vinesScouted: number;
+  byLevel: { watch: number; act: number; urgent: number };
+  kinds: KindSummary[];
+  worstRows: RowProblems[];
+  slots: Record<Slot, number>;
+}
+
+export const WORST_ROWS = 5;
+
+export function summariseGrid(rows: readonly number[], cells: readonly (readonly number[])[], kinds: readonly KindCounts[], vinesScouted: number): GridSummary {
+  const slots = Object.fromEntries(SLOTS.map((s) => [s, 0])) as Record<Slot, number>;
+  const byLevel = { watch: 0, act: 0, urgent: 0 };
+  const perRow: RowProblems[] = [];
+  cells.forEach((codes, i) => {
+    const row: RowProblems = { row: rows[i]!, problems: 0, urgent: 0 };
+    for (const code of codes) {
+      const slot = cellSlot(code);
+      if (slot === 'none') continue;
+      slots[slot]++;
+      const level = cellLevel(code);
+      if (level === null || level === 0) continue;
+      row.problems++;
+      if (level === 1) byLevel.watch++;
+      else if (level === 2) byLevel.act++;
+      else {
+        byLevel.urgent++;
+        row.urgent++;
+      }
+    }
+    if (row.problems) perRow.push(row);
+  });
+  perRow.sort((a, b) => b.problems - a.problems || b.urgent - a.urgent || a.row - b.row);
+  return {
+    vinesScouted,
+    byLevel,
+    kinds: kinds.map((k) => ({
+      ...k,
+      observations: k.bySeverity.reduce((a, b) => a + b, 0),
+      // A vine can only be affected if it was scouted, but guard against a count from another filter.
+      incidence: vinesScouted > 0 ? wilsonInterval(Math.min(k.vinesAffected, vinesScouted), vinesScouted) : null,
+    })),
+    worstRows: perRow.slice(0, WORST_ROWS),
+    slots,
+  };
+}
