@@ -177,11 +177,12 @@ async function sendPhoto(photo: PhotoEntry, pendingObservations: Set<string>, on
   }
 }
 
-async function drainOnce() {
+/** Answers whether it reached the server (nothing to send means nothing was asked). */
+async function drainOnce(): Promise<boolean> {
   const { obs, pics } = await refreshCounts();
   const queued = obs.filter((o) => o.state === 'queued');
   const photos = pics.filter((p) => p.state === 'queued' || p.state === 'uploaded');
-  if (queued.length === 0 && photos.length === 0) return;
+  if (queued.length === 0 && photos.length === 0) return false;
   const bytesTotal = photos.reduce((s, p) => s + p.bytes, 0);
   const progress = { records: 0, recordsTotal: queued.length, bytes: 0, bytesTotal };
   setStatus({ progress });
@@ -198,6 +199,7 @@ async function drainOnce() {
     progress.bytes = before + photo.bytes;
     setStatus({ progress: { ...progress } });
   }
+  return true;
 }
 
 function schedule(delayMs: number) {
@@ -222,11 +224,13 @@ export async function syncNow() {
   await withLock(async () => {
     setStatus({ running: true, problem: null });
     try {
-      await drainOnce();
+      const reached = await drainOnce();
       failures = 0;
-      const now = Date.now();
-      localStorage.setItem('vineward-last-synced', String(now));
-      setStatus({ lastSyncedAt: now, signedOut: false, online: true });
+      if (reached) {
+        const now = Date.now();
+        localStorage.setItem('vineward-last-synced', String(now));
+        setStatus({ lastSyncedAt: now, signedOut: false, online: true });
+      }
     } catch (err) {
       failures++;
       const stop = err instanceof Stop ? err : new Stop('server', String(err));
@@ -248,7 +252,7 @@ let started = false;
 /** Starts the sync for the signed-in person; records of other people on this device wait for them. */
 export async function startSync(currentOwner: string) {
   owner = currentOwner;
-  setStatus({ lastSyncedAt: Number(localStorage.getItem('vineward-last-synced')) || null });
+  setStatus({ online: navigator.onLine, lastSyncedAt: Number(localStorage.getItem('vineward-last-synced')) || null });
   if (!started) {
     started = true;
     await recoverInterrupted();
