@@ -14,10 +14,17 @@ import { createStore, del, entries, get, set, update } from 'idb-keyval';
 
 export type EntryState = 'queued' | 'sending' | 'rejected';
 
+/**
+ * What a record is: each collection has its own sync endpoint with the same once-only contract
+ * (see COLLECTIONS in lib/offline/sync.ts). Entries saved before collections existed are observations.
+ */
+export type Collection = 'observations' | (string & {});
+
 export interface ObservationEntry {
   id: string;
   owner: string;
-  record: Record<string, unknown> & { id: string; blockId: string; row: number; position: number; kind: string };
+  collection?: Collection;
+  record: Record<string, unknown> & { id: string; blockId: string; row: number; position: number; kind?: string };
   state: EntryState;
   attempts: number;
   createdAt: number;
@@ -63,10 +70,14 @@ function changed() {
   channel?.postMessage('changed');
 }
 
-export async function enqueueObservation(owner: string, record: ObservationEntry['record']) {
-  await set(record.id, { id: record.id, owner, record, state: 'queued', attempts: 0, createdAt: Date.now() } satisfies ObservationEntry, records());
+export async function enqueueRecord(owner: string, collection: Collection, record: ObservationEntry['record']) {
+  await set(record.id, { id: record.id, owner, collection, record, state: 'queued', attempts: 0, createdAt: Date.now() } satisfies ObservationEntry, records());
   changed();
 }
+
+export const enqueueObservation = (owner: string, record: ObservationEntry['record']) => enqueueRecord(owner, 'observations', record);
+
+export const collectionOf = (e: ObservationEntry): Collection => e.collection ?? 'observations';
 
 export async function enqueuePhoto(entry: Omit<PhotoEntry, 'state' | 'attempts' | 'createdAt'>) {
   await set(entry.id, { ...entry, state: 'queued', attempts: 0, createdAt: Date.now() } satisfies PhotoEntry, photos());

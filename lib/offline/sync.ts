@@ -5,6 +5,7 @@
  * and on demand. Status for the status bar is kept here.
  */
 import {
+  collectionOf,
   listObservations,
   listPhotos,
   patchObservations,
@@ -17,6 +18,15 @@ import {
 } from '@/lib/offline/outbox';
 
 export const BATCH_SIZE = 200;
+
+/**
+ * Record collections, drained in this order before photos. Each endpoint takes
+ * `{ [bodyKey]: records[] }` and answers `{ results: [{ id, status, errors? }] }`, one per record,
+ * in order (the contract of POST /api/sync).
+ */
+export const COLLECTIONS: { name: string; path: string; bodyKey: string }[] = [
+  { name: 'observations', path: '/api/sync', bodyKey: 'observations' },
+];
 const REQUEST_TIMEOUT_MS = 30_000;
 const MAX_BACKOFF_MS = 5 * 60_000;
 const IDLE_INTERVAL_MS = 60_000;
@@ -106,11 +116,11 @@ async function post(path: string, body: unknown) {
   return { status: res.status, json };
 }
 
-async function sendObservations(batch: ObservationEntry[]) {
+async function sendBatch(collection: (typeof COLLECTIONS)[number], batch: ObservationEntry[]) {
   await patchObservations(batch.map((e) => e.id), { state: 'sending' });
   let answer: Awaited<ReturnType<typeof post>>;
   try {
-    answer = await post('/api/sync', { observations: batch.map((e) => e.record) });
+    answer = await post(collection.path, { [collection.bodyKey]: batch.map((e) => e.record) });
   } catch (err) {
     await patchObservations(batch.map((e) => e.id), { state: 'queued' });
     throw err;
@@ -186,11 +196,14 @@ async function drainOnce(): Promise<boolean> {
   const bytesTotal = photos.reduce((s, p) => s + p.bytes, 0);
   const progress = { records: 0, recordsTotal: queued.length, bytes: 0, bytesTotal };
   setStatus({ progress });
-  for (let i = 0; i < queued.length; i += BATCH_SIZE) {
-    const batch = queued.slice(i, i + BATCH_SIZE);
-    await sendObservations(batch);
-    progress.records += batch.length;
-    setStatus({ progress: { ...progress } });
+  for (const collection of COLLECTIONS) {
+    const ofCollection = queued.filter((e) => collectionOf(e) === collection.name);
+    for (let i = 0; i < ofCollection.length; i += BATCH_SIZE) {
+      const batch = ofCollection.slice(i, i + BATCH_SIZE);
+      await sendBatch(collection, batch);
+      progress.records += batch.length;
+      setStatus({ progress: { ...progress } });
+    }
   }
   const pending = new Set((await listObservations()).map((o) => o.id));
   for (const photo of photos) {
