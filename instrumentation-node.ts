@@ -7,3 +7,12 @@ try {
   console.error((err as Error).message);
   process.exit(1);
 }
+
+// Background chores of every app server. Each is safe to run on several servers at once (rows are
+// claimed with SKIP LOCKED), so nothing assumes a single process.
+const HOUR = 60 * 60 * 1000;
+setInterval(() => {
+  void import('./lib/server/services/photos')
+    .then(({ sweepPendingPhotos }) => sweepPendingPhotos())
+    .catch((err) => console.error('Sweeping unconfirmed photo uploads failed:', err));
+}, HOUR).unref();
