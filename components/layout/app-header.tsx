@@ -17,6 +17,8 @@ const NAV: { href: string; label: string; roles: Role[] }[] = [
   { href: '/blocks', label: 'Blocks', roles: ['manager', 'advisor', 'scout', 'pruner'] },
   { href: '/grid', label: 'Grid', roles: ['manager', 'advisor', 'scout', 'pruner'] },
   { href: '/photos', label: 'Photos', roles: ['manager', 'advisor', 'scout', 'pruner'] },
+  { href: '/plans', label: 'Plans', roles: ['manager', 'advisor', 'scout', 'pruner'] },
+  { href: '/sprays', label: 'Sprays', roles: ['manager', 'advisor', 'scout', 'pruner'] },
   { href: '/team', label: 'Team', roles: ['manager'] },
   { href: '/safety', label: 'Safety', roles: ['manager', 'scout', 'pruner', 'advisor'] },
 ];
