@@ -100,7 +100,7 @@ export function BlockDetail({ blockId, units, canManage }: { blockId: string; un
             {formatCount(b.rowCount)} rows, numbered {b.firstRow}–{lastRow}; usually {formatCount(b.vinesPerRow)} vines per row
           </Fact>
           <Fact label="Line posts">{b.vinesPerPanel ? `${b.vinesPerPanel} vines per panel` : 'not recorded'}</Fact>
-          <Fact label="Vine 1">{b.positionOrigin ?? 'row end not recorded'}</Fact>
+          <Fact label="Counting from">{b.positionOrigin ?? 'row end not recorded'}</Fact>
           {b.rowBearingDeg !== null && <Fact label="Row bearing">{b.rowBearingDeg}°</Fact>}
           <Fact label="Area">
             {formatAreaM2(b.areaM2, units)} planted, {formatVinesPerArea(b.rowSpacingM, b.vineSpacingM, units)}
@@ -122,22 +122,26 @@ export function BlockDetail({ blockId, units, canManage }: { blockId: string; un
                 <th scope="col" className="px-3 text-right">Missing</th>
                 <th scope="col" className="px-3 text-right">Dead</th>
                 <th scope="col" className="px-3 text-right">Replants</th>
-                <th scope="col" className="px-3"><span className="sr-only">Open</span></th>
               </tr>
             </thead>
             <tbody>
               {ordered.map((r) => (
                 <tr key={r.row} className={`border-b border-line ${openRow === r.row ? 'bg-rootstock-tint' : ''}`}>
-                  <th scope="row" className="px-3 font-bold">{r.row}</th>
+                  <th scope="row" className="px-1">
+                    <button
+                      type="button"
+                      aria-expanded={openRow === r.row}
+                      onClick={() => setOpenRow(openRow === r.row ? null : r.row)}
+                      className="min-h-touch px-2 font-bold whitespace-nowrap text-rootstock underline"
+                    >
+                      Row {r.row}
+                      <span className="sr-only"> vines</span>
+                    </button>
+                  </th>
                   <td className="px-3 text-right tabular-nums">{r.vineCount}</td>
                   <td className="px-3 text-right tabular-nums">{r.counts.missing || ''}</td>
                   <td className="px-3 text-right tabular-nums">{r.counts.dead || ''}</td>
                   <td className="px-3 text-right tabular-nums">{r.counts.replant || ''}</td>
-                  <td className="px-1 text-right">
-                    <Button variant="quiet" className="px-3" aria-expanded={openRow === r.row} onClick={() => setOpenRow(openRow === r.row ? null : r.row)}>
-                      {openRow === r.row ? 'Close' : `Row ${r.row} vines`}
-                    </Button>
-                  </td>
                 </tr>
               ))}
             </tbody>

@@ -13,8 +13,9 @@ import { formatAreaM2, formatCount, formatVinesPerArea, type UnitSystem } from '
 import { blockSchema, TRAINING_SYSTEMS, type BlockFormValues, type BlockInput } from '@/lib/validation/block';
 import { api, ApiError } from './api';
 import { LengthInput } from './length-input';
+import { useHydrated } from './use-hydrated';
 
-const TRAINING_CHOICES = { cane: 'Cane-pruned', spur: 'Spur-pruned', other: 'Other' } as const;
+const TRAINING_CHOICES = { cane: 'Cane', spur: 'Spur', other: 'Other' } as const;
 
 const NEW_BLOCK: Partial<BlockFormValues> = { trainingSystem: 'cane', rowOrder: 'ascending', firstRow: 1 };
 
@@ -47,6 +48,7 @@ const requiredNumber = { setValueAs: (v: unknown) => (v === '' || v === null || 
 export function BlockForm({ units, block }: { units: UnitSystem; block?: BlockView }) {
   const router = useRouter();
   const queryClient = useQueryClient();
+  const hydrated = useHydrated();
   const [message, setMessage] = useState<string>();
   const form = useForm<BlockFormValues, unknown, BlockInput>({
     resolver: zodResolver(blockSchema),
@@ -89,7 +91,7 @@ export function BlockForm({ units, block }: { units: UnitSystem; block?: BlockVi
 
   return (
     <form onSubmit={onSubmit} noValidate className="flex flex-col gap-6" aria-describedby={message ? 'block-form-message' : undefined}>
-      <fieldset className="grid gap-4 sm:grid-cols-2">
+      <fieldset className="grid gap-4 sm:grid-cols-2" disabled={!hydrated}>
         <legend className="mb-2 text-xl font-bold">The block</legend>
         <Field id="name" label="Name" error={err('name')}>
           <Input id="name" autoComplete="off" {...form.register('name')} />
@@ -108,7 +110,7 @@ export function BlockForm({ units, block }: { units: UnitSystem; block?: BlockVi
         </Field>
         <div className="flex flex-col gap-1">
           <span className="font-bold" id="training-label">
-            Training
+            Pruned to
           </span>
           <div role="radiogroup" aria-labelledby="training-label" className="grid grid-cols-3 gap-2">
             {TRAINING_SYSTEMS.map((t) => (
@@ -128,7 +130,7 @@ export function BlockForm({ units, block }: { units: UnitSystem; block?: BlockVi
         </div>
       </fieldset>
 
-      <fieldset className="grid gap-4 sm:grid-cols-2">
+      <fieldset className="grid gap-4 sm:grid-cols-2" disabled={!hydrated}>
         <legend className="mb-2 text-xl font-bold">Rows and vines</legend>
         <Field id="rowSpacingM" label="Row spacing" error={err('rowSpacingM')}>
           <Controller
@@ -171,7 +173,7 @@ export function BlockForm({ units, block }: { units: UnitSystem; block?: BlockVi
             <option value="descending">First row at the bottom</option>
           </Select>
         </Field>
-        <Field id="positionOrigin" label="Where vine 1 stands (optional)" error={err('positionOrigin')} hint="The agreed row end every count starts from, e.g. “the track end”.">
+        <Field id="positionOrigin" label="Where vine 1 stands (optional)" error={err('positionOrigin')} hint="The agreed row end every count starts from, e.g. “Vine 1 at the track end”.">
           <Input id="positionOrigin" autoComplete="off" {...form.register('positionOrigin')} />
         </Field>
         <Field id="rowBearingDeg" label="Row bearing in degrees (optional)" error={err('rowBearingDeg')} hint="0 for rows running north–south, 90 for east–west.">
@@ -180,7 +182,7 @@ export function BlockForm({ units, block }: { units: UnitSystem; block?: BlockVi
       </fieldset>
 
       <Field id="notes" label="Notes (optional)" error={err('notes')}>
-        <textarea id="notes" rows={3} className="rounded-lg border-2 border-line bg-panel p-3 text-base focus:border-rootstock" {...form.register('notes')} />
+        <textarea id="notes" rows={3} disabled={!hydrated} className="rounded-lg border-2 border-line bg-panel p-3 text-base focus:border-rootstock" {...form.register('notes')} />
       </Field>
 
       {Number.isFinite(slots) && slots > 0 && (
@@ -204,7 +206,7 @@ export function BlockForm({ units, block }: { units: UnitSystem; block?: BlockVi
         </div>
       )}
       <div className="flex flex-wrap gap-3">
-        <Button type="submit" size="large" disabled={save.isPending}>
+        <Button type="submit" size="large" disabled={!hydrated || save.isPending}>
           {save.isPending ? 'Saving…' : block ? 'Save changes' : 'Create block'}
         </Button>
         <ButtonLink href={block ? `/blocks/${block.id}` : '/blocks'} variant="secondary" size="large">

@@ -14,6 +14,7 @@ import {
 import Link from 'next/link';
 import { useMemo, useState } from 'react';
 import { Field, Input, Notice, Select } from '@/components/ui/field';
+import { cn } from '@/lib/cn';
 import type { BlockView } from '@/lib/server/services/blocks';
 import { formatAreaM2, formatCount, formatLengthM, type UnitSystem } from '@/lib/units';
 import { TRAINING_SYSTEMS } from '@/lib/validation/block';
@@ -126,7 +127,7 @@ export function BlocksTable({ units }: { units: UnitSystem }) {
                         key={header.id}
                         scope="col"
                         aria-sort={sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : 'none'}
-                        className={numeric ? 'text-right' : undefined}
+                        className={cn(numeric && 'text-right', header.column.id === 'name' && 'sticky left-0 bg-panel')}
                       >
                         <button
                           type="button"
@@ -148,7 +149,10 @@ export function BlocksTable({ units }: { units: UnitSystem }) {
                   {row.getVisibleCells().map((cell) => {
                     const numeric = (cell.column.columnDef.meta as { numeric?: boolean } | undefined)?.numeric;
                     return (
-                      <td key={cell.id} className={`px-3 py-2 whitespace-nowrap ${numeric ? 'text-right tabular-nums' : ''}`}>
+                      <td
+                        key={cell.id}
+                        className={cn('px-3 py-2 whitespace-nowrap', numeric && 'text-right tabular-nums', cell.column.id === 'name' && 'sticky left-0 bg-panel')}
+                      >
                         {flexRender(cell.column.columnDef.cell, cell.getContext())}
                       </td>
                     );

@@ -9,6 +9,7 @@ import { formatCount } from '@/lib/units';
 import { LAYOUT_LIMITS } from '@/lib/validation/block';
 import { ApiError, uploadFile } from './api';
 import { STATUS_LABEL } from './status';
+import { useHydrated } from './use-hydrated';
 
 type Stage =
   | { kind: 'idle' }
@@ -67,6 +68,7 @@ function Summary({ summary }: { summary: LayoutSummary }) {
 /** Choose a layout CSV, see what it would change, then apply it. Nothing changes before "Apply". */
 export function LayoutImport({ blockId, blockName, firstRow }: { blockId: string; blockName: string; firstRow: number }) {
   const queryClient = useQueryClient();
+  const hydrated = useHydrated();
   const input = useRef<HTMLInputElement>(null);
   const [file, setFile] = useState<File | null>(null);
   const [stage, setStage] = useState<Stage>({ kind: 'idle' });
@@ -134,6 +136,7 @@ export function LayoutImport({ blockId, blockName, firstRow }: { blockId: string
           id="layout-file"
           type="file"
           accept=".csv,text/csv"
+          disabled={!hydrated}
           className="min-h-touch rounded-lg border-2 border-dashed border-rootstock bg-panel p-3 file:mr-3 file:min-h-touch file:rounded-lg file:border-0 file:bg-rootstock file:px-4 file:font-bold file:text-white"
           onChange={(e) => {
             const chosen = e.target.files?.[0] ?? null;

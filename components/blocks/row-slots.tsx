@@ -38,7 +38,7 @@ export function RowSlots({ block, row, vineCount, canManage, onClose }: { block:
   for (let i = 0; i < positions.length; i += panel) panels.push(positions.slice(i, i + panel));
 
   return (
-    <section aria-labelledby={`row-${row}-heading`} className="flex flex-col gap-3 rounded-2xl border-2 border-rootstock bg-panel p-4">
+    <section aria-labelledby={`row-${row}-heading`} className="flex flex-col gap-3 rounded-2xl border-2 border-rootstock bg-panel p-3 sm:p-4">
       <div className="flex items-center justify-between gap-2">
         <h3 id={`row-${row}-heading`} className="text-lg font-bold">
           Row {row}: {vineCount} vines
@@ -47,36 +47,43 @@ export function RowSlots({ block, row, vineCount, canManage, onClose }: { block:
           Close row
         </Button>
       </div>
-      {block.positionOrigin && <p className="text-sm text-bark-soft">Vine 1 at: {block.positionOrigin}.</p>}
+      {block.positionOrigin && <p className="text-sm text-bark-soft">Counting from: {block.positionOrigin}</p>}
       {canManage && <RowLength blockId={block.id} row={row} vineCount={vineCount} />}
       {slots.isPending && <p aria-busy="true">Loading the vines…</p>}
       {slots.isError && <Notice tone="error">{slots.error.message}</Notice>}
-      <ol className="flex flex-col gap-2" aria-label={`Vines of row ${row}`}>
+      <ol className="flex flex-wrap gap-x-4 gap-y-2" aria-label={`Vines of row ${row}`}>
         {panels.map((vines, i) => (
-          <li key={i} className="flex flex-wrap items-center gap-1">
-            <span className="w-16 shrink-0 text-sm font-bold text-bark-soft">{block.vinesPerPanel ? `Post ${i + 1}` : `${i * panel + 1}–`}</span>
-            {vines.map((s) => (
-              <button
-                key={s.position}
-                type="button"
-                onClick={() => setSelected(s.position)}
-                aria-pressed={selected === s.position}
-                aria-label={`${formatAddress(row, s.position, block.vinesPerPanel)}: ${s.status}`}
-                className={cn(
-                  'flex size-12 flex-col items-center justify-center rounded-md border-2 text-xs leading-tight font-bold',
-                  STATUS_STYLE[s.status],
-                  selected === s.position && 'outline-3 outline-offset-1 outline-cut',
-                )}
-              >
-                <span>{s.position}</span>
-                <span aria-hidden="true">{LETTER_OF[s.status]}</span>
-              </button>
-            ))}
+          <li key={i} className="flex flex-col gap-0.5">
+            <span className="text-xs font-bold text-bark-soft">{block.vinesPerPanel ? `Post ${i + 1}` : `From vine ${i * panel + 1}`}</span>
+            <span className="flex flex-wrap gap-1">
+              {vines.map((s) => (
+                <button
+                  key={s.position}
+                  type="button"
+                  onClick={() => setSelected(s.position)}
+                  aria-pressed={selected === s.position}
+                  aria-label={`${formatAddress(row, s.position, block.vinesPerPanel)}: ${s.status}`}
+                  className={cn(
+                    'flex size-12 flex-col items-center justify-center rounded-md border-2 text-xs leading-tight font-bold',
+                    STATUS_STYLE[s.status],
+                    selected === s.position && 'outline-3 outline-offset-1 outline-cut',
+                  )}
+                >
+                  <span>{s.position}</span>
+                  <span aria-hidden="true">{LETTER_OF[s.status]}</span>
+                </button>
+              ))}
+            </span>
           </li>
         ))}
       </ol>
       <p className="text-sm text-bark-soft">P planted · M missing · D dead · R replant</p>
-      {selected !== null && <SlotEditor key={selected} block={block} row={row} position={selected} canManage={canManage} />}
+      {selected !== null && (
+        // Sticks to the bottom of the screen while the row scrolls, so the next vine is one tap away.
+        <div className="sticky bottom-0 z-10 -mx-1 max-h-[60vh] overflow-y-auto rounded-t-2xl border-2 border-rootstock bg-panel p-3 shadow-[0_-4px_12px_rgba(0,0,0,0.15)]">
+          <SlotEditor key={selected} block={block} row={row} position={selected} canManage={canManage} onClose={() => setSelected(null)} />
+        </div>
+      )}
     </section>
   );
 }
@@ -106,7 +113,7 @@ function RowLength({ blockId, row, vineCount }: { blockId: string; row: number; 
   );
 }
 
-function SlotEditor({ block, row, position, canManage }: { block: BlockView; row: number; position: number; canManage: boolean }) {
+function SlotEditor({ block, row, position, canManage, onClose }: { block: BlockView; row: number; position: number; canManage: boolean; onClose: () => void }) {
   const queryClient = useQueryClient();
   const url = `/api/blocks/${block.id}/positions/${row}/${position}`;
   const detail = useQuery({ queryKey: ['block', block.id, 'slot', row, position], queryFn: () => api<SlotDetail>(url) });
@@ -126,31 +133,27 @@ function SlotEditor({ block, row, position, canManage }: { block: BlockView; row
   });
   const slot = detail.data?.slot;
   return (
-    <section aria-label="Selected vine" className="flex flex-col gap-3 rounded-lg border-2 border-line p-3">
-      <h4 className="text-lg font-bold">
-        {formatAddress(row, position, block.vinesPerPanel)}
-        {block.vinesPerPanel ? <span className="ml-2 text-sm font-normal text-bark-soft">(vine {position} of the row)</span> : null}
-      </h4>
+    <section aria-label="Selected vine" className="flex flex-col gap-3">
+      <div className="flex items-start justify-between gap-2">
+        <div>
+          <h4 className="text-lg font-bold">{formatAddress(row, position, block.vinesPerPanel)}</h4>
+          <p className="text-sm text-bark-soft">
+            {block.vinesPerPanel ? `Vine ${position} of the row. ` : ''}
+            {slot ? (
+              <>
+                Now <strong className="text-bark">{slot.status}</strong>
+                {slot.replantYear ? `, replanted ${slot.replantYear}` : ''}.
+              </>
+            ) : null}
+          </p>
+        </div>
+        <Button variant="quiet" onClick={onClose} className="px-2">
+          Close
+        </Button>
+      </div>
       {detail.isError && <Notice tone="error">{detail.error.message}</Notice>}
-      {slot && (
-        <p>
-          Now: <strong>{slot.status}</strong>
-          {slot.replantYear ? `, replanted ${slot.replantYear}` : ''}
-        </p>
-      )}
       {canManage && (
-        <div className="flex flex-col gap-3">
-          <div className="grid gap-2 sm:grid-cols-3">
-            <Field id="slot-year" label="Year" hint="For a replant, the year it went in; otherwise when the vine was lost.">
-              <Input id="slot-year" type="number" inputMode="numeric" value={year} onChange={(e) => setYear(e.target.value)} />
-            </Field>
-            <Field id="slot-clone" label="Replant clone">
-              <Input id="slot-clone" value={clone} onChange={(e) => setClone(e.target.value)} />
-            </Field>
-            <Field id="slot-rootstock" label="Replant rootstock">
-              <Input id="slot-rootstock" value={rootstock} onChange={(e) => setRootstock(e.target.value)} />
-            </Field>
-          </div>
+        <>
           <div className="grid grid-cols-2 gap-2 sm:grid-cols-4" role="group" aria-label="Set the status">
             {SLOT_STATUSES.map((s) => (
               <Button key={s} variant={slot?.status === s ? 'primary' : 'secondary'} disabled={change.isPending} onClick={() => change.mutate(s)}>
@@ -159,7 +162,19 @@ function SlotEditor({ block, row, position, canManage }: { block: BlockView; row
             ))}
           </div>
           {change.isError && <Notice tone="error">{change.error.message}</Notice>}
-        </div>
+          <div className="grid grid-cols-3 gap-2">
+            <Field id="slot-year" label="Year">
+              <Input id="slot-year" type="number" inputMode="numeric" value={year} onChange={(e) => setYear(e.target.value)} />
+            </Field>
+            <Field id="slot-clone" label="Clone">
+              <Input id="slot-clone" value={clone} onChange={(e) => setClone(e.target.value)} />
+            </Field>
+            <Field id="slot-rootstock" label="Rootstock">
+              <Input id="slot-rootstock" value={rootstock} onChange={(e) => setRootstock(e.target.value)} />
+            </Field>
+          </div>
+          <p className="text-sm text-bark-soft">The year a replant went in, or the year a vine was lost. Clone and rootstock are for replants.</p>
+        </>
       )}
       {detail.data && (
         <div>

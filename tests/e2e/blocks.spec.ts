@@ -4,6 +4,8 @@ import { closeTestDb, makeMember, makeTeam, PASSWORD, testDb } from '../helpers/
 
 // Each test works in a fresh organisation, so the demo estate stays as the other tests expect it.
 test.afterAll(closeTestDb);
+// These pages are desk pages; the service worker's first-install reload would only race the typing.
+test.use({ serviceWorkers: 'block' });
 
 async function signIn(page: Page, email: string, password = PASSWORD) {
   await page.goto('/signin');
@@ -16,12 +18,13 @@ async function signIn(page: Page, email: string, password = PASSWORD) {
 async function createBlockThroughForm(page: Page, o: { name: string; rowSpacing: string; vineSpacing: string }) {
   await page.goto('/blocks');
   await page.getByRole('link', { name: 'New block' }).click();
+  await expect(page.getByRole('button', { name: 'Create block' })).toBeEnabled();
   await page.getByLabel('Name', { exact: true }).fill(o.name);
   await page.getByLabel('Variety').fill('Tempranillo');
   await page.getByLabel('Clone (optional)').fill('TE-4');
   await page.getByLabel('Rootstock (optional)').fill('110R');
   await page.getByLabel('Planting year (optional)').fill('2018');
-  await page.getByText('Spur-pruned').click();
+  await page.getByText('Spur', { exact: true }).click();
   await page.getByLabel('Row spacing').fill(o.rowSpacing);
   await page.getByLabel('Vine spacing in the row').fill(o.vineSpacing);
   await page.getByLabel('Number of rows').fill('3');
@@ -43,6 +46,7 @@ test('a manager creates a block through the form, imports a layout CSV and sees 
   await expect(page.getByText('3,333 vines/ha')).toBeVisible();
 
   await page.getByRole('link', { name: 'Import layout CSV' }).click();
+  await expect(page.getByLabel('Layout CSV file')).toBeEnabled();
   await page.getByLabel('Layout CSV file').setInputFiles(path.join(__dirname, '../fixtures/layout/small-block.csv'));
   const summary = page.getByTestId('layout-summary');
   await expect(summary).toContainText('Rows added: 4');
@@ -79,6 +83,7 @@ test('a bad layout file shows what is wrong line by line and changes nothing', a
   await signIn(page, team.manager.email);
   await createBlockThroughForm(page, { name: 'Gully Block', rowSpacing: '2.5', vineSpacing: '1.2' });
   await page.getByRole('link', { name: 'Import layout CSV' }).click();
+  await expect(page.getByLabel('Layout CSV file')).toBeEnabled();
   await page.getByLabel('Layout CSV file').setInputFiles({
     name: 'bad.csv',
     mimeType: 'text/csv',
@@ -94,6 +99,7 @@ test('a form with bad fields shows the same messages as the server and creates n
   const team = await makeTeam();
   await signIn(page, team.manager.email);
   await page.goto('/blocks/new');
+  await expect(page.getByRole('button', { name: 'Create block' })).toBeEnabled();
   await page.getByLabel('Row spacing').fill('wide');
   await page.getByLabel('Number of rows').fill('0');
   await page.getByRole('button', { name: 'Create block' }).click();
