@@ -72,6 +72,7 @@ export async function seedDemoLayout(knex: Knex, organisationId: string) {
         [b.id],
       );
       // A fixed pseudo-random pattern: about 2% missing, 1% dead, 1.5% replanted in recent years.
+      // Removal reasons use the words the slot editor and layout import write: missing, dead, replaced.
       await trx.raw(
         `update vine_positions set
            status = case when h < 20 then 'missing' when h < 30 then 'dead' else 'replant' end,
@@ -84,7 +85,7 @@ export async function seedDemoLayout(knex: Knex, organisationId: string) {
       await trx.raw(
         `insert into vines (position_id, planting_year, clone, rootstock, removed_year, removal_reason)
          select id, ?, ?, ?, case when status <> 'planted' then coalesce(replant_year, 2024) - 1 end,
-                case when status = 'replant' then 'died; replanted' when status <> 'planted' then 'died' end
+                case when status = 'replant' then 'replaced' when status <> 'planted' then status end
          from vine_positions where block_id = ?`,
         [b.plantingYear, b.clone, b.rootstock, b.id],
       );
