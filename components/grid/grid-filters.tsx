@@ -4,7 +4,7 @@ import { Button } from '@/components/ui/button';
 import { Input, Select } from '@/components/ui/field';
 import { cn } from '@/lib/cn';
 import { DEFAULT_GRID_FILTERS, FINDING_STATUSES, type GridFilters as Filters } from '@/lib/grid/filters';
-import { KIND_LABELS } from '@/lib/grid/labels';
+import { formatDay, kindLabel } from '@/lib/grid/labels';
 import { OBSERVATION_KINDS, type ObservationKind } from '@/lib/viticulture';
 
 export interface Person {
@@ -26,6 +26,19 @@ export function activeFilterCount(f: Filters) {
   return (f.kind.length ? 1 : 0) + (f.from ? 1 : 0) + (f.to ? 1 : 0) + (f.by ? 1 : 0) + (f.status !== 'open' ? 1 : 0) + (f.flagged ? 1 : 0);
 }
 
+/** "Trunk injury · open findings · from 1 Mar 2026 · by Teo": what the grid shows, in one line. */
+export function describeFilters(f: Filters, people: Person[]) {
+  const parts = [
+    f.kind.length ? f.kind.map(kindLabel).join(', ') : 'Every kind',
+    f.status === 'all' ? 'open and closed findings' : `${f.status} findings`,
+  ];
+  if (f.from) parts.push(`from ${formatDay(f.from)}`);
+  if (f.to) parts.push(`to ${formatDay(f.to)}`);
+  if (f.by) parts.push(`by ${people.find((p) => p.id === f.by)?.name ?? 'one person'}`);
+  if (f.flagged) parts.push('flagged vines only');
+  return parts.join(' · ');
+}
+
 /** Every change applies at once and goes into the URL, so a filtered view can be shared. */
 export function GridFilters({ filters, people, onChange }: GridFiltersProps) {
   const set = (patch: Partial<Filters>) => onChange({ ...filters, ...patch });
@@ -35,9 +48,12 @@ export function GridFilters({ filters, people, onChange }: GridFiltersProps) {
   const badDates = Boolean(filters.from && filters.to && filters.from > filters.to);
 
   return (
-    <details className="group rounded-xl border-2 border-line bg-panel" open>
-      <summary className="flex min-h-touch cursor-pointer items-center justify-between gap-2 px-4 font-bold">
-        <span>Filters{count ? ` (${count} on)` : ''}</span>
+    <details className="group rounded-xl border-2 border-line bg-panel">
+      <summary className="flex min-h-touch cursor-pointer items-center justify-between gap-2 px-4 py-2">
+        <span>
+          <span className="font-bold">Filters{count ? ` (${count} on)` : ''}: </span>
+          <span data-testid="grid-filter-summary">{describeFilters(filters, people)}</span>
+        </span>
         <span aria-hidden="true" className="text-bark-soft group-open:rotate-180">
           ▾
         </span>
@@ -54,7 +70,7 @@ export function GridFilters({ filters, people, onChange }: GridFiltersProps) {
                   checked={filters.kind.includes(kind)}
                   onChange={(e) => toggleKind(kind, e.target.checked)}
                 />
-                {KIND_LABELS[kind]}
+                {kindLabel(kind)}
               </label>
             ))}
           </div>

@@ -2,10 +2,10 @@
 
 import { CellSwatch } from '@/components/grid/cell-swatch';
 import { encodeCell } from '@/lib/grid/cells';
-import { KIND_LABELS, SEVERITY_LABELS } from '@/lib/grid/labels';
+import { kindLabel, SEVERITY_LABELS } from '@/lib/grid/labels';
 import type { GridSummary as Summary } from '@/lib/grid/summary';
 import { formatCount } from '@/lib/units';
-import type { ObservationKind, Severity } from '@/lib/viticulture';
+import type { Severity } from '@/lib/viticulture';
 
 const percent = (p: number) => `${(p * 100).toFixed(p > 0 && p < 0.1 ? 1 : 0)}%`;
 
@@ -101,7 +101,7 @@ export function GridSummary({ summary, onGoToRow }: GridSummaryProps) {
                 {summary.kinds.map((k) => (
                   <tr key={k.kind} className="border-b border-line align-top">
                     <th scope="row" className="py-1 pr-2 font-bold">
-                      {KIND_LABELS[k.kind as ObservationKind] ?? k.kind}
+                      {kindLabel(k.kind)}
                     </th>
                     {k.bySeverity.map((n, i) => (
                       <td key={i} className="px-1 text-right tabular-nums">

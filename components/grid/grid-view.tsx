@@ -185,7 +185,7 @@ export function GridView({ block, people }: GridViewProps) {
 
         <aside className="flex flex-col gap-4">
           {address && (
-            <div className="fixed inset-x-0 bottom-0 z-20 max-h-[80dvh] overflow-y-auto rounded-t-2xl border-t-2 border-line bg-panel p-4 shadow-[0_-8px_24px_rgba(0,0,0,0.25)] lg:static lg:max-h-none lg:rounded-2xl lg:border-2 lg:shadow-none">
+            <div className="fixed inset-x-0 bottom-0 z-20 max-h-[60dvh] overflow-y-auto rounded-t-2xl border-t-2 border-line bg-panel p-4 shadow-[0_-8px_24px_rgba(0,0,0,0.25)] lg:static lg:max-h-none lg:rounded-2xl lg:border-2 lg:shadow-none">
               <VinePanel blockId={block.id} row={address.row} position={address.position} onClose={() => select(null)} />
             </div>
           )}

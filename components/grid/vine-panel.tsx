@@ -9,8 +9,8 @@ import { Button, ButtonLink } from '@/components/ui/button';
 import { Notice } from '@/components/ui/field';
 import { getJson, type VineObservation, type VinePanelResponse } from '@/lib/grid/api';
 import { encodeCell } from '@/lib/grid/cells';
-import { formatDay, KIND_LABELS, SEVERITY_LABELS, SLOT_LABELS, vineAddress } from '@/lib/grid/labels';
-import { PLAN_NOTE_CODES, type ObservationKind, type Severity } from '@/lib/viticulture';
+import { formatDay, kindLabel, SEVERITY_LABELS, SLOT_LABELS, vineAddress } from '@/lib/grid/labels';
+import { PLAN_NOTE_CODES, type Severity } from '@/lib/viticulture';
 
 interface VinePanelProps {
   blockId: string;
@@ -19,7 +19,6 @@ interface VinePanelProps {
   onClose: () => void;
 }
 
-const kindLabel = (kind: string) => KIND_LABELS[kind as ObservationKind] ?? kind;
 const planNote = (note: string) => (PLAN_NOTE_CODES.some((c) => note.startsWith(`${c}:`)) ? note.slice(note.indexOf(':') + 1).trim() : note);
 
 function photoFor(o: VineObservation, photoId: string, address: string): ViewerPhoto {

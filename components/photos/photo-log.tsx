@@ -11,7 +11,7 @@ import { Input, Notice, Select } from '@/components/ui/field';
 import { getJson, type PhotoLogItem, type PhotoLogResponse } from '@/lib/grid/api';
 import { encodeCell } from '@/lib/grid/cells';
 import { datesInOrder } from '@/lib/grid/filters';
-import { formatDay, KIND_LABELS, SEVERITY_LABELS, vineAddress } from '@/lib/grid/labels';
+import { formatDay, kindLabel, SEVERITY_LABELS, vineAddress } from '@/lib/grid/labels';
 import { photoFiltersToSearch, readPhotoFilters, type PhotoFilters } from '@/lib/grid/photo-filters';
 import { OBSERVATION_KINDS, type ObservationKind, type Severity } from '@/lib/viticulture';
 
@@ -21,7 +21,6 @@ interface PhotoLogProps {
 }
 
 const PAGE = 30;
-const kindLabel = (kind: string) => KIND_LABELS[kind as ObservationKind] ?? kind;
 
 function viewerPhoto(p: PhotoLogItem): ViewerPhoto {
   const address = vineAddress(p.row, p.position);
@@ -51,6 +50,17 @@ function viewerPhoto(p: PhotoLogItem): ViewerPhoto {
       </>
     ),
   };
+}
+
+function describePhotoFilters(f: PhotoFilters, blocks: PhotoLogProps['blocks'], people: PhotoLogProps['people']) {
+  const parts = [f.block ? (blocks.find((b) => b.id === f.block)?.name ?? 'one block') : 'All blocks'];
+  if (f.row !== undefined) parts.push(`row ${f.row}`);
+  parts.push(f.kind.length ? f.kind.map(kindLabel).join(', ') : 'every kind');
+  if (f.severity !== undefined) parts.push(f.severity === 3 ? 'act now' : `${SEVERITY_LABELS[f.severity as Severity].toLowerCase()} or worse`);
+  if (f.by) parts.push(`by ${people.find((p) => p.id === f.by)?.name ?? 'one person'}`);
+  if (f.from) parts.push(`from ${formatDay(f.from)}`);
+  if (f.to) parts.push(`to ${formatDay(f.to)}`);
+  return parts.join(' · ');
 }
 
 /** Thumbnails across blocks, newest first, loaded a page at a time as the list scrolls; filters live in the URL. */
@@ -107,7 +117,17 @@ export function PhotoLog({ blocks, people }: PhotoLogProps) {
         <p className="mt-1">Photos from every block, newest first.</p>
       </header>
 
-      <form className="grid grid-cols-2 gap-3 rounded-xl border-2 border-line bg-panel p-4 md:grid-cols-4" onSubmit={(e) => e.preventDefault()} aria-label="Filter photos">
+      <details className="group rounded-xl border-2 border-line bg-panel">
+        <summary className="flex min-h-touch cursor-pointer items-center justify-between gap-2 px-4 py-2">
+          <span>
+            <span className="font-bold">Filters: </span>
+            {describePhotoFilters(filters, blocks, people)}
+          </span>
+          <span aria-hidden="true" className="text-bark-soft group-open:rotate-180">
+            ▾
+          </span>
+        </summary>
+      <form className="grid grid-cols-2 gap-3 border-t-2 border-line p-4 md:grid-cols-4" onSubmit={(e) => e.preventDefault()} aria-label="Filter photos">
         <div className="flex flex-col gap-1">
           <label htmlFor="ph-block" className="font-bold">Block</label>
           <Select id="ph-block" value={filters.block ?? ''} onChange={(e) => set({ block: e.target.value || undefined })}>
@@ -136,7 +156,7 @@ export function PhotoLog({ blocks, people }: PhotoLogProps) {
           <Select id="ph-kind" value={filters.kind[0] ?? ''} onChange={(e) => set({ kind: e.target.value ? [e.target.value as ObservationKind] : [] })}>
             <option value="">Every kind</option>
             {OBSERVATION_KINDS.map((k) => (
-              <option key={k} value={k}>{KIND_LABELS[k]}</option>
+              <option key={k} value={k}>{kindLabel(k)}</option>
             ))}
           </Select>
         </div>
@@ -179,6 +199,7 @@ export function PhotoLog({ blocks, people }: PhotoLogProps) {
           </p>
         )}
       </form>
+      </details>
 
       {query.isError && (
         <Notice tone="error">

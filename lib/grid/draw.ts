@@ -44,16 +44,16 @@ function drawMark(ctx: Ctx, mark: Mark, x: number, y: number, size: number, ink:
   }
 }
 
-function hatch(ctx: Ctx, x: number, y: number, size: number, colour: string, rising: boolean) {
+function hatch(ctx: Ctx, x: number, y: number, size: number, colour: string, rising: boolean, lines: number) {
   ctx.save();
   ctx.beginPath();
   ctx.rect(x, y, size, size);
   ctx.clip();
   ctx.strokeStyle = colour;
-  ctx.lineWidth = Math.max(1, size / 10);
+  ctx.lineWidth = Math.max(1, size / 12);
   ctx.lineCap = 'butt';
   ctx.beginPath();
-  const step = Math.max(3, size / 3);
+  const step = Math.max(3, (2 * size) / (lines + 1));
   for (let o = -size; o <= size; o += step) {
     if (rising) {
       ctx.moveTo(x + o, y + size);
@@ -76,14 +76,15 @@ export function drawCell(ctx: Ctx, code: number, x: number, y: number, size: num
     const style = SLOT_STYLES[slot];
     ctx.fillStyle = style.fill;
     ctx.fillRect(x, y, inner, inner);
-    hatch(ctx, x, y, inner, style.hatch, style.pattern === 'rising');
+    // Missing: light with three thin rising lines; dead: dark, struck through once the other way.
+    hatch(ctx, x, y, inner, style.hatch, style.pattern === 'rising', slot === 'missing' ? 5 : 1);
   } else {
     const style = levelStyle(cellLevel(code));
     ctx.fillStyle = style.fill;
     ctx.fillRect(x, y, inner, inner);
     if (inner >= 8) drawMark(ctx, style.mark, x, y, inner, style.ink);
     if (slot === 'replant') {
-      const n = Math.max(4, inner * 0.38);
+      const n = Math.max(5, inner * 0.48);
       ctx.fillStyle = '#ffffff';
       ctx.beginPath();
       ctx.moveTo(x, y);

@@ -2,9 +2,9 @@
 import type { Level, Slot } from '@/lib/grid/cells';
 import { formatAddress } from '@/lib/address';
 import { formatLengthMm, type UnitSystem } from '@/lib/units';
-import { budbreakPercent, kgToLb, primaryBudKillPercent, type ObservationKind, type Severity } from '@/lib/viticulture';
+import { budbreakPercent, kgToLb, primaryBudKillPercent, type Severity } from '@/lib/viticulture';
 
-export const KIND_LABELS: Record<ObservationKind, string> = {
+const KIND_LABELS: Record<string, string> = {
   'cane-diameter': 'Cane diameter',
   'shade-cane': 'Shade cane',
   'weak-budbreak': 'Weak budbreak',
@@ -13,8 +13,12 @@ export const KIND_LABELS: Record<ObservationKind, string> = {
   'missing-vine': 'Missing or dead vine',
   'bud-injury': 'Winter bud injury',
   'pruning-record': 'Pruning record',
+  'pruning-check': 'Pruning check',
   note: 'Note',
 };
+
+/** A kind's name; a kind added later reads from its code until it gets one. */
+export const kindLabel = (kind: string) => KIND_LABELS[kind] ?? kind.charAt(0).toUpperCase() + kind.slice(1).replace(/-/g, ' ');
 
 export const SEVERITY_LABELS: Record<Severity, string> = {
   0: 'Fine',
@@ -88,6 +92,10 @@ export function describeData(kind: string, data: Record<string, unknown>, units:
       if (num(data.budTarget) !== undefined) parts.push(`target ${num(data.budTarget)} buds`);
       break;
     }
+    case 'pruning-check':
+      parts.push(`${num(data.canesKept) ?? '?'} canes with ${num(data.budsOnCanes) ?? '?'} buds, ${num(data.renewalSpurs) ?? 0} renewal spurs`);
+      if (num(data.budTarget) !== undefined) parts.push(`target ${num(data.budTarget)} buds`);
+      break;
   }
   return parts.join('; ');
 }

@@ -1,0 +1,140 @@
+import { describe, expect, it } from 'vitest';
+import { cellLevel, cellSlot, encodeCell, SLOTS, type Level } from '@/lib/grid/cells';
+import { describeCell, describeRow, nextProblem } from '@/lib/grid/describe';
+import { gridFiltersToSearch, parseGridFilters, readGridFilters } from '@/lib/grid/filters';
+import { decodeCursor, encodeCursor, parsePhotoFilters, readPhotoFilters } from '@/lib/grid/photo-filters';
+import { summariseGrid } from '@/lib/grid/summary';
+import { planFromObservations } from '@/lib/grid/vine-plan';
+import { planVine, wilsonInterval } from '@/lib/viticulture';
+
+const P = (level: Level) => encodeCell('planted', level);
+
+describe('grid cell codes', () => {
+  it('round-trip every slot and level through one small integer, as the SQL builds them', () => {
+    const levels: Level[] = [null, 0, 1, 2, 3];
+    for (const slot of SLOTS) {
+      for (const level of levels) {
+        const code = encodeCell(slot, level);
+        expect([cellSlot(code), cellLevel(code)]).toEqual([slot, level]);
+      }
+    }
+    // The SQL in lib/server/queries/grid.ts: slot index × 5 + (severity + 1, or 0).
+    expect(encodeCell('planted', null)).toBe(0);
+    expect(encodeCell('replant', 3)).toBe(9);
+    expect(encodeCell('missing', 2)).toBe(13);
+    expect(encodeCell('dead', null)).toBe(15);
+    expect(encodeCell('none', null)).toBe(20);
+  });
+});
+
+describe('the grid summary', () => {
+  const rows = [1, 2];
+  const cells = [
+    [P(3), P(2), P(1), P(0), P(null), encodeCell('missing', 2)],
+    [encodeCell('dead', null), P(3), encodeCell('replant', 1), P(null)],
+  ];
+
+  it('counts vines by worst level and slot, and ranks rows by problem vines, then act-now vines', () => {
+    const s = summariseGrid(rows, cells, [], 7);
+    expect(s.byLevel).toEqual({ watch: 2, act: 2, urgent: 2 });
+    expect(s.slots).toEqual({ planted: 7, replant: 1, missing: 1, dead: 1, none: 0 });
+    expect(s.worstRows).toEqual([
+      { row: 1, problems: 4, urgent: 1 },
+      { row: 2, problems: 2, urgent: 1 },
+    ]);
+  });
+
+  it('gives each kind its Wilson interval among the vines scouted, and none when nothing was scouted', () => {
+    const kinds = [{ kind: 'trunk-injury' as const, bySeverity: [0, 1, 2, 1] as [number, number, number, number], vinesAffected: 3 }];
+    const s = summariseGrid(rows, cells, kinds, 40);
+    expect(s.kinds[0]).toMatchObject({ observations: 4, incidence: wilsonInterval(3, 40) });
+    expect(summariseGrid(rows, cells, kinds, 0).kinds[0]!.incidence).toBeNull();
+  });
+});
+
+describe('words for the canvas', () => {
+  it('read one cell with its post address and slot, and one row as counts with the worst vines named', () => {
+    expect(describeCell(14, 28, P(3), 5)).toBe('Row 14, post 6, vine 3: Act now.');
+    expect(describeCell(2, 7, encodeCell('replant', 0), null)).toBe('Row 2, vine 7: Fine. Replant slot.');
+    expect(describeCell(2, 8, encodeCell('dead', null), null)).toBe('Row 2, vine 8: Nothing recorded. Dead slot.');
+    expect(describeRow(3, [P(3), P(2), P(1), P(1), encodeCell('missing', null), P(3)])).toBe(
+      'Row 3: 2 act now (vines 1, 6); 1 act this season (vine 2); 2 watch; 1 missing.',
+    );
+    expect(describeRow(4, [P(null), P(0)])).toBe('Row 4: no findings.');
+    expect(describeRow(5, Array(12).fill(P(3)))).toBe('Row 5: 12 act now (vines 1, 2, 3, 4, 5, 6, 7, 8 and 4 more).');
+  });
+
+  it('find the next and previous vine at a level, wrapping round the block and skipping short rows', () => {
+    const grid = [
+      [P(null), P(3), P(2)],
+      [P(3)],
+      [P(1), P(null), P(3)],
+    ];
+    expect(nextProblem(grid, { r: 0, c: 0 }, 3)).toEqual({ r: 0, c: 1 });
+    expect(nextProblem(grid, { r: 0, c: 1 }, 3)).toEqual({ r: 1, c: 0 });
+    expect(nextProblem(grid, { r: 2, c: 2 }, 3)).toEqual({ r: 0, c: 1 });
+    expect(nextProblem(grid, { r: 0, c: 1 }, 3, -1)).toEqual({ r: 2, c: 2 });
+    expect(nextProblem(grid, { r: 0, c: 0 }, 2)).toEqual({ r: 0, c: 1 });
+    expect(nextProblem([[P(0)]], { r: 0, c: 0 }, 1)).toBeNull();
+  });
+});
+
+describe('grid filters in the URL', () => {
+  it('read kinds as a list or repeated, default to open findings, and write one canonical string', () => {
+    const f = parseGridFilters(new URLSearchParams('kind=weak-budbreak,trunk-injury&kind=trunk-injury&from=2026-04-01&flagged=1'));
+    expect(f).toEqual({ kind: ['trunk-injury', 'weak-budbreak'], from: '2026-04-01', status: 'open', flagged: true });
+    expect(gridFiltersToSearch(f).toString()).toBe('kind=trunk-injury%2Cweak-budbreak&from=2026-04-01&flagged=1');
+    expect(gridFiltersToSearch(parseGridFilters(new URLSearchParams(''))).toString()).toBe('');
+  });
+
+  it('refuse what they cannot read, naming the field', () => {
+    expect(() => parseGridFilters(new URLSearchParams('kind=frost'))).toThrow(/Unknown observation kind: frost/);
+    expect(() => parseGridFilters(new URLSearchParams('from=2026-05-02&to=2026-05-01'))).toThrow(/on or after/);
+  });
+
+  it('on the page, keep every readable value of a hand-edited URL and dates out of order for the form to flag', () => {
+    expect(readGridFilters(new URLSearchParams('kind=frost&status=closed'))).toEqual({ kind: [], status: 'closed', flagged: false });
+    expect(readGridFilters(new URLSearchParams('from=2026-05-02&to=2026-05-01'))).toMatchObject({ from: '2026-05-02', to: '2026-05-01' });
+  });
+
+  it('for photos, need a block before a row, and drop a lone row on the page', () => {
+    expect(() => parsePhotoFilters(new URLSearchParams('row=3'))).toThrow(/Choose a block/);
+    expect(readPhotoFilters(new URLSearchParams('row=3&severity=2'))).toEqual({ kind: [], severity: 2, row: undefined });
+  });
+
+  it('carry the photo cursor as an opaque token and reject a forged one', () => {
+    const cursor = { at: '2026-03-04T09:00:00.123456Z', id: '0b10c4a0-0000-4000-8000-000000000002' };
+    expect(decodeCursor(encodeCursor(cursor))).toEqual(cursor);
+    expect(encodeCursor(cursor)).toMatch(/^[A-Za-z0-9_-]+$/);
+    expect(decodeCursor('bm90LWEtY3Vyc29y')).toBeNull();
+    expect(decodeCursor('%%%')).toBeNull();
+  });
+});
+
+describe('a vine’s pruning plan from its records', () => {
+  const cane = (diameterMm: number, observedAt: string, extra: object = {}) => ({ kind: 'cane-diameter', data: { diameterMm, ...extra }, observedAt });
+
+  it('plans from the canes of the latest measuring day and the latest pruning weight, through planVine', () => {
+    const reading = planFromObservations('cane', [
+      cane(5, '2026-01-10T09:00:00Z'),
+      cane(9.5, '2026-01-20T09:00:00Z', { exposure: 'sun' }),
+      { kind: 'shade-cane', data: { longestInternodeMm: 130, exposure: 'shade', colourGood: true, diameterMm: 8 }, observedAt: '2026-01-20T10:00:00Z' },
+      cane(11, '2026-01-20T11:00:00Z'),
+      { kind: 'pruning-record', data: { canesKept: 2, budsPerCane: 13, renewalSpurs: 2, pruningWeightKg: 0.6 }, observedAt: '2025-12-01T09:00:00Z' },
+      { kind: 'pruning-record', data: { canesKept: 2, budsPerCane: 13, renewalSpurs: 2, pruningWeightKg: 0.8 }, observedAt: '2026-01-21T09:00:00Z' },
+    ]);
+    const canes = [
+      { baseDiameterMm: 9.5, exposure: 'sun' as const },
+      { baseDiameterMm: 8, longestInternodeMm: 130, exposure: 'shade' as const, colourGood: true },
+      { baseDiameterMm: 11 },
+    ];
+    expect(reading).toMatchObject({ measuredOn: '2026-01-20', pruningWeightKg: 0.8, canes, reason: null });
+    expect(reading.plan).toEqual(planVine({ trainingSystem: 'cane', canes, pruningWeight: 0.8, weightUnit: 'kg' }));
+  });
+
+  it('says why there is no plan: no canes measured, or a training system without one', () => {
+    expect(planFromObservations('cane', [])).toMatchObject({ plan: null, reason: 'No canes measured on this vine yet.' });
+    expect(planFromObservations('other', [cane(9, '2026-01-20T09:00:00Z')]).plan).toBeNull();
+    expect(planFromObservations('spur', [cane(9, '2026-01-20T09:00:00Z')]).plan).toEqual(planVine({ trainingSystem: 'spur', canes: [{ baseDiameterMm: 9 }] }));
+  });
+});
