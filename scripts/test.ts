@@ -48,6 +48,8 @@ async function main() {
     const env: NodeJS.ProcessEnv = {
       ...stack.env,
       BCRYPT_COST: '4',
+      // vitest.config.ts keeps the name the project asks for; Vite's note about .mts is noise here.
+      VITE_CONFIG_NATIVE_IGNORE_WARNING: 'true',
       APP_URL: `http://localhost:${profile.appPort}`,
       ADMIN_DATABASE_URL: stack.adminDatabaseUrl,
     };
