@@ -1,12 +1,13 @@
 'use client';
 
 import { zodResolver } from '@hookform/resolvers/zod';
-import { useState } from 'react';
+import { useEffect, useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { z } from 'zod';
 import { Button } from '@/components/ui/button';
 import { Field, Input, Notice } from '@/components/ui/field';
 import { describeAuthError, requestSignInLink, signInWithPassword } from '@/lib/auth-client';
+import { useHydrated } from '@/lib/use-hydrated';
 import { emailSchema, signInSchema } from '@/lib/validation/auth';
 
 type Mode = 'password' | 'link';
@@ -17,6 +18,15 @@ export function SignInForm({ callbackUrl, initialError }: { callbackUrl: string;
   const schema = mode === 'password' ? signInSchema : z.object({ email: emailSchema, password: z.string().optional() });
   const form = useForm<{ email: string; password?: string }>({ resolver: zodResolver(schema) });
   const { errors, isSubmitting } = form.formState;
+  const hydrated = useHydrated();
+
+  // On a slow phone people type before the page's script runs: keep what they typed.
+  useEffect(() => {
+    for (const name of ['email', 'password'] as const) {
+      const value = (document.getElementById(name) as HTMLInputElement | null)?.value;
+      if (value) form.setValue(name, value);
+    }
+  }, [form]);
 
   const onSubmit = form.handleSubmit(async ({ email, password }) => {
     setMessage(undefined);
@@ -64,7 +74,8 @@ export function SignInForm({ callbackUrl, initialError }: { callbackUrl: string;
           <Notice tone="error">{message}</Notice>
         </div>
       )}
-      <Button type="submit" size="large" disabled={isSubmitting}>
+      {/* Until the script runs, a tap would submit the form natively and lose it. */}
+      <Button type="submit" size="large" disabled={!hydrated || isSubmitting}>
         {isSubmitting ? 'Signing in…' : mode === 'password' ? 'Sign in' : 'Send me a sign-in link'}
       </Button>
     </form>
