@@ -7,6 +7,7 @@ import bcrypt from 'bcryptjs';
 import type { Knex } from 'knex';
 import { seedDemoLayout } from './demo-layout';
 import { seedDemoObservations, type DemoObservationOptions } from './demo-observations';
+import { seedDemoWork } from './demo-work';
 
 export const DEMO_PASSWORD = 'vineward-demo';
 
@@ -31,7 +32,7 @@ export async function seedDemo(knex: Knex, options: DemoObservationOptions = {})
 
   const existing = await knex('users').whereIn('id', DEMO_USERS.map((u) => u.id)).pluck('id');
   if (existing.length < DEMO_USERS.length) {
-    const hash = await bcrypt.hash(DEMO_PASSWORD, Number(process.env.BCRYPT_COST ?? 12));
+    const hash = await bcrypt.hash(DEMO_PASSWORD, Number((options.env ?? process.env).BCRYPT_COST ?? 12));
     await knex('users')
       .insert(DEMO_USERS.map((u) => ({ id: u.id, email: u.email, name: u.name, password_hash: hash, email_verified: knex.fn.now() })))
       .onConflict('id')
@@ -49,4 +50,5 @@ export async function seedDemo(knex: Knex, options: DemoObservationOptions = {})
 
   await seedDemoLayout(knex, DEMO_ORG_ID);
   await seedDemoObservations(knex, DEMO_ORG_ID, options);
+  await seedDemoWork(knex, DEMO_ORG_ID);
 }
