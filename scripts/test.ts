@@ -61,6 +61,8 @@ async function main() {
     if (needsApp) {
       buildIfNeeded(env);
       next = await startNext(profile.appPort, env);
+      // Lets tests watch the server process itself (e.g. its memory during a large export).
+      env.APP_PID = String(next.pid);
     }
     const vitest = [process.execPath, 'node_modules/vitest/vitest.mjs', 'run'];
     if (!only || only === 'unit') {
