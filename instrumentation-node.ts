@@ -16,3 +16,10 @@ setInterval(() => {
     .then(({ sweepPendingPhotos }) => sweepPendingPhotos())
     .catch((err) => console.error('Sweeping unconfirmed photo uploads failed:', err));
 }, HOUR).unref();
+
+// Notification mail: the outbox worker, with its overdue and digest schedule. Not during `next build`.
+if (process.env.NEXT_PHASE !== 'phase-production-build') {
+  void import('./lib/server/services/mail-worker')
+    .then(({ startMailWorker }) => startMailWorker())
+    .catch((err) => console.error('The mail worker did not start:', err));
+}

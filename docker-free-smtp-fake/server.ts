@@ -2,6 +2,8 @@
  * Local stand-in for a mail server: accepts any mail over SMTP on loopback, keeps it in
  * memory, and shows it over HTTP — a web inbox for people trying the demo, and a JSON API
  * (`GET /api/messages`, `DELETE /api/messages`) that integration and browser tests read.
+ * `POST /api/pause` makes the SMTP port refuse connections, as a mail server that is down would,
+ * until `POST /api/resume`: tests run apart from the runner, so they cannot restart this process.
  */
 import http from 'node:http';
 import { parseArgs } from 'node:util';
@@ -22,6 +24,8 @@ interface Message {
   subject: string;
   text: string;
   html: string;
+  messageId: string;
+  headers: Record<string, string>;
   receivedAt: string;
 }
 
@@ -42,6 +46,8 @@ const smtp = new SMTPServer({
           subject: mail.subject ?? '',
           text: mail.text ?? '',
           html: typeof mail.html === 'string' ? mail.html : '',
+          messageId: mail.messageId ?? '',
+          headers: Object.fromEntries(mail.headerLines.map((h) => [h.key, h.line.slice(h.line.indexOf(':') + 1).trim()])),
           receivedAt: new Date().toISOString(),
         });
         callback();
@@ -53,8 +59,28 @@ const smtp = new SMTPServer({
 const escape = (s: string) =>
   s.replace(/[&<>"]/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;' })[c]!);
 
+let paused = false;
+
 const web = http.createServer((req, res) => {
   const url = new URL(req.url ?? '/', 'http://localhost');
+  if (req.method === 'POST' && url.pathname === '/api/pause') {
+    if (!paused) {
+      paused = true;
+      // Closing the listening socket only: connections already open finish their mail.
+      smtp.server.close();
+    }
+    res.writeHead(204).end();
+    return;
+  }
+  if (req.method === 'POST' && url.pathname === '/api/resume') {
+    if (!paused) {
+      res.writeHead(204).end();
+      return;
+    }
+    paused = false;
+    smtp.server.listen(Number(values['smtp-port']), '127.0.0.1', () => res.writeHead(204).end());
+    return;
+  }
   if (url.pathname === '/api/messages') {
     if (req.method === 'DELETE') {
       messages.length = 0;

@@ -14,6 +14,9 @@ export interface Mail {
   subject: string;
   text: string;
   html?: string;
+  /** Notification mail sets one derived from its outbox row, so a receiver can drop a repeat. */
+  messageId?: string;
+  headers?: Record<string, string>;
 }
 
 export async function sendMail(mail: Mail) {

@@ -57,6 +57,13 @@ export const observationDataSchemas = {
     pruningWeightKg: z.number().min(0).max(20, 'At most 20 kg').optional(),
     budTarget: count(500).optional(),
   }),
+  'pruning-check': z.strictObject({
+    prunedBy: z.uuid('Choose the pruner whose work you checked'),
+    canesKept: count(20),
+    budsOnCanes: count(500),
+    renewalSpurs: count(20),
+    budTarget: count(500).optional(),
+  }),
   note: z.strictObject({}),
 } satisfies Record<ObservationKind, z.ZodType>;
 

@@ -52,7 +52,7 @@ export {
   type RavazReading,
 } from './crop';
 export { estimatePruningLabour, type LabourEstimate, type LabourInput } from './labour';
-export { SEVERITIES, observationSeverity, type Severity } from './severity';
+export { SEVERITIES, budDeviationPercent, observationSeverity, pruningCheckBuds, type Severity } from './severity';
 export {
   DEFAULT_SETTINGS,
   mergeSettings,

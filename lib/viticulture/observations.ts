@@ -11,6 +11,7 @@ export const OBSERVATION_KINDS = [
   'missing-vine',
   'bud-injury',
   'pruning-record',
+  'pruning-check',
   'note',
 ] as const;
 export type ObservationKind = (typeof OBSERVATION_KINDS)[number];
@@ -85,6 +86,19 @@ export interface PruningRecordData {
   budTarget?: number;
 }
 
+/** A crew lead's check of what a pruner left on one vine. */
+export interface PruningCheckData {
+  /** The person whose pruning is checked. */
+  prunedBy: string;
+  /** Fruiting canes left (spurs, on a spur-pruned vine). */
+  canesKept: number;
+  /** Buds left on those canes or spurs, all together. */
+  budsOnCanes: number;
+  renewalSpurs: number;
+  /** The block's bud target per vine, as the crew was told it. */
+  budTarget?: number;
+}
+
 export type NoteData = Record<string, never>;
 
 export interface ObservationDataMap {
@@ -96,6 +110,7 @@ export interface ObservationDataMap {
   'missing-vine': MissingVineData;
   'bud-injury': BudInjuryData;
   'pruning-record': PruningRecordData;
+  'pruning-check': PruningCheckData;
   note: NoteData;
 }
 

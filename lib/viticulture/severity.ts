@@ -15,6 +15,7 @@ import {
   type ObservationData,
   type ObservationDataMap,
   type ObservationKind,
+  type PruningCheckData,
   type VineState,
 } from './observations';
 import { balancedPruningBuds } from './pruning';
@@ -99,14 +100,37 @@ const RULES: { [K in ObservationKind]: Rule<K> } = {
         : d.pruningWeightKg !== undefined
           ? balancedPruningBuds(d.pruningWeightKg, s.pruning.formula, 'kg')
           : undefined;
-    if (target === undefined) return 0;
-    if (target === 0) return retained === 0 ? 0 : 3;
-    const deviationPercent = (Math.abs(retained - target) / target) * 100;
-    const { fineWithinPercent, watchWithinPercent, actWithinPercent } = s.pruningRecord;
-    return deviationPercent <= fineWithinPercent ? 0 : deviationPercent <= watchWithinPercent ? 1 : deviationPercent <= actWithinPercent ? 2 : 3;
+    return target === undefined ? 0 : deviationSeverity(retained, target, s);
+  },
+  // What a pruner left (pruningCheckBuds) against the block's budTarget, on the pruning-record bands.
+  // No target on the record: 0; the per-pruner report also compares with the vine's own plan.
+  'pruning-check': (d, s) => {
+    const retained = pruningCheckBuds(d, s);
+    return d.budTarget === undefined ? 0 : deviationSeverity(retained, requireNonNegative('budTarget', d.budTarget), s);
   },
   note: () => 0,
 };
+
+function deviationSeverity(retained: number, target: number, s: ViticultureSettings): Severity {
+  if (target === 0) return retained === 0 ? 0 : 3;
+  const off = Math.abs(budDeviationPercent(retained, target));
+  const { fineWithinPercent, watchWithinPercent, actWithinPercent } = s.pruningRecord;
+  return off <= fineWithinPercent ? 0 : off <= watchWithinPercent ? 1 : off <= actWithinPercent ? 2 : 3;
+}
+
+/** Retained buds off target, in percent of the target: negative when too few were left. */
+export function budDeviationPercent(retained: number, target: number): number {
+  requireNonNegative('retained', retained);
+  requirePositive('target', target);
+  return ((retained - target) / target) * 100;
+}
+
+/** Buds a checked vine carries: those on its canes or spurs plus its renewal spurs at their bud count. */
+export function pruningCheckBuds(d: Omit<PruningCheckData, 'prunedBy'>, settings?: SettingsOverride): number {
+  const s = resolveSettings(settings);
+  requireCount('canesKept', d.canesKept);
+  return requireCount('budsOnCanes', d.budsOnCanes) + requireCount('renewalSpurs', d.renewalSpurs) * s.plan.budsPerRenewalSpur;
+}
 
 function caneSeverity(input: Parameters<typeof caneFindings>[0], s: ViticultureSettings): Severity {
   return CANE_SEVERITY[judge(caneFindings(input, s), s).verdict];

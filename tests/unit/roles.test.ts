@@ -12,6 +12,8 @@ const TABLE: [Permission, Record<Role, boolean>][] = [
   // Not in the DESIGN table: the field-scouting issue says plans are made "by a manager or advisor".
   ['plan-sampling', { manager: true, scout: false, pruner: false, advisor: true }],
   ['complete-task', { manager: true, scout: false, pruner: true, advisor: false }],
+  // Not in the DESIGN table: the flags-and-tasks issue has a crew lead (pruner) or a manager check pruning.
+  ['check-pruning', { manager: true, scout: false, pruner: true, advisor: false }],
   ['comment', { manager: true, scout: true, pruner: true, advisor: true }],
   ['read', { manager: true, scout: true, pruner: true, advisor: true }],
 ];

@@ -1,5 +1,7 @@
 import 'server-only';
 import { createHash } from 'node:crypto';
+import type { ZodType } from 'zod';
+import { can } from '@/lib/roles';
 import type { Member } from '@/lib/server/auth/guard';
 import { db } from '@/lib/server/db';
 import { fieldErrors } from '@/lib/server/http';
@@ -11,6 +13,7 @@ import {
   slotKey,
   type ObservationInsert,
 } from '@/lib/server/queries/observations';
+import { memberIdsAmong } from '@/lib/server/queries/tasks';
 import { observationRecordSchema, type ObservationRecord } from '@/lib/validation/observation';
 import { observationSeverity, type ObservationKind } from '@/lib/viticulture';
 
@@ -35,8 +38,13 @@ function canonical(value: unknown): unknown {
   return value;
 }
 
+/** The hash that tells a retry from a conflict; give times as ISO strings in UTC. */
+export function hashPayload(payload: Record<string, unknown>) {
+  return createHash('sha256').update(JSON.stringify(canonical(payload))).digest('hex');
+}
+
 export function payloadHash(r: ObservationRecord) {
-  const payload = {
+  return hashPayload({
     blockId: r.blockId,
     row: r.row,
     position: r.position,
@@ -44,11 +52,65 @@ export function payloadHash(r: ObservationRecord) {
     data: r.data,
     note: r.note,
     observedAt: new Date(r.observedAt).toISOString(),
-  };
-  return createHash('sha256').update(JSON.stringify(canonical(payload))).digest('hex');
+  });
 }
 
-const rejected = (id: string, errors: { field: string; message: string }[]): SyncResult => ({ id, status: 'rejected', errors });
+export const rejected = (id: string, errors: { field: string; message: string }[]): SyncResult => ({ id, status: 'rejected', errors });
+
+export interface ValidRecord<R> {
+  index: number;
+  record: R;
+  hash: string;
+}
+
+/** Parses each raw record on its own: the invalid ones get their "rejected" result, the valid ones come back hashed. */
+export function validateRecords<R extends { id: string }>(
+  records: unknown[],
+  schema: ZodType<R>,
+  hash: (record: R) => string,
+  results: SyncResult[],
+): ValidRecord<R>[] {
+  const valid: ValidRecord<R>[] = [];
+  records.forEach((raw, index) => {
+    const parsed = schema.safeParse(raw);
+    const id = typeof (raw as { id?: unknown })?.id === 'string' ? (raw as { id: string }).id : '';
+    if (!parsed.success) {
+      results[index] = rejected(
+        id,
+        Object.entries(fieldErrors(parsed.error)).flatMap(([field, messages]) => messages.map((message) => ({ field, message }))),
+      );
+    } else {
+      valid.push({ index, record: parsed.data, hash: hash(parsed.data) });
+    }
+  });
+  return valid;
+}
+
+/**
+ * After an insert-once: "created" for the first record of each new id in the batch, otherwise
+ * "duplicate" or "conflict" against what is stored. Another organisation's id reads as a conflict.
+ */
+export function settleOnce<R extends { id: string }>(
+  pending: ValidRecord<R>[],
+  created: Set<string>,
+  stored: { id: string; organisation_id: string; payload_sha256: string }[],
+  organisationId: string,
+  results: SyncResult[],
+) {
+  const seen = new Map<string, string>();
+  const existing = new Map(stored.map((r) => [r.id, r]));
+  for (const v of pending) {
+    const id = v.record.id;
+    // The first record with an id in this batch is the one stored; later ones compare with it.
+    if (created.has(id) && !seen.has(id)) {
+      seen.set(id, v.hash);
+      results[v.index] = { id, status: 'created' };
+      continue;
+    }
+    const hash = seen.get(id) ?? (existing.get(id)?.organisation_id === organisationId ? existing.get(id)?.payload_sha256 : undefined);
+    results[v.index] = { id, status: hash === v.hash ? 'duplicate' : 'conflict' };
+  }
+}
 
 /**
  * Stores each observation once, by its device-made id: a retry of the same record answers
@@ -57,20 +119,7 @@ const rejected = (id: string, errors: { field: string; message: string }[]): Syn
  */
 export async function syncObservations(member: Member, records: unknown[]): Promise<SyncResult[]> {
   const results: SyncResult[] = new Array(records.length);
-  const valid: { index: number; record: ObservationRecord; hash: string }[] = [];
-
-  records.forEach((raw, index) => {
-    const parsed = observationRecordSchema.safeParse(raw);
-    const id = typeof (raw as { id?: unknown })?.id === 'string' ? (raw as { id: string }).id : '';
-    if (!parsed.success) {
-      results[index] = rejected(
-        id,
-        Object.entries(fieldErrors(parsed.error)).flatMap(([field, messages]) => messages.map((message) => ({ field, message }))),
-      );
-    } else {
-      valid.push({ index, record: parsed.data, hash: payloadHash(parsed.data) });
-    }
-  });
+  const valid = validateRecords(records, observationRecordSchema, payloadHash, results);
 
   const blocks = await ownedBlockIds(db(), member.organisationId, [...new Set(valid.map((v) => v.record.blockId))]);
   const slots = await resolveSlots(
@@ -78,6 +127,9 @@ export async function syncObservations(member: Member, records: unknown[]): Prom
     member.organisationId,
     valid.filter((v) => blocks.has(v.record.blockId)).map((v) => ({ blockId: v.record.blockId, row: v.record.row, position: v.record.position })),
   );
+
+  const checked = valid.flatMap((v) => (v.record.kind === 'pruning-check' ? [String(v.record.data.prunedBy)] : []));
+  const crew = await memberIdsAmong(db(), member.organisationId, checked);
 
   const rows: ObservationInsert[] = [];
   const pending: typeof valid = [];
@@ -91,6 +143,14 @@ export async function syncObservations(member: Member, records: unknown[]): Prom
     const positionId = slots.get(slotKey({ blockId: r.blockId, row: r.row, position: r.position }));
     if (!positionId) {
       results[v.index] = rejected(r.id, [{ field: 'position', message: `Row ${r.row} has no vine position ${r.position} in this block` }]);
+      continue;
+    }
+    if (r.kind === 'pruning-check' && !can(member.role, 'check-pruning')) {
+      results[v.index] = rejected(r.id, [{ field: 'kind', message: 'Only a crew lead (pruner) or a manager records pruning checks' }]);
+      continue;
+    }
+    if (r.kind === 'pruning-check' && !crew.has(String(r.data.prunedBy))) {
+      results[v.index] = rejected(r.id, [{ field: 'data.prunedBy', message: 'No such person in your organisation' }]);
       continue;
     }
     rows.push({
@@ -112,20 +172,7 @@ export async function syncObservations(member: Member, records: unknown[]): Prom
   }
 
   const created = await insertObservationsOnce(db(), rows);
-  const seen = new Map<string, string>();
-  const existing = new Map(
-    (await getStoredHashes(db(), pending.filter((v) => !created.has(v.record.id)).map((v) => v.record.id))).map((r) => [r.id, r]),
-  );
-  for (const v of pending) {
-    const id = v.record.id;
-    // The first record with an id in this batch is the one stored; later ones compare with it.
-    if (created.has(id) && !seen.has(id)) {
-      seen.set(id, v.hash);
-      results[v.index] = { id, status: 'created' };
-      continue;
-    }
-    const stored = seen.get(id) ?? (existing.get(id)?.organisation_id === member.organisationId ? existing.get(id)?.payload_sha256 : undefined);
-    results[v.index] = { id, status: stored === v.hash ? 'duplicate' : 'conflict' };
-  }
+  const stored = await getStoredHashes(db(), pending.filter((v) => !created.has(v.record.id)).map((v) => v.record.id));
+  settleOnce(pending, created, stored, member.organisationId, results);
   return results;
 }

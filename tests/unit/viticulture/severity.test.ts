@@ -3,8 +3,10 @@ import {
   DEFAULT_SETTINGS,
   OBSERVATION_KINDS,
   SEVERITIES,
+  budDeviationPercent,
   isObservationKind,
   observationSeverity,
+  pruningCheckBuds,
   type Observation,
 } from '@/lib/viticulture';
 
@@ -21,6 +23,7 @@ describe('observationSeverity', () => {
       { kind: 'missing-vine', data: { state: 'missing' } },
       { kind: 'bud-injury', data: { budsCut: 100, primariesDead: 12 } },
       { kind: 'pruning-record', data: { canesKept: 2, budsPerCane: 13, renewalSpurs: 2 } },
+      { kind: 'pruning-check', data: { prunedBy: 'p', canesKept: 2, budsOnCanes: 26, renewalSpurs: 2, budTarget: 30 } },
       { kind: 'note', data: {} },
     ];
     expect(samples.map((o) => o.kind)).toEqual([...OBSERVATION_KINDS]);
@@ -108,6 +111,30 @@ describe('observationSeverity', () => {
     expect(observationSeverity('pruning-record', { canesKept: 0, budsPerCane: 0, renewalSpurs: 0, budTarget: 0 })).toBe(0);
   });
 
+  it('scores a pruning check by the buds the pruner left against the block\'s target, on the pruning-record steps', () => {
+    // 26 buds on two canes + 2 renewal spurs × 2 buds = 30 buds left.
+    const check = (budTarget?: number, budsOnCanes = 26) =>
+      observationSeverity('pruning-check', { prunedBy: 'p', canesKept: 2, budsOnCanes, renewalSpurs: 2, ...(budTarget === undefined ? {} : { budTarget }) });
+    expect(check(30)).toBe(0);
+    expect(check(36)).toBe(1); // 16.7% too few
+    expect(check(30, 36)).toBe(2); // 40 buds: 33% too many
+    expect(check(70)).toBe(3);
+    expect(check(0)).toBe(3);
+    expect(check(undefined)).toBe(0);
+    expect(observationSeverity('pruning-check', { prunedBy: 'p', canesKept: 0, budsOnCanes: 0, renewalSpurs: 0, budTarget: 0 })).toBe(0);
+  });
+
+  it('counts a checked vine\'s buds with its renewal spurs, and signs the deviation: negative when too few were left', () => {
+    expect(pruningCheckBuds({ canesKept: 2, budsOnCanes: 24, renewalSpurs: 2 })).toBe(28);
+    expect(pruningCheckBuds({ canesKept: 2, budsOnCanes: 24, renewalSpurs: 2 }, { plan: { budsPerRenewalSpur: 1 } })).toBe(26);
+    expect(budDeviationPercent(24, 30)).toBe(-20);
+    expect(budDeviationPercent(36, 30)).toBeCloseTo(20, 10);
+    expect(() => budDeviationPercent(10, 0)).toThrow(/target/);
+    expect(() => budDeviationPercent(-1, 10)).toThrow(/retained/);
+    expect(() => pruningCheckBuds({ canesKept: 1.5, budsOnCanes: 10, renewalSpurs: 0 })).toThrow(/canesKept/);
+    expect(() => observationSeverity('pruning-check', { prunedBy: 'p', canesKept: 2, budsOnCanes: 20, renewalSpurs: 1, budTarget: -1 })).toThrow(/budTarget/);
+  });
+
   it('scores a note 0', () => {
     expect(observationSeverity('note', {})).toBe(0);
   });
@@ -132,7 +159,7 @@ describe('observationSeverity', () => {
 
 describe('observation kinds', () => {
   it('are the kebab-case kinds of the sync contract, recognised by isObservationKind', () => {
-    expect(OBSERVATION_KINDS).toEqual(['cane-diameter', 'shade-cane', 'weak-budbreak', 'trunk-injury', 'cane-injury', 'missing-vine', 'bud-injury', 'pruning-record', 'note']);
+    expect(OBSERVATION_KINDS).toEqual(['cane-diameter', 'shade-cane', 'weak-budbreak', 'trunk-injury', 'cane-injury', 'missing-vine', 'bud-injury', 'pruning-record', 'pruning-check', 'note']);
     expect(isObservationKind('weak-budbreak')).toBe(true);
     expect(isObservationKind('Weak budbreak')).toBe(false);
     expect(isObservationKind(3)).toBe(false);

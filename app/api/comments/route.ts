@@ -1,0 +1,15 @@
+import { NextResponse } from 'next/server';
+import { memberRoute } from '@/lib/server/http';
+import { addComment, listThread } from '@/lib/server/services/comments';
+import { commentListQuerySchema, commentSchema } from '@/lib/validation/comment';
+
+/** GET /api/comments?subject=observation|vine|task&id= — the thread, oldest first. */
+export const GET = memberRoute({}, async (member, { req }) => {
+  const q = commentListQuerySchema.parse(Object.fromEntries(req.nextUrl.searchParams));
+  return { comments: await listThread(member, q.subject, q.id) };
+});
+
+/** POST /api/comments `{ subject, subjectId, body }` — "@Name" or "@e-mail" of a member mentions them. */
+export const POST = memberRoute({ permission: 'comment', body: commentSchema }, async (member, { body }) =>
+  NextResponse.json({ comment: await addComment(member, body) }, { status: 201 }),
+);

@@ -1,0 +1,28 @@
+import { db } from '@/lib/server/db';
+import { AppError } from '@/lib/server/errors';
+import { publicRoute } from '@/lib/server/http';
+import { savePreferences } from '@/lib/server/queries/notifications';
+import { verifyUnsubscribeToken } from '@/lib/server/services/notifications';
+import { unsubscribeSchema } from '@/lib/validation/notification';
+
+/**
+ * POST /api/notifications/unsubscribe — turns the daily digest off for the person the signed token
+ * names, without signing in. The token comes in the body (the page) or the query (mail clients'
+ * one-click unsubscribe, which posts to the List-Unsubscribe address).
+ */
+export const POST = publicRoute({}, async ({ req }) => {
+  const text = await req.text();
+  let fromBody: unknown;
+  try {
+    fromBody = text.trim().startsWith('{') ? JSON.parse(text).token : undefined;
+  } catch {
+    throw new AppError('bad-request', 'The request body is not valid JSON.');
+  }
+  const { token } = unsubscribeSchema.parse({ token: fromBody ?? req.nextUrl.searchParams.get('token') ?? undefined });
+  const userId = verifyUnsubscribeToken(token);
+  if (!userId) throw new AppError('not-found', 'This unsubscribe link is not valid. Sign in and change your notification settings instead.');
+  const exists = await db()('users').where({ id: userId }).first('id');
+  if (!exists) throw new AppError('not-found', 'This unsubscribe link is not valid. Sign in and change your notification settings instead.');
+  await savePreferences(db(), userId, { digest: false });
+  return { digest: false };
+});

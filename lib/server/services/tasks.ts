@@ -1,0 +1,324 @@
+import 'server-only';
+import { planFromObservations } from '@/lib/grid/vine-plan';
+import { can } from '@/lib/roles';
+import type { Member } from '@/lib/server/auth/guard';
+import { db, type Db } from '@/lib/server/db';
+import { AppError } from '@/lib/server/errors';
+import { attachFlagsToTask, closeTaskFlags, lockOpenFlags, releaseTaskFlags } from '@/lib/server/queries/flags';
+import {
+  completeFinishedTasks,
+  findTaskItems,
+  getMembership,
+  getStoredTaskUpdateHashes,
+  getTask,
+  insertTask,
+  insertTaskItems,
+  insertTaskUpdatesOnce,
+  listPlanMeasurements,
+  listPruningChecks,
+  listTaskItems,
+  lockTask,
+  markItemsDone,
+  slotsInRuns,
+  updateTaskRow,
+  type TaskUpdateInsert,
+  type TaskView,
+} from '@/lib/server/queries/tasks';
+import { wakeMailWorker } from '@/lib/server/services/mail-worker';
+import { queueAssignmentMail } from '@/lib/server/services/notifications';
+import { hashPayload, rejected, settleOnce, validateRecords, type SyncResult, type ValidRecord } from '@/lib/server/services/sync';
+import { REASON_LABELS, type FlagReason } from '@/lib/validation/flag';
+import { taskUpdateRecordSchema, type CreateTasksInput, type TaskUpdateRecord, type UpdateTaskInput } from '@/lib/validation/task';
+import { budDeviationPercent, DEFAULT_SETTINGS, pruningCheckBuds } from '@/lib/viticulture';
+
+/** The person who will do the work: a member of this organisation whose role completes tasks. */
+async function requireAssignee(trx: Db, member: Member, assigneeId: string) {
+  const assignee = await getMembership(trx, member.organisationId, assigneeId);
+  if (!assignee) throw new AppError('invalid-input', 'Some fields are not valid.', { assigneeId: ['No such person in your organisation'] });
+  if (!can(assignee.role, 'complete-task')) {
+    throw new AppError('invalid-input', 'Some fields are not valid.', {
+      assigneeId: [`${assignee.name ?? assignee.email} is ${assignee.role === 'advisor' ? 'an' : 'a'} ${assignee.role} and cannot work tasks; choose a pruner or a manager`],
+    });
+  }
+  return assignee;
+}
+
+/** Rows in walking order: up the first row, back down the next, as a crew walks a block. */
+function walkingOrder<T extends { row_number: number; position: number }>(slots: T[]) {
+  const rows = [...new Set(slots.map((s) => s.row_number))].sort((a, b) => a - b);
+  return rows.flatMap((row, i) =>
+    slots.filter((s) => s.row_number === row).sort((a, b) => (i % 2 === 0 ? a.position - b.position : b.position - a.position)),
+  );
+}
+
+function titleFor(reasons: FlagReason[], rows: number[]) {
+  const kinds = [...new Set(reasons)].map((r) => (r === 'other' ? 'Extra care' : REASON_LABELS[r]));
+  const first = Math.min(...rows);
+  const last = Math.max(...rows);
+  return `${kinds.slice(0, 2).join(' and ')}${kinds.length > 2 ? ' and more' : ''}, row${first === last ? ` ${first}` : `s ${first}–${last}`}`;
+}
+
+/**
+ * Turns open flags into tasks, one per block: the flags' vines become the task's items in walking
+ * order. Flags already worked by an open task, closed flags and other organisations' ids are refused
+ * as a whole, so nothing is half made.
+ */
+export async function createTasks(member: Member, input: CreateTasksInput): Promise<TaskView[]> {
+  const ids = [...new Set(input.flagIds)];
+  const created = await db().transaction(async (trx) => {
+    const assignee = await requireAssignee(trx, member, input.assigneeId);
+    const flags = await lockOpenFlags(trx, member.organisationId, ids);
+    if (flags.length !== ids.length) {
+      const found = new Set(flags.map((f) => f.id));
+      const missing = ids.filter((id) => !found.has(id));
+      const closed = await trx('flags').where({ organisation_id: member.organisationId }).whereIn('id', missing).pluck('id');
+      if (closed.length) throw new AppError('conflict', `${closed.length === 1 ? 'A flag was' : `${closed.length} flags were`} closed meanwhile; reload the list.`);
+      throw new AppError('not-found', 'No such flag in your organisation.');
+    }
+    const busy = flags.filter((f) => f.task_id);
+    if (busy.length) {
+      throw new AppError('conflict', `${busy.length === 1 ? 'A flag is' : `${busy.length} flags are`} already in an open task; reload the list.`);
+    }
+    const byBlock = new Map<string, typeof flags>();
+    for (const f of flags) byBlock.set(f.block_id, [...(byBlock.get(f.block_id) ?? []), f]);
+
+    const made: { id: string; assignedAt: Date; title: string; blockId: string; vines: number }[] = [];
+    for (const [blockId, blockFlags] of byBlock) {
+      const slots = walkingOrder(await slotsInRuns(trx, blockId, blockFlags.map((f) => ({ row: f.row_number, from: f.position, to: f.to_position }))));
+      if (slots.length === 0) throw new AppError('conflict', 'The flagged vines are no longer in the block layout; close those flags instead.');
+      const title = input.title || titleFor(blockFlags.map((f) => f.reason), blockFlags.map((f) => f.row_number));
+      const task = await insertTask(trx, {
+        organisation_id: member.organisationId,
+        block_id: blockId,
+        title,
+        note: input.note,
+        assignee_id: assignee.userId,
+        due_on: input.dueOn,
+        priority: input.priority,
+        created_by: member.userId,
+      });
+      await insertTaskItems(
+        trx,
+        slots.map((s, i) => ({ task_id: task.id, position_id: s.id, row_number: s.row_number, position: s.position, sequence: i + 1 })),
+      );
+      await attachFlagsToTask(trx, blockFlags.map((f) => f.id), task.id);
+      made.push({ id: task.id, assignedAt: task.assigned_at, title, blockId, vines: slots.length });
+    }
+    for (const t of made) {
+      const view = (await getTask(trx, member.organisationId, t.id))!;
+      await queueAssignmentMail(trx, {
+        organisationId: member.organisationId,
+        task: { id: t.id, title: t.title, blockName: view.blockName, dueOn: input.dueOn, priority: input.priority, vines: t.vines, note: input.note },
+        assigneeId: assignee.userId,
+        assignedAt: t.assignedAt,
+        by: member,
+      });
+    }
+    return made.map((t) => t.id);
+  });
+  wakeMailWorker({ schedule: true });
+  return Promise.all(created.map(async (id) => (await getTask(db(), member.organisationId, id))!));
+}
+
+export async function getTaskDetail(member: Member, id: string) {
+  const task = await getTask(db(), member.organisationId, id);
+  if (!task) throw new AppError('not-found', 'No such task in your organisation.');
+  return { task, items: await listTaskItems(db(), [id]) };
+}
+
+/** Reassign, move the due date, change priority, or cancel (which gives the flags back). */
+export async function updateTask(member: Member, id: string, input: UpdateTaskInput) {
+  await db().transaction(async (trx) => {
+    const task = await lockTask(trx, member.organisationId, id);
+    if (!task) throw new AppError('not-found', 'No such task in your organisation.');
+    if (task.status !== 'open') throw new AppError('conflict', `This task is ${task.status === 'done' ? 'done' : 'cancelled'} and can no longer change.`);
+    const reassigned = input.assigneeId !== undefined && input.assigneeId !== task.assignee_id;
+    if (reassigned) await requireAssignee(trx, member, input.assigneeId!);
+    const row = await updateTaskRow(trx, id, {
+      ...(reassigned ? { assignee_id: input.assigneeId } : {}),
+      ...(input.dueOn ? { due_on: input.dueOn } : {}),
+      ...(input.priority ? { priority: input.priority } : {}),
+      ...(input.status ? { status: input.status } : {}),
+    });
+    if (input.status === 'cancelled') await releaseTaskFlags(trx, id);
+    if (reassigned && input.status !== 'cancelled') {
+      const view = (await getTask(trx, member.organisationId, id))!;
+      await queueAssignmentMail(trx, {
+        organisationId: member.organisationId,
+        task: { id, title: view.title, blockName: view.blockName, dueOn: view.dueOn ?? '', priority: view.priority, vines: view.vines, note: view.note },
+        assigneeId: input.assigneeId!,
+        assignedAt: row.assigned_at,
+        by: member,
+      });
+    }
+  });
+  wakeMailWorker({ schedule: true });
+  return getTaskDetail(member, id);
+}
+
+const updateHash = (r: TaskUpdateRecord) =>
+  hashPayload({
+    taskId: r.taskId,
+    blockId: r.blockId,
+    row: r.row,
+    position: r.position,
+    note: r.note,
+    observationId: r.observationId ?? null,
+    doneAt: new Date(r.doneAt).toISOString(),
+  });
+
+const addressKey = (taskId: string, row: number, position: number) => `${taskId}:${row}:${position}`;
+
+/**
+ * The phone's "this vine is done" records, once-only like every field record. The assignee (or a
+ * manager) checks off vines of an open task; the last vine done closes the task and its flags.
+ */
+export async function syncTaskUpdates(member: Member, records: unknown[]): Promise<SyncResult[]> {
+  const results: SyncResult[] = new Array(records.length);
+  const valid = validateRecords(records, taskUpdateRecordSchema, updateHash, results);
+  const known = await getStoredTaskUpdateHashes(db(), valid.map((v) => v.record.id));
+  const knownIds = new Set(known.map((k) => k.id));
+  const fresh = valid.filter((v) => !knownIds.has(v.record.id));
+  const found = await findTaskItems(
+    db(),
+    member.organisationId,
+    fresh.map((v) => ({ taskId: v.record.taskId, row: v.record.row, position: v.record.position })),
+  );
+  const items = new Map(found.map((f) => [addressKey(f.task_id, f.row_number, f.position), f]));
+
+  const rows: TaskUpdateInsert[] = [];
+  const pending: ValidRecord<TaskUpdateRecord>[] = valid.filter((v) => knownIds.has(v.record.id));
+  for (const v of fresh) {
+    const r = v.record;
+    const item = items.get(addressKey(r.taskId, r.row, r.position));
+    const refuse = (field: string, message: string) => (results[v.index] = rejected(r.id, [{ field, message }]));
+    if (!item) refuse('taskId', 'No such task in your organisation');
+    else if (item.block_id !== r.blockId) refuse('blockId', 'This task is in another block');
+    else if (!item.position_id) refuse('position', `Row ${r.row}, vine ${r.position} is not part of this task`);
+    else if (item.status === 'cancelled') refuse('taskId', 'This task was cancelled; nothing more to do on it');
+    else if (item.assignee_id !== member.userId && member.role !== 'manager') refuse('taskId', 'This task is assigned to someone else');
+    else {
+      rows.push({
+        id: r.id,
+        organisation_id: member.organisationId,
+        task_id: r.taskId,
+        position_id: item.position_id,
+        note: r.note,
+        observation_id: r.observationId ?? null,
+        done_at: r.doneAt,
+        recorded_by: member.userId,
+        payload_sha256: v.hash,
+      });
+      pending.push(v);
+    }
+  }
+
+  const created = await db().transaction(async (trx) => {
+    const inserted = await insertTaskUpdatesOnce(trx, rows);
+    const done = rows.filter((r) => inserted.has(r.id));
+    await markItemsDone(
+      trx,
+      done.map((r) => ({ taskId: r.task_id, positionId: r.position_id, doneAt: r.done_at, doneBy: member.userId, note: r.note, observationId: r.observation_id })),
+    );
+    const finished = await completeFinishedTasks(trx, done.map((r) => r.task_id));
+    await closeTaskFlags(trx, finished, member.userId);
+    return inserted;
+  });
+  const raced = await getStoredTaskUpdateHashes(db(), rows.filter((r) => !created.has(r.id)).map((r) => r.id));
+  settleOnce(pending, created, [...known, ...raced], member.organisationId, results);
+  return results;
+}
+
+export interface CheckedVine {
+  id: string;
+  blockId: string;
+  blockName: string;
+  row: number;
+  position: number;
+  observedAt: string;
+  checkedByName: string | null;
+  prunerId: string;
+  budsLeft: number;
+  renewalSpurs: number;
+  budTarget: number | null;
+  /** Against the block's target, in percent of it; negative when too few buds were left. */
+  targetDeviationPercent: number | null;
+  /** Against the vine's own plan (planVine from its latest cane measurements), when it has one. */
+  planBuds: number | null;
+  planRenewalSpurs: number | null;
+  planDeviationBuds: number | null;
+}
+
+export interface PrunerDeviation {
+  prunerId: string;
+  prunerName: string | null;
+  vines: number;
+  budsLeftMean: number;
+  /** Mean signed deviation from the block target over the checks that had one. */
+  targetDeviationMeanPercent: number | null;
+  /** Share of those checks further off target than the "fine" band of the pruning-record rule. */
+  offTargetShare: number | null;
+  renewalSpursMean: number;
+  planChecks: number;
+  planDeviationMeanBuds: number | null;
+  planSpurDeviationMean: number | null;
+}
+
+const mean = (xs: number[]) => (xs.length ? xs.reduce((a, b) => a + b, 0) / xs.length : null);
+const round1 = (x: number | null) => (x === null ? null : Math.round(x * 10) / 10);
+
+/**
+ * Each pruner's deviation over the sample of checked vines: buds and renewal spurs left against the
+ * block's target (as the crew was told it) and against each vine's plan, so the crew lead sees early
+ * who leaves too many or too few.
+ */
+export async function pruningCheckReport(member: Member, f: { block?: string; from?: string; to?: string }) {
+  const checks = await listPruningChecks(db(), member.organisationId, f);
+  const measurements = await listPlanMeasurements(db(), member.organisationId, checks.map((c) => c.positionId));
+  const fine = DEFAULT_SETTINGS.pruningRecord.fineWithinPercent;
+  const vines: CheckedVine[] = checks.map((c) => {
+    const budsLeft = pruningCheckBuds(c.data);
+    const target = c.data.budTarget ?? null;
+    const readings = measurements
+      .filter((m) => m.positionId === c.positionId && m.observedAt <= c.observedAt)
+      .map((m) => ({ kind: m.kind, data: m.data, observedAt: m.observedAt.toISOString() }));
+    const { plan } = planFromObservations(c.trainingSystem, readings);
+    return {
+      id: c.id,
+      blockId: c.blockId,
+      blockName: c.blockName,
+      row: c.row,
+      position: c.position,
+      observedAt: c.observedAt.toISOString(),
+      checkedByName: c.checkedByName,
+      prunerId: c.data.prunedBy,
+      budsLeft,
+      renewalSpurs: c.data.renewalSpurs,
+      budTarget: target,
+      targetDeviationPercent: target ? round1(budDeviationPercent(budsLeft, target)) : null,
+      planBuds: plan ? plan.totalBuds : null,
+      planRenewalSpurs: plan ? plan.renewalSpurs : null,
+      planDeviationBuds: plan ? budsLeft - plan.totalBuds : null,
+    };
+  });
+  const names = new Map(checks.map((c) => [c.data.prunedBy, c.prunerName]));
+  const pruners: PrunerDeviation[] = [...new Set(vines.map((v) => v.prunerId))].map((prunerId) => {
+    const mine = vines.filter((v) => v.prunerId === prunerId);
+    const targeted = mine.filter((v) => v.targetDeviationPercent !== null).map((v) => v.targetDeviationPercent!);
+    const planned = mine.filter((v) => v.planBuds !== null);
+    return {
+      prunerId,
+      prunerName: names.get(prunerId) ?? null,
+      vines: mine.length,
+      budsLeftMean: round1(mean(mine.map((v) => v.budsLeft)))!,
+      targetDeviationMeanPercent: round1(mean(targeted)),
+      offTargetShare: targeted.length ? round1(targeted.filter((d) => Math.abs(d) > fine).length / targeted.length) : null,
+      renewalSpursMean: round1(mean(mine.map((v) => v.renewalSpurs)))!,
+      planChecks: planned.length,
+      planDeviationMeanBuds: round1(mean(planned.map((v) => v.planDeviationBuds!))),
+      planSpurDeviationMean: round1(mean(planned.map((v) => v.renewalSpurs - v.planRenewalSpurs!))),
+    };
+  });
+  pruners.sort((a, b) => Math.abs(b.targetDeviationMeanPercent ?? 0) - Math.abs(a.targetDeviationMeanPercent ?? 0) || (a.prunerName ?? '').localeCompare(b.prunerName ?? ''));
+  return { finePercent: fine, pruners, checks: vines };
+}
