@@ -1,7 +1,7 @@
 'use client';
 
 import { useQuery } from '@tanstack/react-query';
-import { useTranslations } from 'next-intl';
+import { useFormatter, useTranslations } from 'next-intl';
 import { useCallback, useEffect, useMemo, useState } from 'react';
 import { ObservationForm, type SavedObservation } from '@/components/field/observation-form';
 import { ReiWarning } from '@/components/field/rei-warning';
@@ -247,6 +247,7 @@ export function VineStepper({ blockId, owner }: { blockId: string; owner: string
 
 function VineHistory({ items }: { items?: { id: string; kind: ObservationKind; severity: number; observedAt: string; note: string }[] }) {
   const t = useTranslations();
+  const format = useFormatter();
   return (
     <section>
       <h2 className="mb-1 text-lg font-bold">{t('field.history')}</h2>
@@ -256,7 +257,7 @@ function VineHistory({ items }: { items?: { id: string; kind: ObservationKind; s
         <ul className="flex flex-col gap-1">
           {items.map((o) => (
             <li key={o.id} className={cn('rounded-lg border-l-8 bg-panel p-2', SEVERITY_STYLE[o.severity])}>
-              <span className="font-bold">{t(`kinds.${o.kind}`)}</span> · {new Date(o.observedAt).toLocaleDateString()} · {t(`field.severity.${o.severity}`)}
+              <span className="font-bold">{t(`kinds.${o.kind}`)}</span> · {format.dateTime(new Date(o.observedAt), { dateStyle: 'medium' })} · {t(`field.severity.${o.severity}`)}
               {o.note && <p className="text-sm">{o.note}</p>}
             </li>
           ))}

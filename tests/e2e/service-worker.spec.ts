@@ -27,3 +27,28 @@ test('when a new service worker is waiting, the page offers to reload instead of
     writeFileSync(workerFile, original);
   }
 });
+
+test('Chromium finds the app installable: manifest, icons and a controlling service worker', async ({ page }) => {
+  await signInAs(page, 'scout@example.com');
+  await page.goto('/field');
+  await waitForServiceWorker(page);
+  const cdp = await page.context().newCDPSession(page);
+  const { installabilityErrors } = await cdp.send('Page.getInstallabilityErrors');
+  expect(installabilityErrors).toEqual([]);
+  const manifest = await (await page.request.get('/manifest.webmanifest')).json();
+  expect(manifest).toMatchObject({ name: 'Vineward', display: 'standalone', start_url: '/field', theme_color: '#244a2a' });
+  for (const icon of manifest.icons as { src: string; sizes: string }[]) {
+    const res = await page.request.get(icon.src);
+    expect(res.status(), icon.src).toBe(200);
+  }
+});
+
+test('a page never opened before shows the offline page instead of a browser error', async ({ page, context }) => {
+  await signInAs(page, 'scout@example.com');
+  await page.goto('/field');
+  await waitForServiceWorker(page);
+  await context.setOffline(true);
+  await page.goto('/field/blocks/00000000-0000-4000-8000-000000000000');
+  await expect(page.getByRole('heading', { name: /No signal, and this page was not opened before/ })).toBeVisible();
+  await context.setOffline(false);
+});
