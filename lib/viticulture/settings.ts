@@ -85,6 +85,22 @@ export interface ViticultureSettings {
     readonly watchWithinPercent: number;
     readonly actWithinPercent: number;
   };
+  readonly crop: {
+    /** Clusters on a shoot, for a crop estimate made before clusters are counted. */
+    readonly clustersPerShoot: number;
+    /** Cluster weight at harvest in grams, until the block's own weights are known. */
+    readonly clusterWeightG: number;
+    /** A replant is counted as bearing from this many seasons after its planting year. */
+    readonly bearingAfterSeasons: number;
+  };
+  readonly labour: {
+    /** Hand-pruning minutes per vine on a spur-pruned block. */
+    readonly spurMinutesPerVine: number;
+    /** On a cane-pruned block: the slower, costlier kind (canes pulled out of the wires and tied down). */
+    readonly caneMinutesPerVine: number;
+    /** Cost of one hour of pruning, in whatever currency the estate uses. */
+    readonly hourlyCost: number;
+  };
 }
 
 export type SettingsOverride = {
@@ -175,6 +191,24 @@ export const DEFAULT_SETTINGS: ViticultureSettings = deepFreeze<ViticultureSetti
     watchWithinPercent: 25,
     actWithinPercent: 50,
   },
+  crop: {
+    // From memory: fruitful vinifera shoots carry one to two clusters.
+    clustersPerShoot: 1.5,
+    // From memory: wine-grape clusters run from about 50 g to over 250 g by variety and season, so
+    // every block should enter its own; 100 g is a middling wine-grape cluster.
+    clusterWeightG: 100,
+    // Common practice, no source: a replant carries its first real crop in its third leaf.
+    bearingAfterSeasons: 2,
+  },
+  labour: {
+    // Common practice, no source. Martinson & Vanden Heuvel (Cornell, "Training systems and Labor"):
+    // each minute per vine is 13.5 hours per acre at 807 vines/acre.
+    spurMinutesPerVine: 1,
+    // From memory: cane pruning takes about 1.5 to 2 times the hours of spur pruning; 1.75 is the middle.
+    caneMinutesPerVine: 1.75,
+    // No source: a placeholder, since every crew's rate differs; set your own.
+    hourlyCost: 25,
+  },
 });
 
 /**
@@ -235,6 +269,8 @@ function validateSettings(s: ViticultureSettings): void {
   ascending('ravaz', ['underBelow', 'overAbove'], s.ravaz);
   ascending('trunkInjury', ['actAbovePercent', 'urgentAbovePercent'], s.trunkInjury);
   ascending('pruningRecord', ['fineWithinPercent', 'watchWithinPercent', 'actWithinPercent'], s.pruningRecord);
+  ascending('labour', ['spurMinutesPerVine', 'caneMinutesPerVine'], s.labour);
+  if (!Number.isInteger(s.crop.bearingAfterSeasons)) throw new RangeError('settings.crop.bearingAfterSeasons must be a whole number');
   for (const key of ['canesPerVine', 'maxCanesPerVine', 'spursPerVine', 'budsPerSpur', 'maxBudsPerSpur', 'budsPerRenewalSpur'] as const) {
     if (!Number.isInteger(s.plan[key])) throw new RangeError(`settings.plan.${key} must be a whole number`);
   }

@@ -9,6 +9,18 @@ describe('settings', () => {
     expect(DEFAULT_SETTINGS.plan.budsPerRenewalSpur).toBe(2); // OSU B919; Yuma Sun 2022
   });
 
+  it('make cane pruning the slower kind of pruning, between 1.5 and 2 times spur pruning', () => {
+    const { spurMinutesPerVine, caneMinutesPerVine } = DEFAULT_SETTINGS.labour;
+    expect(caneMinutesPerVine / spurMinutesPerVine).toBeGreaterThanOrEqual(1.5);
+    expect(caneMinutesPerVine / spurMinutesPerVine).toBeLessThanOrEqual(2);
+    // Martinson & Vanden Heuvel (Cornell): one minute per vine is 13.5 h/acre at 807 vines/acre.
+    expect((807 * spurMinutesPerVine) / 60).toBeCloseTo(13.45, 2);
+  });
+
+  it('give a crop estimate middling wine-grape defaults and count replants as bearing from their third leaf', () => {
+    expect(DEFAULT_SETTINGS.crop).toEqual({ clustersPerShoot: 1.5, clusterWeightG: 100, bearingAfterSeasons: 2 });
+  });
+
   it('cannot be changed in place', () => {
     expect(Object.isFrozen(DEFAULT_SETTINGS)).toBe(true);
     expect(Object.isFrozen(DEFAULT_SETTINGS.budsPerCane.normal)).toBe(true);
@@ -60,6 +72,10 @@ describe('settings', () => {
     [{ plan: { canesPerVine: 1.5 } }, /must be a whole number/],
     [{ plan: { canesPerVine: 0 } }, /at least 1/],
     [{ pruning: { formula: { firstUnitBuds: 20, perAdditionalUnitBuds: 20, unit: 'oz' } } }, /formula.unit/],
+    [{ labour: { caneMinutesPerVine: 0.5 } }, /spurMinutesPerVine <= caneMinutesPerVine/],
+    [{ labour: { hourlyCost: -1 } }, /settings.labour.hourlyCost/],
+    [{ crop: { bearingAfterSeasons: 2.5 } }, /bearingAfterSeasons must be a whole number/],
+    [{ crop: { clusterWeightG: Number.POSITIVE_INFINITY } }, /settings.crop.clusterWeightG/],
   ])('reject an override that makes no sense: %o', (override, message) => {
     expect(() => mergeSettings(override as never)).toThrow(message);
     expect(() => mergeSettings(override as never)).toThrow(RangeError);
