@@ -126,7 +126,8 @@ export interface LayoutProblem {
 
 export type LayoutCsvResult =
   | { ok: true; rows: LayoutCsvRow[] }
-  | { ok: false; tooLarge: boolean; problems: LayoutProblem[] };
+  /** At most 50 problems are listed; `total` counts them all. */
+  | { ok: false; tooLarge: boolean; problems: LayoutProblem[]; total: number };
 
 const MAX_PROBLEMS = 50;
 
@@ -137,7 +138,7 @@ function show(value: string) {
 /** Parses and checks a layout CSV against the block's first row. Nothing here touches the database. */
 export function parseLayoutCsv(text: string, firstRow: number): LayoutCsvResult {
   const problems: LayoutProblem[] = [];
-  const fail = (tooLarge = false): LayoutCsvResult => ({ ok: false, tooLarge, problems: problems.slice(0, MAX_PROBLEMS) });
+  const fail = (tooLarge = false): LayoutCsvResult => ({ ok: false, tooLarge, problems: problems.slice(0, MAX_PROBLEMS), total: problems.length });
   const clean = text.replace(/^\uFEFF/, '');
   if (!clean.trim()) {
     problems.push({ line: null, message: 'The file is empty. A layout file starts with the header row,vines,statuses and has one line per row.' });

@@ -1,3 +1,4 @@
+import { readFileSync } from 'node:fs';
 import path from 'node:path';
 import { expect, test, type Page } from '@playwright/test';
 import { closeTestDb, makeMember, makeTeam, PASSWORD, testDb } from '../helpers/fixtures';
@@ -15,21 +16,37 @@ async function signIn(page: Page, email: string, password = PASSWORD) {
   await expect(page).toHaveURL(/\/(desk|field)$/);
 }
 
-async function createBlockThroughForm(page: Page, o: { name: string; rowSpacing: string; vineSpacing: string }) {
+interface BlockFields {
+  name: string;
+  rowSpacing: string;
+  vineSpacing: string;
+  variety?: string;
+  clone?: string;
+  rootstock?: string;
+  plantingYear?: string;
+  training?: 'Cane' | 'Spur';
+  rows?: string;
+  vines?: string;
+  perPanel?: string;
+  origin?: string;
+}
+
+async function createBlockThroughForm(page: Page, o: BlockFields) {
   await page.goto('/blocks');
   await page.getByRole('link', { name: 'New block' }).click();
   await expect(page.getByRole('button', { name: 'Create block' })).toBeEnabled();
   await page.getByLabel('Name', { exact: true }).fill(o.name);
-  await page.getByLabel('Variety').fill('Tempranillo');
-  await page.getByLabel('Clone (optional)').fill('TE-4');
-  await page.getByLabel('Rootstock (optional)').fill('110R');
-  await page.getByLabel('Planting year (optional)').fill('2018');
-  await page.getByText('Spur', { exact: true }).click();
+  await page.getByLabel('Variety').fill(o.variety ?? 'Tempranillo');
+  await page.getByLabel('Clone (optional)').fill(o.clone ?? 'TE-4');
+  await page.getByLabel('Rootstock (optional)').fill(o.rootstock ?? '110R');
+  await page.getByLabel('Planting year (optional)').fill(o.plantingYear ?? '2018');
+  await page.getByText(o.training ?? 'Spur', { exact: true }).click();
   await page.getByLabel('Row spacing').fill(o.rowSpacing);
   await page.getByLabel('Vine spacing in the row').fill(o.vineSpacing);
-  await page.getByLabel('Number of rows').fill('3');
-  await page.getByLabel('Vines per row').fill('10');
-  await page.getByLabel('Vines per panel (optional)').fill('5');
+  await page.getByLabel('Number of rows').fill(o.rows ?? '3');
+  await page.getByLabel('Vines per row').fill(o.vines ?? '10');
+  await page.getByLabel('Vines per panel (optional)').fill(o.perPanel ?? '5');
+  if (o.origin) await page.getByLabel('Where vine 1 stands (optional)').fill(o.origin);
   await page.getByRole('button', { name: 'Create block' }).click();
   await expect(page.getByRole('heading', { level: 1, name: o.name })).toBeVisible();
 }
@@ -76,6 +93,31 @@ test('a manager creates a block through the form, imports a layout CSV and sees 
   const row = page.getByRole('row').filter({ hasText: 'Windmill Rows' });
   await expect(row).toContainText('Tempranillo');
   await expect(row).toContainText('40');
+});
+
+test('a manager sets up a demo block from scratch with the form and its layout file, and sees the demo counts', async ({ page }) => {
+  const team = await makeTeam();
+  await signIn(page, team.manager.email);
+  await createBlockThroughForm(page, {
+    name: 'North Bench', variety: 'Chardonnay', clone: 'CH-95', rootstock: '5C', plantingYear: '2019', training: 'Cane',
+    rowSpacing: '2.4', vineSpacing: '1.4', rows: '12', vines: '45', perPanel: '5', origin: 'Vine 1 at the shed end',
+  });
+  await page.getByRole('link', { name: 'Import layout CSV' }).click();
+  await expect(page.getByLabel('Layout CSV file')).toBeEnabled();
+  await page.getByLabel('Layout CSV file').setInputFiles(path.join(__dirname, '../fixtures/layout/demo/north-bench.csv'));
+  await expect(page.getByTestId('layout-summary')).toContainText('Rows resized: row 1 45 → 30, row 2 45 → 34, row 3 45 → 38, row 4 45 → 42');
+  await page.getByRole('button', { name: 'Apply this layout' }).click();
+  await page.getByRole('link', { name: 'Back to North Bench' }).click();
+
+  // The file is the seeded demo block's own export, so these are the demo estate's counts.
+  const letters = readFileSync(path.join(__dirname, '../fixtures/layout/demo/north-bench.csv'), 'utf8').split('\n').slice(1).map((l) => l.split(',')[2] ?? '').join('');
+  const count = (letter: string) => String([...letters].filter((l) => l === letter).length);
+  await expect(page.getByTestId('count-slots')).toHaveText(String(8 * 45 + 30 + 34 + 38 + 42));
+  await expect(page.getByTestId('count-planted')).toHaveText(count('P'));
+  await expect(page.getByTestId('count-missing')).toHaveText(count('M'));
+  await expect(page.getByTestId('count-dead')).toHaveText(count('D'));
+  await expect(page.getByTestId('count-replant')).toHaveText(count('R'));
+  await expect(page.getByText('2.4 m between rows, 1.4 m between vines')).toBeVisible();
 });
 
 test('a bad layout file shows what is wrong line by line and changes nothing', async ({ page }) => {

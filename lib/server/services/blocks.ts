@@ -366,7 +366,7 @@ export async function importLayout(member: Member, blockId: string, csv: string,
       for (const p of parsed.problems) (fields[p.line === null ? 'file' : `line ${p.line}`] ??= []).push(p.message);
       const first = parsed.problems[0]!.message;
       if (parsed.tooLarge) throw new AppError('payload-too-large', first, fields);
-      const more = parsed.problems.length > 1 ? ` (and ${parsed.problems.length - 1} more ${parsed.problems.length === 2 ? 'problem' : 'problems'})` : '';
+      const more = parsed.total > 1 ? ` (and ${parsed.total - 1} more ${parsed.total === 2 ? 'problem' : 'problems'})` : '';
       throw new AppError('invalid-input', `${first.replace(/\.$/, '')}${more}. Nothing was changed.`, fields);
     }
     const rows: LayoutRowSpec[] = parsed.rows.map((r) => ({ row: r.row, vines: r.vines, statuses: r.statuses }));
