@@ -121,12 +121,15 @@ export async function syncObservations(member: Member, records: unknown[]): Prom
   const results: SyncResult[] = new Array(records.length);
   const valid = validateRecords(records, observationRecordSchema, payloadHash, results);
 
-  const blocks = await ownedBlockIds(db(), member.organisationId, [...new Set(valid.map((v) => v.record.blockId))]);
+  // One query resolves every address; only addresses that fail need the second look that tells
+  // "not your block" from "no such vine in it".
   const slots = await resolveSlots(
     db(),
     member.organisationId,
-    valid.filter((v) => blocks.has(v.record.blockId)).map((v) => ({ blockId: v.record.blockId, row: v.record.row, position: v.record.position })),
+    valid.map((v) => ({ blockId: v.record.blockId, row: v.record.row, position: v.record.position })),
   );
+  const unresolved = valid.filter((v) => !slots.has(slotKey({ blockId: v.record.blockId, row: v.record.row, position: v.record.position })));
+  const blocks = await ownedBlockIds(db(), member.organisationId, [...new Set(unresolved.map((v) => v.record.blockId))]);
 
   const checked = valid.flatMap((v) => (v.record.kind === 'pruning-check' ? [String(v.record.data.prunedBy)] : []));
   const crew = await memberIdsAmong(db(), member.organisationId, checked);
@@ -135,12 +138,12 @@ export async function syncObservations(member: Member, records: unknown[]): Prom
   const pending: typeof valid = [];
   for (const v of valid) {
     const r = v.record;
-    if (!blocks.has(r.blockId)) {
+    const positionId = slots.get(slotKey({ blockId: r.blockId, row: r.row, position: r.position }));
+    if (!positionId && !blocks.has(r.blockId)) {
       // Another organisation's block reads exactly like one that does not exist.
       results[v.index] = rejected(r.id, [{ field: 'blockId', message: 'No such block in your organisation' }]);
       continue;
     }
-    const positionId = slots.get(slotKey({ blockId: r.blockId, row: r.row, position: r.position }));
     if (!positionId) {
       results[v.index] = rejected(r.id, [{ field: 'position', message: `Row ${r.row} has no vine position ${r.position} in this block` }]);
       continue;
