@@ -28,7 +28,8 @@ export async function insertObservationsOnce(db: Db, rows: ObservationInsert[]):
   return new Set(inserted.map((r: { id: string }) => r.id));
 }
 
-export function getStoredHashes(db: Db, ids: string[]) {
+export async function getStoredHashes(db: Db, ids: string[]) {
+  if (ids.length === 0) return [];
   return db('observations')
     .whereIn('id', ids)
     .select<{ id: string; organisation_id: string; payload_sha256: string }[]>('id', 'organisation_id', 'payload_sha256');
