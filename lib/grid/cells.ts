@@ -2,7 +2,7 @@
  * One grid cell per planting slot, sent as a small integer so a 150 × 150 block travels as 22,500
  * numbers: code = slot × 5 + level. The SQL in lib/server/queries/grid.ts builds the same codes.
  */
-import type { Severity } from '@/lib/viticulture';
+import { OBSERVATION_KINDS, type ObservationKind, type Severity } from '@/lib/viticulture';
 
 /** What stands in the slot. `none`: the row is shorter than the block's longest row. */
 export const SLOTS = ['planted', 'replant', 'missing', 'dead', 'none'] as const;
@@ -28,3 +28,44 @@ export function cellLevel(code: number): Level {
 
 /** A slot with no vine standing in it: its findings matter less than the hole itself. */
 export const isEmptySlot = (slot: Slot) => slot === 'missing' || slot === 'dead';
+
+/** The kinds in the order the grid statement numbers them (bit i of a vine's kind mask is kind i). */
+export const GRID_KINDS: readonly string[] = OBSERVATION_KINDS;
+
+/**
+ * One row as the grid statement returns it: row number, vine count, slots not planted (position × 4 +
+ * slot index), the positions present when the row has gaps, vines with matching findings (position ×
+ * 4 + worst severity), and the last position present.
+ */
+export type RawGridRow = [number, number, number[] | null, number[] | null, number[] | null, number];
+
+const PLANTED = encodeCell('planted', null);
+const NO_SLOT = encodeCell('none', null);
+
+/** A row's cell codes, vine 1 first. */
+export function rowCodes([, vineCount, slots, present, worst, last]: RawGridRow): number[] {
+  const codes = new Array<number>(Math.max(vineCount, last)).fill(NO_SLOT);
+  if (present) for (const p of present) codes[p - 1] = PLANTED;
+  else codes.fill(PLANTED, 0, last);
+  if (slots) for (const packed of slots) codes[(packed >> 2) - 1] = (packed & 3) * LEVELS_PER_SLOT;
+  for (const packed of worst ?? []) {
+    const p = packed >> 2;
+    if (p <= codes.length) codes[p - 1]! += (packed & 3) + 1;
+  }
+  return codes;
+}
+
+/** Counts by kind and severity, and vines affected per kind from the vines' kind masks. */
+export function kindCounts(kinds: readonly string[], counts: [string, number, number][], masks: [number, number][]) {
+  const byKind = new Map<string, [number, number, number, number]>();
+  for (const [kind, severity, n] of counts) {
+    const row = byKind.get(kind) ?? [0, 0, 0, 0];
+    row[severity] = (row[severity] ?? 0) + n;
+    byKind.set(kind, row);
+  }
+  return [...byKind.keys()].sort().map((kind) => {
+    const bit = 1 << (kinds.indexOf(kind) + 1);
+    const vinesAffected = kinds.includes(kind) ? masks.reduce((sum, [mask, vines]) => (mask & bit ? sum + vines : sum), 0) : 0;
+    return { kind: kind as ObservationKind, bySeverity: byKind.get(kind)!, vinesAffected };
+  });
+}

@@ -21,11 +21,11 @@ async function as(email: string) {
 const budbreak = (pushed: number, retained = 28) => ({ kind: 'weak-budbreak', data: { budsRetained: retained, budsPushed: pushed } });
 const trunk = (severity: string, girdlingPercent: number) => ({ kind: 'trunk-injury', data: { cause: 'mechanical', severity, girdlingPercent } });
 
-async function record(client: Client, name: string, row: number, position: number, what: { kind: string; data: object }, day: string) {
+async function record(client: Client, name: string, row: number, position: number, what: { kind: string; data: object }, when: string) {
   const id = randomUUID();
   ids[name] = id;
   const res = await client.json('/api/sync', 'POST', {
-    observations: [{ id, blockId: block.id, row, position, ...what, note: '', observedAt: `${day}T09:00:00Z` }],
+    observations: [{ id, blockId: block.id, row, position, ...what, note: '', observedAt: when.length > 10 ? when : `${when}T09:00:00Z` }],
   });
   expect((await res.json()).results[0].status, name).toBe('created');
 }
@@ -57,6 +57,11 @@ beforeAll(async () => {
   await record(pruner, 'r3v1', 3, 1, trunk('light', 5), '2026-02-11'); // 1
   await record(scout, 'r3v1-deleted', 3, 1, budbreak(5), '2026-04-23'); // 3, deleted below
   await record(scout, 'r3v4', 3, 4, budbreak(27), '2026-04-20'); // 0
+  // Vines 2 and 3 of row 1 flagged for trunk renewal, as one run.
+  const flag = await pruner.json('/api/sync/flags', 'POST', {
+    flags: [{ id: randomUUID(), blockId: block.id, row: 1, position: 2, toPosition: 3, reason: 'trunk-renewal', note: 'Mower scar', flaggedAt: '2026-02-12T09:00:00Z' }],
+  });
+  expect((await flag.json()).results[0].status).toBe('created');
   await db('observations').where({ id: ids.r1v3 }).update({ status: 'closed', closed_at: db.fn.now() });
   await db('observations').where({ id: ids['r3v1-deleted'] }).update({ deleted_at: db.fn.now() });
 });
@@ -114,10 +119,13 @@ describe('GET /api/grid/:blockId', () => {
     expect(days.summary.vinesScouted).toBe(2);
     expect((await grid('?kind=note')).summary.vinesScouted).toBe(9);
     expect((await grid('?kind=weak-budbreak,missing-vine')).cells[0]).toEqual([1, 2, 0, 0, 13, 9]);
-    // No vine is flagged until flags exist: "flagged only" shows none.
+    // Only the flagged run (row 1, vines 2–3) keeps its colour; vine 3's one finding is closed.
     const flagged = await grid('?flagged=1');
-    expect(flagged.cells).toEqual([[0, 0, 0, 0, 10, 5], [15, 0, 0, 0, 0, 0], [0, 0, 0, 0]]);
-    expect(flagged.summary.kinds).toEqual([]);
+    expect(flagged.cells).toEqual([[0, 4, 0, 0, 10, 5], [15, 0, 0, 0, 0, 0], [0, 0, 0, 0]]);
+    expect(flagged.summary.kinds.map((k: { kind: string; bySeverity: number[] }) => [k.kind, k.bySeverity])).toEqual([
+      ['trunk-injury', [0, 0, 0, 1]],
+      ['weak-budbreak', [0, 1, 0, 0]],
+    ]);
   });
 
   it('answers 422 naming the one filter it cannot read', async () => {
@@ -172,7 +180,7 @@ describe('the vine panel', () => {
     expect(panel.observations[1]).toMatchObject({ kind: 'trunk-injury', severity: 3, status: 'open', summary: 'mechanical, severe; 60% girdled' });
     expect(panel.observations[1].recordedByName).toBe(team.pruner.name);
     expect(panel.walkUrl).toBe(`/field/blocks/${block.id}/walk?row=1&position=2`);
-    expect(panel.flags).toEqual([]);
+    expect(panel.flags).toEqual([expect.objectContaining({ text: 'Trunk renewal (vines 2–3): Mower scar', by: team.pruner.name })]);
     expect(panel.comments).toEqual([]);
 
     const byId = await (await manager.fetch(`/api/vines/${panel.vine.positionId}`)).json();
@@ -187,13 +195,13 @@ describe('the vine panel', () => {
     expect(deleted.observations.map((o: { id: string }) => o.id)).toEqual([ids.r3v1]);
   });
 
-  it('plans the vine with planVine from the canes measured on the latest day and the latest pruning weight', async () => {
+  it('plans the vine with planVine from the canes measured on the latest day, in the order measured, and the latest pruning weight', async () => {
     const pruner = await as(team.pruner.email);
     const cane = (diameterMm: number, longestInternodeMm: number) => ({ kind: 'cane-diameter', data: { diameterMm, longestInternodeMm, exposure: 'sun' } });
     await record(pruner, 'old-cane', 2, 4, cane(5.5, 70), '2026-01-10');
-    await record(pruner, 'cane-a', 2, 4, cane(9.5, 70), '2026-01-20');
-    await record(pruner, 'cane-b', 2, 4, cane(11.5, 80), '2026-01-20');
-    await record(pruner, 'cane-c', 2, 4, cane(7, 120), '2026-01-20');
+    await record(pruner, 'cane-a', 2, 4, cane(9.5, 70), '2026-01-20T09:00:00Z');
+    await record(pruner, 'cane-b', 2, 4, cane(11.5, 80), '2026-01-20T09:01:00Z');
+    await record(pruner, 'cane-c', 2, 4, cane(7, 120), '2026-01-20T09:02:00Z');
     await record(pruner, 'weight', 2, 4, { kind: 'pruning-record', data: { canesKept: 2, budsPerCane: 14, renewalSpurs: 2, pruningWeightKg: 0.9 } }, '2026-01-21');
     const panel = await (await manager.fetch(`/api/vines?block=${block.id}&row=2&position=4`)).json();
     const canes = [

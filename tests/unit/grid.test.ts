@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { cellLevel, cellSlot, encodeCell, SLOTS, type Level } from '@/lib/grid/cells';
+import { cellLevel, cellSlot, encodeCell, GRID_KINDS, kindCounts, rowCodes, SLOTS, type Level } from '@/lib/grid/cells';
 import { describeCell, describeRow, nextProblem } from '@/lib/grid/describe';
 import { gridFiltersToSearch, parseGridFilters, readGridFilters } from '@/lib/grid/filters';
 import { decodeCursor, encodeCursor, parsePhotoFilters, readPhotoFilters } from '@/lib/grid/photo-filters';
@@ -24,6 +24,34 @@ describe('grid cell codes', () => {
     expect(encodeCell('missing', 2)).toBe(13);
     expect(encodeCell('dead', null)).toBe(15);
     expect(encodeCell('none', null)).toBe(20);
+  });
+});
+
+describe('rows from the grid statement', () => {
+  const pack = (position: number, value: number) => position * 4 + value;
+
+  it('lay out a row: planted by default, other slots by status, worst findings on top', () => {
+    // Slot 2 replant, 4 missing, 5 dead; vine 1 act now, vine 2 watch, vine 4 act this season.
+    const codes = rowCodes([7, 6, [pack(2, 1), pack(4, 2), pack(5, 3)], null, [pack(1, 3), pack(2, 1), pack(4, 2)], 6]);
+    expect(codes).toEqual([encodeCell('planted', 3), encodeCell('replant', 1), P(null), encodeCell('missing', 2), encodeCell('dead', null), P(null)]);
+  });
+
+  it('mark positions a row lacks as no slot: past its last slot, or in the gaps it lists', () => {
+    expect(rowCodes([1, 4, null, null, null, 2])).toEqual([P(null), P(null), encodeCell('none', null), encodeCell('none', null)]);
+    expect(rowCodes([1, 4, null, [1, 4], [pack(4, 0)], 4])).toEqual([P(null), encodeCell('none', null), encodeCell('none', null), P(0)]);
+    expect(rowCodes([1, 3, null, null, null, 0])).toEqual(Array(3).fill(encodeCell('none', null)));
+  });
+
+  it('count findings by kind and severity, and vines affected per kind from their kind bits', () => {
+    const bit = (kind: string) => 1 << (GRID_KINDS.indexOf(kind) + 1);
+    const counts: [string, number, number][] = [['weak-budbreak', 0, 4], ['weak-budbreak', 2, 3], ['trunk-injury', 3, 2], ['note', 0, 1]];
+    // 2 vines with budbreak only, 1 with both, 1 with trunk injury only.
+    const masks: [number, number][] = [[bit('weak-budbreak'), 2], [bit('weak-budbreak') | bit('trunk-injury'), 1], [bit('trunk-injury'), 1]];
+    expect(kindCounts(GRID_KINDS, counts, masks)).toEqual([
+      { kind: 'note', bySeverity: [1, 0, 0, 0], vinesAffected: 0 },
+      { kind: 'trunk-injury', bySeverity: [0, 0, 0, 2], vinesAffected: 2 },
+      { kind: 'weak-budbreak', bySeverity: [4, 0, 3, 0], vinesAffected: 3 },
+    ]);
   });
 });
 

@@ -1,7 +1,11 @@
 import 'server-only';
+import { GRID_KINDS, kindCounts, rowCodes, type RawGridRow } from '@/lib/grid/cells';
 import { dayAfter, type GridFilters } from '@/lib/grid/filters';
 import type { KindCounts } from '@/lib/grid/summary';
 import type { Db } from '@/lib/server/db';
+import { listComments } from '@/lib/server/queries/comments';
+import { listFlagsOnVine, openFlagPositionsSql } from '@/lib/server/queries/flags';
+import { REASON_LABELS } from '@/lib/validation/flag';
 
 export interface GridData {
   /** Row numbers in the block's display order. */
@@ -17,21 +21,20 @@ interface Fragment {
   bindings: unknown[];
 }
 
-/**
- * Positions with an open flag. Flags arrive with the flags and tasks feature; until its table exists
- * no vine is flagged, so "flagged only" rightly matches nothing. Replace the body with a subquery
- * on that table (scoped by organisation and block) and the grid and its summary follow.
- */
-function flaggedPositions(_organisationId: string, _blockId: string): Fragment {
-  return { sql: 'select null::uuid where false', bindings: [] };
+/** Positions covered by an open flag (a flag may cover a run of vines in a row). */
+function flaggedPositions(organisationId: string, blockId: string): Fragment {
+  return openFlagPositionsSql(organisationId, blockId);
 }
 
 /**
- * The block's grid and summary counts in one statement, the filters applied in SQL. Date range and
- * person scope every figure; kind, status and "flagged" choose the findings that colour a vine, so
- * "vines scouted" (the incidence denominator) is every vine with any record in the period.
+ * The block's grid and summary counts in two statements, the filters applied in SQL: one reads each
+ * vine's worst finding (and the grid's rows and slots), the other counts findings by kind and
+ * severity. Date range and person scope every figure; kind, status and "flagged" choose the findings
+ * that colour a vine, so "vines scouted" (the incidence denominator) is every vine with any record in
+ * the period. Vines are addressed by the row and position stored on each observation, so neither
+ * statement joins the block's thousands of slots.
  */
-export function gridStatement(organisationId: string, blockId: string, rowOrder: 'ascending' | 'descending', f: GridFilters): Fragment {
+export function gridStatements(organisationId: string, blockId: string, rowOrder: 'ascending' | 'descending', f: GridFilters): { cells: Fragment; counts: Fragment } {
   const scope = ['o.organisation_id = ?', 'o.block_id = ?', 'o.deleted_at is null'];
   const scopeArgs: unknown[] = [organisationId, blockId];
   if (f.from) {
@@ -62,54 +65,57 @@ export function gridStatement(organisationId: string, blockId: string, rowOrder:
     matchArgs.push(...flagged.bindings);
   }
   const order = rowOrder === 'descending' ? 'desc' : 'asc';
-  const sql = `
-    with scoped as (
-      select o.position_id, o.kind, o.severity, (${match.length ? match.join(' and ') : 'true'}) as hit
-      from observations o
-      where ${scope.join(' and ')}
-    ), seen as materialized (
-      select position_id, kind,
+  const hit = match.length ? match.join(' and ') : 'true';
+  const where = scope.join(' and ');
+  // Per vine: its worst matching severity, and a bit per kind found at "watch" or worse (bit i for
+  // the kind at place i of GRID_KINDS). Positions and values travel packed as position × 4 + value.
+  const cells = `
+    with vines as materialized (
+      select row_number, position,
         max(severity) filter (where hit) as worst,
-        count(*) filter (where hit and severity = 0)::int as s0,
-        count(*) filter (where hit and severity = 1)::int as s1,
-        count(*) filter (where hit and severity = 2)::int as s2,
-        count(*) filter (where hit and severity = 3)::int as s3
-      from scoped
-      group by position_id, kind
-    ), worst as (
-      select position_id, max(worst) as worst from seen group by position_id
-    ), grid as (
-      select r.row_number,
-        json_agg(
-          coalesce(case vp.status when 'planted' then 0 when 'replant' then 1 when 'missing' then 2 when 'dead' then 3 end, 4) * 5
-          + coalesce(w.worst + 1, 0)
-          order by g.position) as codes
-      from block_rows r
-      cross join lateral generate_series(1, r.vine_count) as g(position)
-      left join vine_positions vp on vp.block_id = r.block_id and vp.row_number = r.row_number and vp.position = g.position
-      left join worst w on w.position_id = vp.id
-      where r.block_id = ?
-      group by r.row_number
+        bit_or(1 << coalesce(array_position(?::text[], kind), 0)) filter (where hit and severity >= 1) as kinds
+      from (select o.row_number, o.position, o.kind, o.severity, (${hit}) as hit from observations o where ${where}) s
+      group by row_number, position
     )
     select
-      (select coalesce(json_agg(json_build_array(row_number, codes) order by row_number ${order}), '[]') from grid) as cells,
-      (select coalesce(json_agg(json_build_object('kind', kind, 'bySeverity', json_build_array(s0, s1, s2, s3), 'vinesAffected', affected) order by kind), '[]')
-        from (select kind, sum(s0)::int as s0, sum(s1)::int as s1, sum(s2)::int as s2, sum(s3)::int as s3,
-                count(*) filter (where worst >= 1)::int as affected
-              from seen where worst is not null group by kind) k) as kinds,
-      (select count(distinct position_id)::int from seen) as scouted`;
-  return { sql, bindings: [...matchArgs, ...scopeArgs, blockId] };
+      (select coalesce(json_agg(json_build_array(r.row_number, r.vine_count, sl.slots, sl.present, w.worst, coalesce(sl.last, 0)) order by r.row_number ${order}), '[]')
+        from block_rows r
+        left join (
+          select row_number,
+            json_agg(position * 4 + case status when 'replant' then 1 when 'missing' then 2 else 3 end order by position) filter (where status <> 'planted') as slots,
+            -- Slots normally run 1…last; only a row with gaps lists the ones it has.
+            case when count(*) = max(position) then null else json_agg(position order by position) end as present,
+            max(position) as last
+          from vine_positions where block_id = ? group by row_number
+        ) sl on sl.row_number = r.row_number
+        left join (
+          select row_number, json_agg(position * 4 + worst order by position) as worst from vines where worst is not null group by row_number
+        ) w on w.row_number = r.row_number
+        where r.block_id = ?) as rows,
+      (select coalesce(json_agg(json_build_array(kinds, n)), '[]') from (select kinds, count(*)::int as n from vines where kinds is not null group by kinds) m) as masks,
+      (select count(*)::int from vines) as scouted`;
+  const counts = `
+    select coalesce(json_agg(json_build_array(kind, severity, n)), '[]') as counts
+    from (select o.kind, o.severity, count(*)::int as n from observations o where ${where} and ${hit} group by o.kind, o.severity) c`;
+  return {
+    cells: { sql: cells, bindings: [GRID_KINDS, ...matchArgs, ...scopeArgs, blockId, blockId] },
+    counts: { sql: counts, bindings: [...scopeArgs, ...matchArgs] },
+  };
 }
 
+/** Runs the grid's two statements side by side (on two connections when there are two). */
 export async function loadGrid(db: Db, organisationId: string, blockId: string, rowOrder: 'ascending' | 'descending', f: GridFilters): Promise<GridData> {
-  const { sql, bindings } = gridStatement(organisationId, blockId, rowOrder, f);
-  const result = await db.raw(sql, bindings as never[]);
-  const row = result.rows[0] as { cells: [number, number[]][]; kinds: KindCounts[]; scouted: number };
+  const statements = gridStatements(organisationId, blockId, rowOrder, f);
+  const [cells, counts] = await Promise.all([
+    db.raw(statements.cells.sql, statements.cells.bindings as never[]),
+    db.raw(statements.counts.sql, statements.counts.bindings as never[]),
+  ]);
+  const grid = cells.rows[0] as { rows: RawGridRow[]; masks: [number, number][]; scouted: number };
   return {
-    rows: row.cells.map(([n]) => n),
-    cells: row.cells.map(([, codes]) => codes),
-    kinds: row.kinds,
-    vinesScouted: row.scouted,
+    rows: grid.rows.map(([n]) => n),
+    cells: grid.rows.map(rowCodes),
+    kinds: kindCounts(GRID_KINDS, (counts.rows[0] as { counts: [string, number, number][] }).counts, grid.masks),
+    vinesScouted: grid.scouted,
   };
 }
 
@@ -258,14 +264,21 @@ export interface VineNote {
   at: Date;
 }
 
-/**
- * Flags and comments on a vine. They arrive with the flags, tasks and comments feature; until its
- * tables exist a vine has none, and the panel shows those sections only when there is something in them.
- */
-export async function listVineFlags(_db: Db, _organisationId: string, _positionId: string): Promise<VineNote[]> {
-  return [];
+/** Open flags covering a vine, as the panel lists them: reason, note, who and when. */
+export async function listVineFlags(db: Db, organisationId: string, positionId: string): Promise<VineNote[]> {
+  const flags = await listFlagsOnVine(db, organisationId, positionId);
+  return flags
+    .filter((f) => f.status === 'open')
+    .map((f) => ({
+      id: f.id,
+      text: `${REASON_LABELS[f.reason]}${f.toPosition > f.position ? ` (vines ${f.position}–${f.toPosition})` : ''}${f.note ? `: ${f.note}` : ''}`,
+      by: f.by,
+      at: f.at,
+    }));
 }
 
-export async function listVineComments(_db: Db, _organisationId: string, _positionId: string): Promise<VineNote[]> {
-  return [];
+/** Comments on the vine itself (its findings' threads open from each finding). */
+export async function listVineComments(db: Db, organisationId: string, positionId: string): Promise<VineNote[]> {
+  const comments = await listComments(db, organisationId, 'vine', positionId);
+  return comments.map((c) => ({ id: c.id, text: c.body, by: c.authorName, at: c.createdAt }));
 }
