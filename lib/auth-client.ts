@@ -47,3 +47,13 @@ export function signInWithPassword(email: string, password: string, callbackUrl 
 export function requestSignInLink(email: string, callbackUrl = '/') {
   return post('/api/auth/signin/email', { email, callbackUrl });
 }
+
+/** Ends the session (next-auth clears its cookie) and goes back to the sign-in page. */
+export async function signOut() {
+  await fetch('/api/auth/signout', {
+    method: 'POST',
+    headers: { 'content-type': 'application/x-www-form-urlencoded' },
+    body: new URLSearchParams({ csrfToken: await csrfToken(), json: 'true' }),
+  });
+  window.location.assign('/signin');
+}

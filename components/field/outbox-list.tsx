@@ -2,7 +2,7 @@
 
 import { useTranslations } from 'next-intl';
 import { useEffect, useState } from 'react';
-import { ObservationForm } from '@/components/field/observation-form';
+import dynamic from 'next/dynamic';
 import { Button } from '@/components/ui/button';
 import { Notice } from '@/components/ui/field';
 import {
@@ -18,6 +18,8 @@ import {
 } from '@/lib/offline/outbox';
 import { syncNow } from '@/lib/offline/sync';
 import type { ObservationKind } from '@/lib/viticulture';
+
+const ObservationForm = dynamic(() => import('@/components/field/observation-form').then((m) => m.ObservationForm));
 
 /** Everything still on this phone, and a way to fix or discard what the server refused. */
 export function OutboxList({ owner, imperial }: { owner: string; imperial: boolean }) {

@@ -3,7 +3,8 @@
 import { useQuery } from '@tanstack/react-query';
 import { useFormatter, useTranslations } from 'next-intl';
 import { useCallback, useEffect, useMemo, useState } from 'react';
-import { ObservationForm, type SavedObservation } from '@/components/field/observation-form';
+import dynamic from 'next/dynamic';
+import type { SavedObservation } from '@/components/field/observation-form';
 import { ReiWarning } from '@/components/field/rei-warning';
 import { Notice } from '@/components/ui/field';
 import { toPostAddress } from '@/lib/address';
@@ -12,6 +13,10 @@ import { enqueueObservation, enqueuePhoto, listObservations, onOutboxChange } fr
 import { requestBackgroundSync, syncNow } from '@/lib/offline/sync';
 import { STATUS_BY_LETTER, useFieldLayout } from '@/lib/offline/use-field-layout';
 import { OBSERVATION_KINDS, type ObservationKind } from '@/lib/viticulture';
+
+// The forms (and the validation and calculation code they carry) load when a kind is tapped; the
+// service worker precaches the chunk, so this works offline too.
+const ObservationForm = dynamic(() => import('@/components/field/observation-form').then((m) => m.ObservationForm));
 
 interface Address {
   row: number;

@@ -1,13 +1,13 @@
 'use client';
 
-import { signOut } from 'next-auth/react';
+import { signOut } from '@/lib/auth-client';
 
 export function SignOutButton() {
   return (
     <button
       type="button"
       className="min-h-touch rounded-lg px-3 font-bold text-bark-soft hover:bg-rootstock-tint"
-      onClick={() => signOut({ callbackUrl: '/signin' })}
+      onClick={() => void signOut()}
     >
       Sign out
     </button>
