@@ -8,8 +8,8 @@ const RUNS = 8;
 
 /** A 4000 × 3000 (12-megapixel) JPEG with photo-like detail, lying on its side (EXIF orientation 6). */
 async function twelveMegapixel() {
-  const noise = await sharp({ create: { width: 1000, height: 750, channels: 3, background: '#6e6450', noise: { type: 'gaussian', mean: 110, sigma: 40 } } })
-    .blur(1.2)
+  const noise = await sharp({ create: { width: 2000, height: 1500, channels: 3, background: '#6e6450', noise: { type: 'gaussian', mean: 110, sigma: 40 } } })
+    .blur(0.7)
     .png()
     .toBuffer();
   return sharp(noise).resize(4000, 3000).modulate({ saturation: 0.6 }).jpeg({ quality: 88 }).withMetadata({ orientation: 6 }).toBuffer();
