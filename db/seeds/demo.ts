@@ -6,6 +6,7 @@
 import bcrypt from 'bcryptjs';
 import type { Knex } from 'knex';
 import { seedDemoLayout } from './demo-layout';
+import { seedDemoMeasurements } from './demo-measurements';
 import { seedDemoObservations, type DemoObservationOptions } from './demo-observations';
 import { seedDemoWork } from './demo-work';
 
@@ -51,4 +52,5 @@ export async function seedDemo(knex: Knex, options: DemoObservationOptions = {})
   await seedDemoLayout(knex, DEMO_ORG_ID);
   await seedDemoObservations(knex, DEMO_ORG_ID, options);
   await seedDemoWork(knex, DEMO_ORG_ID);
+  await seedDemoMeasurements(knex, DEMO_ORG_ID);
 }

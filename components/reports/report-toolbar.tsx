@@ -1,0 +1,74 @@
+'use client';
+
+import { usePathname, useRouter, useSearchParams } from 'next/navigation';
+import { Button, ButtonLink } from '@/components/ui/button';
+import { Select } from '@/components/ui/field';
+
+interface ReportToolbarProps {
+  seasons: number[];
+  season: number;
+  /** Null hides the comparison picker (the estate report); 'none' means no comparison. */
+  compare: number | 'none' | null;
+  exportHref: string;
+  links?: { href: string; label: string }[];
+}
+
+/** Season and comparison pickers, print and export: screen only, never printed. */
+export function ReportToolbar({ seasons, season, compare, exportHref, links = [] }: ReportToolbarProps) {
+  const router = useRouter();
+  const pathname = usePathname();
+  const search = useSearchParams();
+  const choices = [...new Set([...seasons, season])].sort((a, b) => b - a);
+
+  function go(key: string, value: string) {
+    const params = new URLSearchParams(search.toString());
+    params.set(key, value);
+    if (key === 'season') params.delete('compare');
+    router.push(`${pathname}?${params.toString()}`);
+  }
+
+  return (
+    <div className="flex flex-wrap items-end gap-3 print:hidden" data-testid="report-toolbar">
+      <label className="flex flex-col gap-1 font-bold">
+        Season
+        <Select value={season} onChange={(e) => go('season', e.target.value)} aria-describedby="season-hint">
+          {choices.map((s) => (
+            <option key={s} value={s}>
+              {s}
+            </option>
+          ))}
+        </Select>
+      </label>
+      {compare !== null && (
+        <label className="flex flex-col gap-1 font-bold">
+          Compare with
+          <Select value={String(compare)} onChange={(e) => go('compare', e.target.value)}>
+            <option value="none">No comparison</option>
+            {[...new Set([...choices, season - 1])]
+              .filter((s) => s !== season)
+              .sort((a, b) => b - a)
+              .map((s) => (
+                <option key={s} value={s}>
+                  {s}
+                </option>
+              ))}
+          </Select>
+        </label>
+      )}
+      <Button type="button" variant="secondary" onClick={() => window.print()}>
+        Print
+      </Button>
+      <ButtonLink href={exportHref} variant="secondary" prefetch={false}>
+        Download CSV
+      </ButtonLink>
+      {links.map((l) => (
+        <ButtonLink key={l.href} href={l.href} variant="quiet">
+          {l.label}
+        </ButtonLink>
+      ))}
+      <p id="season-hint" className="w-full text-sm text-bark-faint">
+        A season is a calendar year (UTC): the winter pruning that opens it, budbreak, harvest and the walks after.
+      </p>
+    </div>
+  );
+}

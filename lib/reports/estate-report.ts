@@ -1,0 +1,82 @@
+/** The estate's season across all blocks: each block's headline figures and the estate totals. */
+import { wilsonInterval, type ProportionInterval } from '@/lib/viticulture';
+import type { BlockReport } from './block-report';
+import { call } from './format';
+
+export interface EstateKind {
+  kind: string;
+  label: string;
+  vinesAffected: number;
+  vinesScouted: number;
+  incidence: ProportionInterval;
+  how: string;
+  byBlock: Record<string, ProportionInterval | null>;
+}
+
+export interface EstateReport {
+  season: number;
+  blocks: BlockReport[];
+  kinds: EstateKind[];
+  totals: {
+    vinesScouted: number;
+    standing: number;
+    cropKg: number | null;
+    labourHours: number | null;
+    labourCost: number | null;
+    replant: number;
+    openTasks: number;
+    doneTasks: number;
+  };
+  replantByStock: { clone: string; rootstock: string; vines: number }[];
+}
+
+const sum = (values: (number | null)[]) => (values.some((v) => v === null) ? null : values.reduce<number>((a, v) => a + v!, 0));
+
+export function buildEstateReport(season: number, blocks: BlockReport[]): EstateReport {
+  const kinds = new Map<string, { kind: string; label: string; affected: number }>();
+  for (const b of blocks) {
+    for (const k of b.incidence.kinds) {
+      const entry = kinds.get(k.kind) ?? { kind: k.kind, label: k.label, affected: 0 };
+      entry.affected += k.vinesAffected;
+      kinds.set(k.kind, entry);
+    }
+  }
+  const scouted = blocks.reduce((a, b) => a + b.scouting.vinesScouted, 0);
+  const stock = new Map<string, { clone: string; rootstock: string; vines: number }>();
+  for (const b of blocks) {
+    for (const s of b.replant.byStock) {
+      const key = `${s.clone}\u0000${s.rootstock}`;
+      const entry = stock.get(key) ?? { clone: s.clone, rootstock: s.rootstock, vines: 0 };
+      entry.vines += s.vines;
+      stock.set(key, entry);
+    }
+  }
+  return {
+    season,
+    blocks,
+    kinds: scouted
+      ? [...kinds.values()]
+          .map((k) => ({
+            kind: k.kind,
+            label: k.label,
+            vinesAffected: k.affected,
+            vinesScouted: scouted,
+            incidence: wilsonInterval(k.affected, scouted),
+            how: call('wilsonInterval', k.affected, scouted, 0.95),
+            byBlock: Object.fromEntries(blocks.map((b) => [b.block.id, b.incidence.kinds.find((x) => x.kind === k.kind)?.incidence ?? (b.scouting.vinesScouted ? wilsonInterval(0, b.scouting.vinesScouted) : null)])),
+          }))
+          .sort((a, b) => b.incidence.estimate - a.incidence.estimate || a.label.localeCompare(b.label))
+      : [],
+    totals: {
+      vinesScouted: scouted,
+      standing: blocks.reduce((a, b) => a + b.slots.standing, 0),
+      cropKg: sum(blocks.map((b) => b.crop.estimate.kg)),
+      labourHours: sum(blocks.map((b) => b.labour.estimate.hours)),
+      labourCost: sum(blocks.map((b) => b.labour.estimate.cost)),
+      replant: blocks.reduce((a, b) => a + b.replant.total, 0),
+      openTasks: blocks.reduce((a, b) => a + b.tasks.open, 0),
+      doneTasks: blocks.reduce((a, b) => a + b.tasks.done, 0),
+    },
+    replantByStock: [...stock.values()].sort((a, b) => b.vines - a.vines || a.clone.localeCompare(b.clone)),
+  };
+}

@@ -1,0 +1,135 @@
+/**
+ * The crop and pruning-labour estimates of a block report. Pure and cheap, so the page recomputes
+ * them in the browser as someone edits an input, with exactly the figures the server printed.
+ */
+import {
+  DEFAULT_SETTINGS,
+  cropShortTonsPerAcre,
+  cropTonnesPerHa,
+  estimateCropKg,
+  estimatePruningLabour,
+  haToAc,
+  SQ_M_PER_HA,
+  type ViticultureSettings,
+} from '@/lib/viticulture';
+import { call } from './format';
+
+export type TrainingSystem = 'cane' | 'spur' | 'other';
+
+/** Where a default input came from, in words a reader can follow. */
+export interface InputValue {
+  value: number | null;
+  /** "entered", or where the default came from. */
+  source: string;
+  /** What the report uses when nothing is entered, and where that comes from. */
+  defaultValue: number | null;
+  defaultSource: string;
+}
+
+/** An input's default, or what was entered over it. */
+export function inputValue(entered: number | undefined, defaultValue: number | null, defaultSource: string): InputValue {
+  return entered !== undefined
+    ? { value: entered, source: 'entered', defaultValue, defaultSource }
+    : { value: defaultValue, source: defaultSource, defaultValue, defaultSource };
+}
+
+export interface CropBasis {
+  /** Bearing vines: planted slots plus replants old enough to crop. */
+  vines: number;
+  vinesSource: string;
+  areaM2: number;
+}
+
+export interface CropInputs {
+  budsPerVine: InputValue;
+  budbreakPercent: InputValue;
+  clustersPerShoot: InputValue;
+  clusterWeightG: InputValue;
+}
+
+export interface CropEstimate {
+  /** Null until every input has a value. */
+  kg: number | null;
+  kgPerVine: number | null;
+  tonnesPerHa: number | null;
+  shortTonsPerAcre: number | null;
+  missing: string[];
+  how: string;
+}
+
+export function cropEstimate(basis: CropBasis, inputs: CropInputs): CropEstimate {
+  const missing = (Object.entries(inputs) as [keyof CropInputs, InputValue][]).filter(([, v]) => v.value === null).map(([k]) => k);
+  if (missing.length) {
+    return { kg: null, kgPerVine: null, tonnesPerHa: null, shortTonsPerAcre: null, missing, how: 'estimateCropKg needs every input' };
+  }
+  const input = {
+    vines: basis.vines,
+    budsPerVine: inputs.budsPerVine.value!,
+    budbreakFraction: inputs.budbreakPercent.value! / 100,
+    clustersPerShoot: inputs.clustersPerShoot.value!,
+    clusterWeightG: inputs.clusterWeightG.value!,
+  };
+  const kg = estimateCropKg(input);
+  const areaHa = basis.areaM2 / SQ_M_PER_HA;
+  return {
+    kg,
+    kgPerVine: basis.vines > 0 ? kg / basis.vines : null,
+    tonnesPerHa: areaHa > 0 ? cropTonnesPerHa(kg, areaHa) : null,
+    shortTonsPerAcre: areaHa > 0 ? cropShortTonsPerAcre(kg, haToAc(areaHa)) : null,
+    missing: [],
+    how: call('estimateCropKg', input),
+  };
+}
+
+export interface LabourBasis {
+  /** Standing vines: every slot with a vine in it gets pruned. */
+  vines: number;
+  trainingSystem: TrainingSystem;
+  areaM2: number;
+}
+
+export interface LabourInputs {
+  minutesPerVine: InputValue;
+  hourlyCost: InputValue;
+}
+
+export interface LabourEstimate {
+  hours: number | null;
+  cost: number | null;
+  hoursPerHa: number | null;
+  hoursPerAcre: number | null;
+  /** The same block at the other system's default minutes, so the cost of cane pruning shows. */
+  alternative: { trainingSystem: 'cane' | 'spur'; minutesPerVine: number; hours: number; cost: number } | null;
+  how: string;
+}
+
+/** Default minutes per vine for a training system; an unknown system is costed as the slower cane pruning. */
+export function defaultMinutesPerVine(system: TrainingSystem, settings: ViticultureSettings = DEFAULT_SETTINGS): number {
+  return system === 'spur' ? settings.labour.spurMinutesPerVine : settings.labour.caneMinutesPerVine;
+}
+
+export function labourEstimate(basis: LabourBasis, inputs: LabourInputs, settings: ViticultureSettings = DEFAULT_SETTINGS): LabourEstimate {
+  const minutes = inputs.minutesPerVine.value;
+  const hourlyCost = inputs.hourlyCost.value;
+  if (minutes === null || hourlyCost === null) {
+    return { hours: null, cost: null, hoursPerHa: null, hoursPerAcre: null, alternative: null, how: 'estimatePruningLabour needs every input' };
+  }
+  const input = { vines: basis.vines, minutesPerVine: minutes, hourlyCost };
+  const { hours, cost } = estimatePruningLabour(input);
+  const areaHa = basis.areaM2 / SQ_M_PER_HA;
+  const other = basis.trainingSystem === 'spur' ? 'cane' : 'spur';
+  const otherMinutes = defaultMinutesPerVine(other, settings);
+  const alt = estimatePruningLabour({ vines: basis.vines, minutesPerVine: otherMinutes, hourlyCost });
+  return {
+    hours,
+    cost,
+    hoursPerHa: areaHa > 0 ? hours / areaHa : null,
+    hoursPerAcre: areaHa > 0 ? hours / haToAc(areaHa) : null,
+    alternative: { trainingSystem: other, minutesPerVine: otherMinutes, hours: alt.hours, cost: alt.cost },
+    how: call('estimatePruningLabour', input),
+  };
+}
+
+/** Acres in a number of square metres, for the per-acre figures. */
+export const areaAcres = (areaM2: number) => haToAc(areaM2 / SQ_M_PER_HA);
+export const areaHa = (areaM2: number) => areaM2 / SQ_M_PER_HA;

@@ -1,0 +1,77 @@
+import 'server-only';
+import type { Db } from '@/lib/server/db';
+import type { MeasurementKind } from '@/lib/validation/measurement';
+
+export interface MeasurementView {
+  id: string;
+  blockId: string;
+  kind: MeasurementKind;
+  row: number;
+  position: number | null;
+  vines: number;
+  weightKg: number;
+  clusters: number | null;
+  measuredOn: string;
+  note: string;
+  recordedBy: string | null;
+  recordedByName: string | null;
+  createdAt: string;
+}
+
+export interface MeasurementInsert {
+  organisation_id: string;
+  block_id: string;
+  kind: MeasurementKind;
+  row_number: number;
+  position: number | null;
+  position_id: string | null;
+  vines: number;
+  weight_kg: number;
+  clusters: number | null;
+  measured_on: string;
+  note: string;
+  recorded_by: string;
+}
+
+const columns = (db: Db) => ({
+  id: 'm.id',
+  blockId: 'm.block_id',
+  kind: 'm.kind',
+  row: 'm.row_number',
+  position: 'm.position',
+  vines: 'm.vines',
+  weightKg: db.raw('m.weight_kg::float8'),
+  clusters: 'm.clusters',
+  measuredOn: db.raw(`to_char(m.measured_on, 'YYYY-MM-DD')`),
+  note: 'm.note',
+  recordedBy: 'm.recorded_by',
+  recordedByName: db.raw('coalesce(u.name, u.email)'),
+  createdAt: 'm.created_at',
+});
+
+export async function insertMeasurement(db: Db, row: MeasurementInsert): Promise<string> {
+  const [inserted] = await db('measurements').insert(row).returning<{ id: string }[]>('id');
+  return inserted!.id;
+}
+
+export function getMeasurement(db: Db, organisationId: string, id: string): Promise<MeasurementView | undefined> {
+  return db('measurements as m')
+    .leftJoin('users as u', 'u.id', 'm.recorded_by')
+    .where({ 'm.organisation_id': organisationId, 'm.id': id })
+    .first(columns(db));
+}
+
+/** A block's weights of one season, newest first. */
+export function listMeasurements(db: Db, organisationId: string, blockId: string, season: number): Promise<MeasurementView[]> {
+  return db('measurements as m')
+    .leftJoin('users as u', 'u.id', 'm.recorded_by')
+    .where({ 'm.organisation_id': organisationId, 'm.block_id': blockId })
+    .andWhere('m.measured_on', '>=', `${season}-01-01`)
+    .andWhere('m.measured_on', '<', `${season + 1}-01-01`)
+    .orderBy([{ column: 'm.measured_on', order: 'desc' }, { column: 'm.created_at', order: 'desc' }])
+    .select(columns(db));
+}
+
+export function deleteMeasurement(db: Db, organisationId: string, id: string) {
+  return db('measurements').where({ organisation_id: organisationId, id }).delete();
+}

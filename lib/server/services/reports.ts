@@ -1,0 +1,191 @@
+import 'server-only';
+import { can } from '@/lib/roles';
+import type { BlockReportResponse, EstateReportResponse } from '@/lib/reports/api';
+import { buildBlockReport, type BlockReport, type BlockReportInput } from '@/lib/reports/block-report';
+import { compareReports, type Comparison } from '@/lib/reports/compare';
+import { csvHeader, csvLine } from '@/lib/reports/csv';
+import { buildEstateReport } from '@/lib/reports/estate-report';
+import { defaultSeason } from '@/lib/reports/season';
+import type { Member } from '@/lib/server/auth/guard';
+import { db, type Db } from '@/lib/server/db';
+import { AppError } from '@/lib/server/errors';
+import { findVineByAddress } from '@/lib/server/queries/grid';
+import { getBlock, listBlocks, type BlockRow } from '@/lib/server/queries/blocks';
+import { deleteMeasurement, getMeasurement, insertMeasurement, type MeasurementView } from '@/lib/server/queries/measurements';
+import {
+  countByRowAndKind,
+  countSlots,
+  listExportPage,
+  listMeasuredObservations,
+  listMeasurementRows,
+  listPersistedProblems,
+  listRecordedPruningWeights,
+  listReplantSlots,
+  listSeasons,
+  listSeasonTasks,
+  type ExportCursor,
+} from '@/lib/server/queries/reports';
+import { weightKg, type MeasurementInput } from '@/lib/validation/measurement';
+import type { ReportOptions } from '@/lib/validation/report';
+import { DEFAULT_SETTINGS } from '@/lib/viticulture';
+
+const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
+
+async function blockOf(database: Db, member: Member, blockId: string): Promise<BlockRow> {
+  const block = UUID.test(blockId) ? await getBlock(database, member.organisationId, blockId) : undefined;
+  if (!block) throw new AppError('not-found', 'There is no such block in your organisation.');
+  return block;
+}
+
+async function blockSeason(database: Db, member: Member, block: BlockRow, season: number, options: ReportOptions): Promise<BlockReport> {
+  const settings = DEFAULT_SETTINGS;
+  const org = member.organisationId;
+  const [slots, counts, measured, measurements, recordedWeights, replant, tasks] = await Promise.all([
+    countSlots(database, block.id, season - settings.crop.bearingAfterSeasons),
+    countByRowAndKind(database, org, block.id, season),
+    listMeasuredObservations(database, org, block.id, season),
+    listMeasurementRows(database, org, block.id, season - 1, season + 1),
+    listRecordedPruningWeights(database, org, block.id, season - 1, season + 1),
+    listReplantSlots(database, org, block.id, season),
+    listSeasonTasks(database, org, block.id, season),
+  ]);
+  const input: BlockReportInput = {
+    block: {
+      id: block.id,
+      name: block.name,
+      variety: block.variety,
+      clone: block.clone,
+      rootstock: block.rootstock,
+      plantingYear: block.planting_year,
+      trainingSystem: block.training_system,
+      rowSpacingM: Number(block.row_spacing_m),
+      vineSpacingM: Number(block.vine_spacing_m),
+      rowCount: block.row_count,
+      vinesPerRow: block.vines_per_row,
+      vinesPerPanel: block.vines_per_panel,
+    },
+    season,
+    units: member.unitSystem,
+    slots,
+    kindRows: counts.kinds,
+    scoutedRows: counts.scouted,
+    observations: counts.observations,
+    measured,
+    measurements,
+    recordedWeights,
+    replant,
+    tasks,
+    options,
+    settings,
+  };
+  return buildBlockReport(input);
+}
+
+/** A block's season report, with the season before (or the one asked for) side by side. */
+export async function loadBlockReport(member: Member, blockId: string, options: ReportOptions, now = new Date()): Promise<BlockReportResponse> {
+  const database = db();
+  const block = await blockOf(database, member, blockId);
+  const seasons = await listSeasons(database, member.organisationId, block.id);
+  const season = options.season ?? defaultSeason(seasons, now);
+  const previous = options.compare === 'none' ? null : (options.compare ?? season - 1);
+  const report = await blockSeason(database, member, block, season, options);
+  let comparison: Comparison | null = null;
+  if (previous !== null && previous !== season) {
+    // The other season is read from its own records; only the inputs a person chose carry over.
+    const { budsPerVine: _b, budbreakPercent: _p, budTarget: _t, ...shared } = options;
+    const [before, persisted] = await Promise.all([
+      blockSeason(database, member, block, previous, shared),
+      listPersistedProblems(database, member.organisationId, block.id, season, previous),
+    ]);
+    comparison = compareReports(report, before, persisted);
+  }
+  return { report, comparison, seasons };
+}
+
+/** Every active block's season, one after the other (each report runs its queries side by side). */
+export async function loadEstateReport(member: Member, options: ReportOptions, now = new Date()): Promise<EstateReportResponse> {
+  const database = db();
+  const seasons = await listSeasons(database, member.organisationId);
+  const season = options.season ?? defaultSeason(seasons, now);
+  const { budsPerVine: _b, budbreakPercent: _p, budTarget: _t, minutesPerVine: _m, ...shared } = options;
+  const blocks: BlockReport[] = [];
+  for (const block of await listBlocks(database, member.organisationId)) blocks.push(await blockSeason(database, member, block, season, shared));
+  return { ...buildEstateReport(season, blocks), seasons };
+}
+
+const EXPORT_PAGE = 2000;
+
+/**
+ * The season's observations as CSV, streamed: each pull reads the next keyset page, so the server
+ * holds one page at a time however large the export, and a slow reader slows the queries down.
+ */
+export async function exportObservations(member: Member, season: number, blockId?: string): Promise<{ filename: string; stream: ReadableStream<Uint8Array> }> {
+  const database = db();
+  const block = blockId ? await blockOf(database, member, blockId) : undefined;
+  const encoder = new TextEncoder();
+  let cursor: ExportCursor | null = null;
+  let headerSent = false;
+  const stream = new ReadableStream<Uint8Array>(
+    {
+      async pull(controller) {
+        if (!headerSent) {
+          headerSent = true;
+          controller.enqueue(encoder.encode(`\uFEFF${csvHeader()}`));
+          return;
+        }
+        const rows = await listExportPage(database, member.organisationId, season, block?.id, cursor, EXPORT_PAGE);
+        if (rows.length) {
+          controller.enqueue(encoder.encode(rows.map(csvLine).join('')));
+          const last = rows[rows.length - 1]!;
+          cursor = { observedAt: last.cursorAt, id: last.id };
+        }
+        if (rows.length < EXPORT_PAGE) controller.close();
+      },
+    },
+    { highWaterMark: 1 },
+  );
+  const name = block ? block.name.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-|-$/g, '') || 'block' : 'all-blocks';
+  return { filename: `vineward-observations-${name}-${season}.csv`, stream };
+}
+
+/** Records a yield or pruning weight; a vine's entry must name one of the block's slots. */
+export async function recordMeasurement(member: Member, input: MeasurementInput): Promise<MeasurementView> {
+  const database = db();
+  const block = await getBlock(database, member.organisationId, input.blockId);
+  if (!block) throw new AppError('not-found', 'There is no such block in your organisation.', { blockId: ['No such block'] });
+  let positionId: string | null = null;
+  if (input.position !== null) {
+    const vine = await findVineByAddress(database, member.organisationId, block.id, input.row, input.position);
+    if (!vine) throw new AppError('invalid-input', `Row ${input.row} has no vine ${input.position} in ${block.name}.`, { position: ['No such vine in this row'] });
+    positionId = vine.positionId;
+  } else {
+    const row = await database('block_rows').where({ block_id: block.id, row_number: input.row }).first('row_number');
+    if (!row) throw new AppError('invalid-input', `${block.name} has no row ${input.row}.`, { row: ['No such row in this block'] });
+  }
+  const id = await insertMeasurement(database, {
+    organisation_id: member.organisationId,
+    block_id: block.id,
+    kind: input.kind,
+    row_number: input.row,
+    position: input.position,
+    position_id: positionId,
+    vines: input.vines,
+    weight_kg: weightKg(input),
+    clusters: input.kind === 'yield' ? input.clusters : null,
+    measured_on: input.measuredOn,
+    note: input.note,
+    recorded_by: member.userId,
+  });
+  return (await getMeasurement(database, member.organisationId, id))!;
+}
+
+/** Managers remove any entry; others only their own, as with observations. */
+export async function removeMeasurement(member: Member, id: string): Promise<void> {
+  const database = db();
+  const found = UUID.test(id) ? await getMeasurement(database, member.organisationId, id) : undefined;
+  if (!found) throw new AppError('not-found', 'There is no such entry in your organisation.');
+  if (!can(member.role, 'edit-any-observation') && found.recordedBy !== member.userId) {
+    throw new AppError('forbidden', 'Only a manager or the person who entered it can remove this weight.');
+  }
+  await deleteMeasurement(database, member.organisationId, id);
+}
