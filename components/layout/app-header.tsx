@@ -19,13 +19,14 @@ const NAV: { href: string; label: string; roles: Role[] }[] = [
   { href: '/photos', label: 'Photos', roles: ['manager', 'advisor', 'scout', 'pruner'] },
   { href: '/plans', label: 'Plans', roles: ['manager', 'advisor', 'scout', 'pruner'] },
   { href: '/sprays', label: 'Sprays', roles: ['manager', 'advisor', 'scout', 'pruner'] },
+  { href: '/reports', label: 'Reports', roles: ['manager', 'advisor', 'scout', 'pruner'] },
   { href: '/team', label: 'Team', roles: ['manager'] },
   { href: '/safety', label: 'Safety', roles: ['manager', 'scout', 'pruner', 'advisor'] },
 ];
 
 export function AppHeader({ role, name, organisationId, memberships }: Props) {
   return (
-    <header className="border-b-2 border-line bg-panel">
+    <header className="border-b-2 border-line bg-panel print:hidden">
       <div className="mx-auto flex max-w-6xl flex-wrap items-center gap-x-4 gap-y-2 px-4 py-2">
         <Link href="/" className="no-underline" aria-label="Vineward home">
           <Wordmark />
