@@ -134,6 +134,22 @@ describe('blocks through the route handlers', () => {
     expect(await slotsPerRow(block.id)).toEqual({ 1: 10, 2: 10, 3: 4 });
   });
 
+  it('refuses to remove a slot that carries a flag too, naming the kind of record, and refuses renumbering its rows', async () => {
+    const { client, org } = await managerOf();
+    const block = await createBlock(client, { rowCount: 2, vinesPerRow: 6 });
+    const slot = await testDb()('vine_positions').where({ block_id: block.id, row_number: 2, position: 6 }).first('id');
+    await testDb()('flags').insert({
+      id: randomUUID(), organisation_id: org.id, block_id: block.id, position_id: slot.id, row_number: 2, position: 6, to_position: 6,
+      reason: 'replant', flagged_at: new Date(), payload_sha256: 'f'.repeat(64),
+    });
+    const shorter = await client.json(`/api/blocks/${block.id}/rows/2`, 'PATCH', { vineCount: 5 });
+    expect(shorter.status).toBe(409);
+    expect((await shorter.json()).error.message).toMatch(/remove 1 planting slot that has flags \(row 2 vine 6\)/);
+    expect((await client.json(`/api/blocks/${block.id}`, 'PATCH', { firstRow: 3 })).status).toBe(409);
+    expect(await slotsPerRow(block.id)).toEqual({ 1: 6, 2: 6 });
+    expect(await testDb()('flags').where({ position_id: slot.id })).toHaveLength(1);
+  });
+
   it('a new first row renumbers the rows and their slots, until the field has used the numbers', async () => {
     const { client, org } = await managerOf();
     const block = await createBlock(client, { rowCount: 3, vinesPerRow: 4 });

@@ -125,13 +125,21 @@ export async function updateBlock(db: Db, blockId: string, columns: Partial<Bloc
   return row!;
 }
 
-/** Whether the field has recorded anything that names this block's row numbers. */
+/**
+ * Whether anything outside the layout names this block's row numbers: observations, flags, task
+ * items, measurements… (every table with both block_id and row_number, found in the catalogue so
+ * that tables added later are covered too) and sampling plans, whose addresses are stored in JSON.
+ */
 export async function blockHasFieldRecords(db: Db, blockId: string) {
-  const [observation, plan] = await Promise.all([
-    db('observations').where({ block_id: blockId }).first(db.raw('1 as x')),
-    db('sampling_plans').where({ block_id: blockId }).first(db.raw('1 as x')),
-  ]);
-  return Boolean(observation || plan);
+  const { rows: tables } = await db.raw<{ rows: { name: string }[] }>(
+    `select c.table_name as name from information_schema.columns c
+     join information_schema.columns r on r.table_schema = c.table_schema and r.table_name = c.table_name and r.column_name = 'row_number'
+     join information_schema.tables t on t.table_schema = c.table_schema and t.table_name = c.table_name and t.table_type = 'BASE TABLE'
+     where c.table_schema = current_schema() and c.column_name = 'block_id' and c.table_name not in ('block_rows', 'vine_positions')`,
+  );
+  const names = [...tables.map((t) => t.name), 'sampling_plans'];
+  const found = await Promise.all(names.map((name) => db(name).where('block_id', blockId).first(db.raw('1 as x'))));
+  return found.some(Boolean);
 }
 
 /**
@@ -152,8 +160,9 @@ export interface LayoutRowSpec {
 
 // The layout travels as one jsonb parameter: one bind value whatever the size, expanded in SQL.
 const DESIRED = `d as (select * from jsonb_to_recordset(?::jsonb) as d(row_number int, vine_count int, statuses text))`;
-const WANTED_STATUS = `case upper(substr(d.statuses, p.position, 1)) when 'P' then 'planted' when 'M' then 'missing'
-  when 'D' then 'dead' when 'R' then 'replant' end`;
+/** The status a slot's letter asks for, or null when its row keeps its statuses. */
+const wantedStatus = (position: string) => `case upper(substr(d.statuses, ${position}, 1)) when 'P' then 'planted'
+  when 'M' then 'missing' when 'D' then 'dead' when 'R' then 'replant' end`;
 const REMOVED_SLOT = `vp.block_id = ? and not exists (select 1 from d where d.row_number = vp.row_number and vp.position <= d.vine_count)`;
 
 const desiredJson = (rows: LayoutRowSpec[]) =>
@@ -165,7 +174,7 @@ export async function summariseLayoutChange(db: Db, blockId: string, rows: Layou
   const [transitions, removed] = await Promise.all([
     db.raw<{ rows: { from_status: SlotStatus | null; to_status: SlotStatus; n: number }[] }>(
       `with ${DESIRED}
-       select vp.status as from_status, coalesce(${WANTED_STATUS}, vp.status, 'planted') as to_status, count(*)::int as n
+       select vp.status as from_status, coalesce(${wantedStatus('p.position')}, vp.status, 'planted') as to_status, count(*)::int as n
        from d cross join lateral generate_series(1, d.vine_count) as p(position)
        left join vine_positions vp on vp.block_id = ? and vp.row_number = d.row_number and vp.position = p.position
        group by 1, 2`,
@@ -176,17 +185,44 @@ export async function summariseLayoutChange(db: Db, blockId: string, rows: Layou
   return { transitions: transitions.rows, slotsRemoved: removed.rows[0]!.n };
 }
 
-/** Slots the layout would remove although observations hang on them (at most `limit`), and how many in all. */
-export async function listRemovedSlotsWithObservations(db: Db, blockId: string, rows: LayoutRowSpec[], limit = 20) {
-  const { rows: found } = await db.raw<{ rows: { row_number: number; position: number; total: number }[] }>(
-    `with ${DESIRED}
-     select vp.row_number, vp.position, count(*) over ()::int as total
-     from vine_positions vp
-     where ${REMOVED_SLOT} and exists (select 1 from observations o where o.block_id = vp.block_id and o.position_id = vp.id)
+/**
+ * The tables whose rows hang on a planting slot (observations, flags, task items, comments,
+ * measurements…), read from the foreign keys so that later features are covered too. A slot's
+ * own vines are its history, not field records: they go with it.
+ */
+async function slotRecordTables(db: Db) {
+  const { rows } = await db.raw<{ rows: { tbl: string; col: string }[] }>(
+    `select c.conrelid::regclass::text as tbl, quote_ident(a.attname) as col
+     from pg_constraint c join pg_attribute a on a.attrelid = c.conrelid and a.attnum = c.conkey[1]
+     where c.contype = 'f' and c.confrelid = 'vine_positions'::regclass and cardinality(c.conkey) = 1
+       and c.conrelid <> 'vines'::regclass order by 1`,
+  );
+  return rows;
+}
+
+/**
+ * Slots the layout would remove although field records hang on them (at most `limit`), how many
+ * in all, and which kinds of record (table names).
+ */
+export async function listRemovedSlotsWithRecords(db: Db, blockId: string, rows: LayoutRowSpec[], limit = 20) {
+  const tables = await slotRecordTables(db);
+  if (tables.length === 0) return { slots: [], total: 0, kinds: [] as string[] };
+  // Names come from the catalogue, already quoted by regclass and quote_ident; nothing here is user input.
+  const kinds = tables.map((t, i) => `case when exists (select 1 from ${t.tbl} x where x.${t.col} = vp.id) then ${i} end`).join(', ');
+  const { rows: found } = await db.raw<{ rows: { row_number: number; position: number; total: number; hits: number[] }[] }>(
+    `with ${DESIRED}, hit as (
+       select vp.row_number, vp.position, array_remove(array[${kinds}], null) as hits
+       from vine_positions vp where ${REMOVED_SLOT})
+     select row_number, position, hits, count(*) over ()::int as total from hit where cardinality(hits) > 0
      order by 1, 2 limit ?`,
     [desiredJson(rows), blockId, limit],
   );
-  return { slots: found.map((r) => ({ row: r.row_number, position: r.position })), total: found[0]?.total ?? 0 };
+  const used = new Set(found.flatMap((r) => r.hits));
+  return {
+    slots: found.map((r) => ({ row: r.row_number, position: r.position })),
+    total: found[0]?.total ?? 0,
+    kinds: [...used].sort().map((i) => tables[i]!.tbl.replace(/^.*\./, '').replace(/"/g, '')),
+  };
 }
 
 interface PlantDefaults {
@@ -226,15 +262,16 @@ export async function writeLayout(trx: Db, blockId: string, rows: LayoutRowSpec[
   );
   if (!rows.some((r) => r.statuses)) return;
   await createSlotChanges(trx);
+  // One pass over the block's slots, each reading its letter from its row's string (a hash join on
+  // the row number), rather than expanding every letter into a row and joining on the address.
   await trx.raw(
     `insert into slot_changes (position_id, status, year)
-     with ${DESIRED}
-     select vp.id, w.status, ? from (
-       select d.row_number, p.position, ${WANTED_STATUS} as status
-       from d cross join lateral generate_series(1, d.vine_count) as p(position) where d.statuses is not null) w
-     join vine_positions vp on vp.block_id = ? and vp.row_number = w.row_number and vp.position = w.position
-     where vp.status <> w.status`,
-    [json, year, blockId],
+     with ${DESIRED}, wanted as (
+       select vp.id, vp.status as was, ${wantedStatus('vp.position')} as status
+       from vine_positions vp join d on d.row_number = vp.row_number
+       where vp.block_id = ? and d.statuses is not null)
+     select id, status, ? from wanted where status <> was`,
+    [json, blockId, year],
   );
   await applySlotChanges(trx, plant);
 }

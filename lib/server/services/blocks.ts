@@ -16,7 +16,7 @@ import {
   listBlocks,
   listLayoutLetters,
   listPositions,
-  listRemovedSlotsWithObservations,
+  listRemovedSlotsWithRecords,
   listSlotVines,
   shiftRowNumbers,
   summariseLayoutChange,
@@ -207,15 +207,21 @@ export async function getBlockDetail(member: Member, blockId: string) {
   };
 }
 
-/** Refuses a layout that would delete slots the field has recorded observations on. */
-async function refuseLosingObservations(conn: Db, blockId: string, rows: LayoutRowSpec[]) {
-  const { slots, total } = await listRemovedSlotsWithObservations(conn, blockId, rows);
+const RECORD_WORDS: Record<string, string> = { task_items: 'tasks', task_updates: 'task updates' };
+
+/**
+ * Refuses a layout that would delete slots with observations or other field records on them:
+ * the foreign keys cascade, so removing the slot would silently delete the work recorded there.
+ */
+async function refuseLosingFieldRecords(conn: Db, blockId: string, rows: LayoutRowSpec[]) {
+  const { slots, total, kinds } = await listRemovedSlotsWithRecords(conn, blockId, rows);
   if (total === 0) return;
   const named = slots.slice(0, 5).map((s) => `row ${s.row} vine ${s.position}`).join(', ');
+  const what = kinds.map((k) => RECORD_WORDS[k] ?? k.replace(/_/g, ' ')).join(', ');
   throw new AppError(
     'conflict',
-    `This change would remove ${total} planting ${total === 1 ? 'slot that has' : 'slots that have'} observations (${named}${total > 5 ? ', …' : ''}). ` +
-      'Keep those rows and vines, or move the observations first. Nothing was changed.',
+    `This change would remove ${total} planting ${total === 1 ? 'slot that has' : 'slots that have'} ${what} (${named}${total > 5 ? ', …' : ''}). ` +
+      'Keep those rows and vines, or move the records first. Nothing was changed.',
   );
 }
 
@@ -259,7 +265,7 @@ export async function updateBlock(member: Member, blockId: string, patch: Partia
           const had = current.get(r.row);
           return { ...r, vines: had === undefined || had === block.vines_per_row ? next.vinesPerRow : had };
         });
-        await refuseLosingObservations(trx, block.id, rows);
+        await refuseLosingFieldRecords(trx, block.id, rows);
         await writeLayout(trx, block.id, rows, { plantingYear: next.plantingYear, clone: next.clone, rootstock: next.rootstock }, thisYear());
       }
       return viewOf(trx, await updateBlockColumns(trx, block.id, columnsOf(next)));
@@ -285,7 +291,7 @@ export async function setRowVineCount(member: Member, blockId: string, rowNumber
     const target = rows.find((r) => r.row === rowNumber);
     if (!target) throw new AppError('not-found', `${block.name} has no row ${rowNumber}.`);
     target.vines = vineCount;
-    await refuseLosingObservations(trx, block.id, rows);
+    await refuseLosingFieldRecords(trx, block.id, rows);
     await writeLayout(trx, block.id, rows, plantOf(block), thisYear());
     await updateBlockColumns(trx, block.id, {});
     return { row: rowNumber, vineCount };
@@ -374,7 +380,7 @@ export async function importLayout(member: Member, blockId: string, csv: string,
     const beforeByRow = new Map(before.map((r) => [r.row_number, r.vine_count]));
     const afterRows = new Set(rows.map((r) => r.row));
     const change = await summariseLayoutChange(conn, block.id, rows);
-    await refuseLosingObservations(conn, block.id, rows);
+    await refuseLosingFieldRecords(conn, block.id, rows);
 
     const after = emptyCounts();
     let added = 0;
