@@ -6,20 +6,24 @@ import { Controller, useForm, type Control } from 'react-hook-form';
 import { Choice } from '@/components/field/choice';
 import { Button } from '@/components/ui/button';
 import { Field, Input } from '@/components/ui/field';
+import { memberLabel, useCrew } from '@/components/tasks/use-crew';
 import { downscalePhoto } from '@/lib/offline/resize';
 import { observationDataSchemas } from '@/lib/validation/observation';
 import {
   assessCane,
   budbreakPercent,
+  budDeviationPercent,
   budInjuryAdjustment,
   CANE_INJURY_CAUSES,
   caneReasonCode,
+  DEFAULT_SETTINGS,
   inToMm,
   isWeakBudbreak,
   lbToKg,
   mmToIn,
   kgToLb,
   primaryBudKillPercent,
+  pruningCheckBuds,
   recommendedBudsPerCane,
   TRUNK_INJURY_CAUSES,
   type ObservationKind,
@@ -217,6 +221,16 @@ export function ObservationForm({
           {num('budTarget', t('form.budTarget'), undefined, undefined, '1')}
         </>
       )}
+      {kind === 'pruning-check' && (
+        <>
+          <CrewField control={form.control} error={errors.prunedBy} />
+          {num('canesKept', t('form.canesKept'), undefined, undefined, '1')}
+          {num('budsOnCanes', t('form.budsOnCanes'), undefined, undefined, '1')}
+          {num('renewalSpurs', t('form.renewalSpurs'), undefined, undefined, '1')}
+          {num('budTarget', t('form.budTargetBlock'), undefined, undefined, '1')}
+          <CheckFeedback values={values} />
+        </>
+      )}
 
       <Field id="f-note" label={t('form.note')} error={errors.note}>
         <textarea id="f-note" value={note} onChange={(e) => setNote(e.target.value)} rows={2} maxLength={2000} className="rounded-lg border-2 border-line bg-panel p-2" />
@@ -287,6 +301,38 @@ function ChoiceField({
         <Choice<string | boolean> label={label} value={field.value as string | boolean | undefined} options={options} onChange={field.onChange} error={error} />
       )}
     />
+  );
+}
+
+function CrewField({ control, error }: { control: Control<Values>; error?: string }) {
+  const t = useTranslations('form');
+  const crew = useCrew();
+  if (crew.isPending) return <p>{t('crewLoading')}</p>;
+  if (!crew.data) return <p className="font-bold text-alarm">{t('crewMissing')}</p>;
+  const pruners = crew.data.filter((m) => m.role === 'pruner');
+  const options = (pruners.length ? pruners : crew.data.filter((m) => m.role !== 'advisor')).map((m) => ({ value: m.userId, label: memberLabel(m) }));
+  return <ChoiceField control={control} name="prunedBy" label={t('prunedBy')} options={options} error={error} />;
+}
+
+function CheckFeedback({ values }: { values: Values }) {
+  const t = useTranslations('feedback');
+  const { canesKept, budsOnCanes, renewalSpurs, budTarget } = values;
+  const counts = [canesKept, budsOnCanes, renewalSpurs];
+  if (!counts.every((n) => typeof n === 'number' && Number.isInteger(n) && n >= 0)) return null;
+  const left = pruningCheckBuds({ canesKept: canesKept as number, budsOnCanes: budsOnCanes as number, renewalSpurs: renewalSpurs as number });
+  const target = typeof budTarget === 'number' && Number.isInteger(budTarget) && budTarget > 0 ? budTarget : undefined;
+  const percent = target ? Math.round(budDeviationPercent(left, target)) : 0;
+  return (
+    <div
+      className={`rounded-lg border-2 p-3 ${Math.abs(percent) > DEFAULT_SETTINGS.pruningRecord.fineWithinPercent ? 'border-cut bg-cut-tint' : 'border-rootstock bg-rootstock-tint'}`}
+      aria-live="polite"
+      data-testid="check-feedback"
+    >
+      <p className="text-lg font-extrabold">{t('checkLeft', { left })}</p>
+      {target && (
+        <p>{percent === 0 ? t('checkOnTarget', { target }) : t(percent > 0 ? 'checkAbove' : 'checkBelow', { percent: Math.abs(percent), target })}</p>
+      )}
+    </div>
   );
 }
 

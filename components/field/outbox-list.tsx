@@ -6,6 +6,7 @@ import dynamic from 'next/dynamic';
 import { Button } from '@/components/ui/button';
 import { Notice } from '@/components/ui/field';
 import {
+  collectionOf,
   listObservations,
   listPhotos,
   onOutboxChange,
@@ -17,6 +18,7 @@ import {
   type PhotoEntry,
 } from '@/lib/offline/outbox';
 import { syncNow } from '@/lib/offline/sync';
+import type { FlagReason } from '@/lib/validation/flag';
 import type { ObservationKind } from '@/lib/viticulture';
 
 const ObservationForm = dynamic(() => import('@/components/field/observation-form').then((m) => m.ObservationForm));
@@ -61,7 +63,12 @@ export function OutboxList({ owner, imperial }: { owner: string; imperial: boole
       {records.map((e) => (
         <li key={e.id} className={`rounded-xl border-2 bg-panel p-3 ${e.state === 'rejected' ? 'border-alarm' : 'border-line'}`} data-testid="outbox-record">
           <p className="font-bold">
-            {t(`kinds.${e.record.kind as ObservationKind}`)} · {t('field.address', { row: e.record.row, position: e.record.position })}
+            {collectionOf(e) === 'flags'
+              ? t('outbox.flag', { reason: t(`flag.reasons.${e.record.reason as FlagReason}`) })
+              : collectionOf(e) === 'task-updates'
+                ? t('outbox.taskUpdate')
+                : t(`kinds.${e.record.kind as ObservationKind}`)}{' '}
+            · {t('field.address', { row: e.record.row, position: e.record.position })}
           </p>
           <p className="text-sm text-bark-soft">{e.state === 'rejected' ? t('outbox.rejected') : t('outbox.queued')}</p>
           {e.errors?.map((err) => (
@@ -75,7 +82,7 @@ export function OutboxList({ owner, imperial }: { owner: string; imperial: boole
                 <Button type="button" onClick={() => void reissueObservation(e.id).then(() => syncNow())}>
                   {t('outbox.keepAsNew')}
                 </Button>
-              ) : (
+              ) : collectionOf(e) !== 'observations' ? null : (
                 <Button type="button" onClick={() => setEditing(e)}>
                   {t('outbox.edit')}
                 </Button>

@@ -6,17 +6,21 @@ import { useCallback, useEffect, useMemo, useState } from 'react';
 import dynamic from 'next/dynamic';
 import type { SavedObservation } from '@/components/field/observation-form';
 import { ReiWarning } from '@/components/field/rei-warning';
+import { TaskStep } from '@/components/tasks/task-step';
+import { useMyTasks } from '@/components/tasks/use-my-tasks';
 import { Notice } from '@/components/ui/field';
 import { toPostAddress } from '@/lib/address';
 import { cn } from '@/lib/cn';
 import { enqueueObservation, enqueuePhoto, listObservations, onOutboxChange } from '@/lib/offline/outbox';
 import { requestBackgroundSync, syncNow } from '@/lib/offline/sync';
 import { STATUS_BY_LETTER, useFieldLayout } from '@/lib/offline/use-field-layout';
+import { can, type Role } from '@/lib/roles';
 import { OBSERVATION_KINDS, type ObservationKind } from '@/lib/viticulture';
 
 // The forms (and the validation and calculation code they carry) load when a kind is tapped; the
 // service worker precaches the chunk, so this works offline too.
 const ObservationForm = dynamic(() => import('@/components/field/observation-form').then((m) => m.ObservationForm));
+const FlagForm = dynamic(() => import('@/components/flags/flag-form').then((m) => m.FlagForm));
 
 interface Address {
   row: number;
@@ -25,12 +29,13 @@ interface Address {
 
 const SEVERITY_STYLE = ['border-line', 'border-cut', 'border-alarm', 'border-alarm bg-alarm-tint'];
 
-function readAddress(): { address?: Address; planId?: string } {
+function readAddress(): { address?: Address; planId?: string; taskId?: string } {
   const q = new URLSearchParams(window.location.search);
   const planId = q.get('plan') ?? undefined;
+  const taskId = q.get('task') ?? undefined;
   const row = Number(q.get('row'));
   const position = Number(q.get('position'));
-  return { planId, address: row > 0 && position > 0 ? { row, position } : undefined };
+  return { planId, taskId, address: row > 0 && position > 0 ? { row, position } : undefined };
 }
 
 /** Queued records of this phone for one vine, kept live as the outbox changes. */
@@ -53,6 +58,8 @@ export function VineStepper({ blockId, owner }: { blockId: string; owner: string
   const { data: layout, isPending, isError } = useFieldLayout(blockId);
   const [at, setAt] = useState<Address>();
   const [planId, setPlanId] = useState<string>();
+  const [taskId, setTaskId] = useState<string>();
+  const [flagging, setFlagging] = useState(false);
   const [kind, setKind] = useState<ObservationKind>();
   const [flash, setFlash] = useState<string>();
   const [jump, setJump] = useState('');
@@ -60,6 +67,7 @@ export function VineStepper({ blockId, owner }: { blockId: string; owner: string
   useEffect(() => {
     const initial = readAddress();
     setPlanId(initial.planId);
+    setTaskId(initial.taskId);
     setAt(initial.address);
   }, []);
 
@@ -67,6 +75,19 @@ export function VineStepper({ blockId, owner }: { blockId: string; owner: string
   useEffect(() => {
     if (plan && !at) setAt(plan.addresses[0]);
   }, [plan, at]);
+  // A task walks its own vines, in the order the task lists them, starting at the first still to do.
+  const myTasks = useMyTasks(owner, !!taskId);
+  const task = useMemo(() => myTasks.data?.tasks.find((x) => x.id === taskId), [myTasks.data, taskId]);
+  useEffect(() => {
+    if (task && !at) setAt(task.items.find((i) => i.status === 'open') ?? task.items[0]);
+  }, [task, at]);
+  const route: Address[] | undefined = plan?.addresses ?? task?.items;
+  const me = useQuery({
+    queryKey: ['me'],
+    networkMode: 'always',
+    staleTime: 5 * 60_000,
+    queryFn: async () => ((await (await fetch('/api/me')).json()) as { role: Role }).role,
+  });
 
   const rowOf = useCallback((row: number) => layout?.rows.find((r) => r.row === row), [layout]);
 
@@ -76,18 +97,19 @@ export function VineStepper({ blockId, owner }: { blockId: string; owner: string
       setKind(undefined);
       const q = new URLSearchParams({ row: String(next.row), position: String(next.position) });
       if (planId) q.set('plan', planId);
+      if (taskId) q.set('task', taskId);
       window.history.replaceState(null, '', `?${q}`);
     },
-    [planId],
+    [planId, taskId],
   );
 
   const step = useCallback(
     (delta: 1 | -1) => {
       if (!at || !layout) return;
-      if (plan) {
-        const i = plan.addresses.findIndex((a) => a.row === at.row && a.position === at.position);
-        const next = plan.addresses[i + delta];
-        if (next) moveTo(next);
+      if (route) {
+        const i = route.findIndex((a) => a.row === at.row && a.position === at.position);
+        const next = route[i + delta];
+        if (next) moveTo({ row: next.row, position: next.position });
         return;
       }
       const row = rowOf(at.row);
@@ -95,7 +117,7 @@ export function VineStepper({ blockId, owner }: { blockId: string; owner: string
       const position = at.position + delta;
       if (position >= 1 && position <= row.vineCount) moveTo({ row: at.row, position });
     },
-    [at, layout, plan, rowOf, moveTo],
+    [at, layout, route, rowOf, moveTo],
   );
 
   const queuedHere = useQueuedHere(blockId, at);
@@ -110,6 +132,7 @@ export function VineStepper({ blockId, owner }: { blockId: string; owner: string
     },
   });
 
+  if (taskId && myTasks.isFetched && !task) return <Notice tone="warn">{t('tasks.notFound')}</Notice>;
   if (isPending) return <p>{t('field.loading')}</p>;
   if (isError || !layout) return <Notice tone="warn">{t('field.offlineNoBlock')}</Notice>;
   if (!at) return <p>{t('field.loading')}</p>;
@@ -172,7 +195,7 @@ export function VineStepper({ blockId, owner }: { blockId: string; owner: string
         {queuedHere > 0 && <p className="text-sm text-cut">{t('field.waitingHere', { count: queuedHere })}</p>}
       </header>
 
-      {flash && !kind && (
+      {flash && !kind && !flagging && (
         <p role="status" className="rounded-lg bg-rootstock-tint p-2 font-bold">
           ✓ {flash}
         </p>
@@ -180,11 +203,39 @@ export function VineStepper({ blockId, owner }: { blockId: string; owner: string
 
       {kind ? (
         <ObservationForm kind={kind} imperial={layout.block.unitSystem === 'imperial'} onSave={save} onCancel={() => setKind(undefined)} />
+      ) : flagging ? (
+        <FlagForm
+          owner={owner}
+          blockId={blockId}
+          row={at.row}
+          position={at.position}
+          lastPosition={row?.vineCount ?? at.position}
+          onCancel={() => setFlagging(false)}
+          onSaved={() => {
+            setFlagging(false);
+            setFlash(t('flag.saved'));
+            void syncNow();
+            void requestBackgroundSync();
+          }}
+        />
       ) : (
         <>
+          {task && <TaskStep owner={owner} task={task} row={at.row} position={at.position} onDone={() => step(1)} />}
+          {me.data && can(me.data, 'flag-vine') && (
+            <button
+              type="button"
+              onClick={() => {
+                setFlash(undefined);
+                setFlagging(true);
+              }}
+              className="flex min-h-16 w-full items-center justify-center gap-2 rounded-xl border-2 border-cut bg-cut-tint px-2 text-lg font-extrabold"
+            >
+              ⚑ {t('field.flag')}
+            </button>
+          )}
           <section aria-label={t('field.record')}>
             <ul className="grid grid-cols-2 gap-2">
-              {OBSERVATION_KINDS.map((k) => (
+              {OBSERVATION_KINDS.filter((k) => k !== 'pruning-check' || (me.data && can(me.data, 'check-pruning'))).map((k) => (
                 <li key={k}>
                   <button
                     type="button"
@@ -234,7 +285,7 @@ export function VineStepper({ blockId, owner }: { blockId: string; owner: string
         </>
       )}
 
-      {!kind && (
+      {!kind && !flagging && (
         <nav className="fixed inset-x-0 bottom-0 z-10 border-t-2 border-line bg-ground p-2" aria-label="Vines">
           <div className="mx-auto grid max-w-md grid-cols-2 gap-2">
             <button type="button" onClick={() => step(-1)} className="min-h-20 rounded-xl border-2 border-rootstock bg-panel text-xl font-extrabold text-rootstock">

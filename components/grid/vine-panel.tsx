@@ -3,6 +3,8 @@
 import { useQuery } from '@tanstack/react-query';
 import Link from 'next/link';
 import { useState } from 'react';
+import { CommentThread } from '@/components/comments/comment-thread';
+import { CommentToggle } from '@/components/comments/comment-toggle';
 import { CellSwatch } from '@/components/grid/cell-swatch';
 import { PhotoViewer, type ViewerPhoto } from '@/components/photos/photo-viewer';
 import { Button, ButtonLink } from '@/components/ui/button';
@@ -210,28 +212,18 @@ export function VinePanel({ blockId, row, position, onClose }: VinePanelProps) {
                       ))}
                     </ul>
                   )}
+                  <CommentToggle subject="observation" subjectId={o.id} label="Comments on this finding" />
                 </li>
               ))}
             </ol>
           </section>
 
-          {data.comments.length > 0 && (
-            <section aria-labelledby="comments-heading">
-              <h3 id="comments-heading" className="mb-1 text-lg font-bold">
-                Comments
-              </h3>
-              <ul className="flex flex-col gap-2">
-                {data.comments.map((c) => (
-                  <li key={c.id}>
-                    <p>{c.text}</p>
-                    <p className="text-sm text-bark-soft">
-                      {c.by} · {formatDay(c.at)}
-                    </p>
-                  </li>
-                ))}
-              </ul>
-            </section>
-          )}
+          <section aria-labelledby="comments-heading">
+            <h3 id="comments-heading" className="mb-1 text-lg font-bold">
+              Comments on this vine
+            </h3>
+            <CommentThread subject="vine" subjectId={data.vine.positionId} label="Comments on this vine" />
+          </section>
           <p>
             <Link href={`/photos?block=${blockId}&row=${row}`} className="font-bold text-rootstock underline">
               All photos of row {row}

@@ -26,6 +26,9 @@ export const BATCH_SIZE = 200;
  */
 export const COLLECTIONS: { name: string; path: string; bodyKey: string }[] = [
   { name: 'observations', path: '/api/sync', bodyKey: 'observations' },
+  { name: 'flags', path: '/api/sync/flags', bodyKey: 'flags' },
+  // After observations: a task update may name the note observation that carries its photos.
+  { name: 'task-updates', path: '/api/sync/task-updates', bodyKey: 'taskUpdates' },
 ];
 const REQUEST_TIMEOUT_MS = 30_000;
 const MAX_BACKOFF_MS = 5 * 60_000;

@@ -1,0 +1,220 @@
+'use client';
+
+import { useQuery } from '@tanstack/react-query';
+import { flexRender, getCoreRowModel, getSortedRowModel, useReactTable, type ColumnDef, type SortingState } from '@tanstack/react-table';
+import Link from 'next/link';
+import { useMemo, useState } from 'react';
+import { api } from '@/components/blocks/api';
+import { memberLabel, useCrew } from '@/components/tasks/use-crew';
+import { Field, Input, Notice, Select } from '@/components/ui/field';
+import { cn } from '@/lib/cn';
+import { formatDay } from '@/lib/grid/labels';
+import { TASK_PRIORITIES, TASK_STATUSES, type TaskPriority, type TaskStatus } from '@/lib/validation/task';
+
+export interface TaskRow {
+  id: string;
+  blockId: string;
+  blockName: string;
+  title: string;
+  assigneeId: string | null;
+  assigneeName: string | null;
+  dueOn: string | null;
+  priority: TaskPriority;
+  status: TaskStatus;
+  createdAt: string;
+  vines: number;
+  vinesDone: number;
+  overdue: boolean;
+}
+
+interface BlockProgress {
+  blockId: string;
+  blockName: string;
+  openTasks: number;
+  overdueTasks: number;
+  vines: number;
+  vinesDone: number;
+}
+
+const PRIORITY_RANK: Record<TaskPriority, number> = { high: 0, normal: 1, low: 2 };
+
+const columns: ColumnDef<TaskRow>[] = [
+  {
+    accessorKey: 'title',
+    header: 'Task',
+    cell: ({ row }) => (
+      <Link href={`/tasks/${row.original.id}`} className="font-bold text-rootstock underline">
+        {row.original.title}
+      </Link>
+    ),
+  },
+  { accessorKey: 'blockName', header: 'Block' },
+  { accessorKey: 'assigneeName', header: 'Assigned to', sortUndefined: 'last' },
+  {
+    accessorKey: 'dueOn',
+    header: 'Due',
+    sortUndefined: 'last',
+    cell: ({ row }) => (
+      <span className={cn(row.original.overdue && 'font-bold text-alarm')}>
+        {row.original.dueOn ? formatDay(`${row.original.dueOn}T12:00:00Z`) : '—'}
+        {row.original.overdue ? ' (overdue)' : ''}
+      </span>
+    ),
+  },
+  { id: 'priority', accessorFn: (t) => PRIORITY_RANK[t.priority], header: 'Priority', cell: ({ row }) => <span className="capitalize">{row.original.priority}</span> },
+  {
+    id: 'progress',
+    accessorFn: (t) => (t.vines ? t.vinesDone / t.vines : 0),
+    header: 'Progress',
+    cell: ({ row }) => (
+      <span className="flex items-center gap-2">
+        <progress className="h-3 w-20 accent-rootstock" max={row.original.vines} value={row.original.vinesDone} aria-hidden />
+        <span className="tabular-nums">
+          {row.original.vinesDone}/{row.original.vines}
+        </span>
+      </span>
+    ),
+  },
+  { accessorKey: 'status', header: 'Status', cell: ({ row }) => <span className="capitalize">{row.original.status}</span> },
+];
+
+/** The manager's task table: filter by status, person, block and priority; sort by any column. */
+export function TasksTable() {
+  const [status, setStatus] = useState<TaskStatus | 'all'>('open');
+  const [assignee, setAssignee] = useState('');
+  const [block, setBlock] = useState('');
+  const [priority, setPriority] = useState('');
+  const [query, setQuery] = useState('');
+  const [sorting, setSorting] = useState<SortingState>([{ id: 'dueOn', desc: false }]);
+  const crew = useCrew();
+  const search = new URLSearchParams({ status, ...(assignee ? { assignee } : {}), ...(priority ? { priority } : {}) });
+  const list = useQuery({ queryKey: ['tasks', search.toString()], queryFn: () => api<{ tasks: TaskRow[]; progress: BlockProgress[] }>(`/api/tasks?${search}`) });
+  const blocks = useMemo(() => [...new Map((list.data?.tasks ?? []).map((t) => [t.blockId, t.blockName])).entries()].sort((a, b) => a[1].localeCompare(b[1])), [list.data]);
+  const rows = useMemo(
+    () => (list.data?.tasks ?? []).filter((t) => (!block || t.blockId === block) && (!query || `${t.title} ${t.blockName} ${t.assigneeName ?? ''}`.toLowerCase().includes(query.toLowerCase()))),
+    [list.data, block, query],
+  );
+  const table = useReactTable({
+    data: rows,
+    columns,
+    getRowId: (t) => t.id,
+    state: { sorting },
+    onSortingChange: setSorting,
+    getCoreRowModel: getCoreRowModel(),
+    getSortedRowModel: getSortedRowModel(),
+  });
+
+  return (
+    <div className="flex flex-col gap-6">
+      <section aria-labelledby="progress-heading">
+        <h2 id="progress-heading" className="mb-2 text-xl font-bold">
+          Open work by block
+        </h2>
+        {list.data && list.data.progress.length === 0 && <p className="text-bark-soft">No open tasks.</p>}
+        <ul className="grid gap-2 sm:grid-cols-2 lg:grid-cols-4" data-testid="block-progress">
+          {list.data?.progress.map((p) => (
+            <li key={p.blockId} className="rounded-lg border-2 border-line bg-panel p-3">
+              <p className="font-bold">{p.blockName}</p>
+              <p>
+                {p.openTasks} open {p.openTasks === 1 ? 'task' : 'tasks'}
+                {p.overdueTasks > 0 && <span className="font-bold text-alarm"> · {p.overdueTasks} overdue</span>}
+              </p>
+              <progress className="h-3 w-full accent-rootstock" max={p.vines} value={p.vinesDone} aria-hidden />
+              <p className="text-sm">
+                {p.vinesDone} of {p.vines} vines done
+              </p>
+            </li>
+          ))}
+        </ul>
+      </section>
+
+      <div className="grid gap-3 sm:grid-cols-5 sm:items-end">
+        <Field id="task-search" label="Find">
+          <Input id="task-search" type="search" value={query} onChange={(e) => setQuery(e.target.value)} placeholder="Title, block, person…" />
+        </Field>
+        <Field id="task-status" label="Status">
+          <Select id="task-status" value={status} onChange={(e) => setStatus(e.target.value as TaskStatus | 'all')}>
+            {TASK_STATUSES.map((s) => (
+              <option key={s} value={s} className="capitalize">
+                {s[0]!.toUpperCase() + s.slice(1)}
+              </option>
+            ))}
+            <option value="all">All</option>
+          </Select>
+        </Field>
+        <Field id="task-person" label="Assigned to">
+          <Select id="task-person" value={assignee} onChange={(e) => setAssignee(e.target.value)}>
+            <option value="">Anyone</option>
+            <option value="me">Me</option>
+            {(crew.data ?? [])
+              .filter((m) => m.role === 'pruner' || m.role === 'manager')
+              .map((m) => (
+                <option key={m.userId} value={m.userId}>
+                  {memberLabel(m)}
+                </option>
+              ))}
+          </Select>
+        </Field>
+        <Field id="task-block" label="Block">
+          <Select id="task-block" value={block} onChange={(e) => setBlock(e.target.value)}>
+            <option value="">All blocks</option>
+            {blocks.map(([id, name]) => (
+              <option key={id} value={id}>
+                {name}
+              </option>
+            ))}
+          </Select>
+        </Field>
+        <Field id="task-priority" label="Priority">
+          <Select id="task-priority" value={priority} onChange={(e) => setPriority(e.target.value)}>
+            <option value="">Any</option>
+            {TASK_PRIORITIES.map((p) => (
+              <option key={p} value={p}>
+                {p[0]!.toUpperCase() + p.slice(1)}
+              </option>
+            ))}
+          </Select>
+        </Field>
+      </div>
+
+      {list.isError && <Notice tone="error">{list.error.message}</Notice>}
+      {list.isPending ? (
+        <p aria-busy="true">Loading tasks…</p>
+      ) : (
+        <div className="overflow-x-auto rounded-lg border-2 border-line bg-panel">
+          <table className="w-full border-collapse text-left">
+            <thead>
+              {table.getHeaderGroups().map((group) => (
+                <tr key={group.id} className="border-b-2 border-line">
+                  {group.headers.map((header) => {
+                    const sorted = header.column.getIsSorted();
+                    return (
+                      <th key={header.id} scope="col" aria-sort={sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : 'none'}>
+                        <button type="button" onClick={header.column.getToggleSortingHandler()} className="inline-flex min-h-touch items-center gap-1 px-3 font-bold whitespace-nowrap">
+                          {flexRender(header.column.columnDef.header, header.getContext())}
+                          <span aria-hidden="true">{sorted === 'asc' ? '▲' : sorted === 'desc' ? '▼' : '↕'}</span>
+                        </button>
+                      </th>
+                    );
+                  })}
+                </tr>
+              ))}
+            </thead>
+            <tbody>
+              {table.getRowModel().rows.map((row) => (
+                <tr key={row.id} className="border-b border-line" data-testid="task-row">
+                  {row.getVisibleCells().map((cell) => (
+                    <td key={cell.id} className="px-3 py-2 whitespace-nowrap">
+                      {flexRender(cell.column.columnDef.cell, cell.getContext())}
+                    </td>
+                  ))}
+                </tr>
+              ))}
+            </tbody>
+          </table>
+          {rows.length === 0 && <p className="p-4 text-bark-soft">{list.data?.tasks.length ? 'No task matches these filters.' : 'No tasks here.'}</p>}
+        </div>
+      )}
+    </div>
+  );
+}
