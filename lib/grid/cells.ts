@@ -35,9 +35,10 @@ export const GRID_KINDS: readonly string[] = OBSERVATION_KINDS;
 /**
  * One row as the grid statement returns it: row number, vine count, slots not planted (position × 4 +
  * slot index), the positions present when the row has gaps, vines with matching findings (position ×
- * 4 + worst severity), and the last position present.
+ * 4 + worst severity), the last position present, vines with kinds at "watch" or worse (position ×
+ * 65536 + kind bits), and how many vines have any record in scope.
  */
-export type RawGridRow = [number, number, number[] | null, number[] | null, number[] | null, number];
+export type RawGridRow = [number, number, number[] | null, number[] | null, number[] | null, number, number[] | null, number];
 
 const PLANTED = encodeCell('planted', null);
 const NO_SLOT = encodeCell('none', null);
@@ -53,6 +54,18 @@ export function rowCodes([, vineCount, slots, present, worst, last]: RawGridRow)
     if (p <= codes.length) codes[p - 1]! += (packed & 3) + 1;
   }
   return codes;
+}
+
+/** How many vines share each combination of kind bits. */
+export function kindMasks(rows: readonly RawGridRow[]): [number, number][] {
+  const tally = new Map<number, number>();
+  for (const row of rows) {
+    for (const packed of row[6] ?? []) {
+      const mask = packed % 65536;
+      tally.set(mask, (tally.get(mask) ?? 0) + 1);
+    }
+  }
+  return [...tally];
 }
 
 /** Counts by kind and severity, and vines affected per kind from the vines' kind masks. */

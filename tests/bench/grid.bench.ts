@@ -13,12 +13,12 @@ const RUNS = 60;
 const KINDS = ['cane-diameter', 'shade-cane', 'weak-budbreak', 'trunk-injury', 'cane-injury', 'missing-vine', 'bud-injury', 'pruning-record', 'note'];
 const VIEWS = ['', 'kind=trunk-injury,weak-budbreak&from=2026-02-01&to=2026-04-30'];
 
-/** The route's own statements; 'server-only' refuses to load outside Next's server build, so it is stubbed here. */
-async function gridStatementsBuilder() {
+/** The route's own statements and runner; 'server-only' refuses to load outside Next's server build, so it is stubbed here. */
+async function gridQueries() {
   const require = createRequire(__filename);
   const marker = require.resolve('server-only');
   require.cache[marker] = { id: marker, filename: marker, loaded: true, exports: {} } as NodeJS.Module;
-  return (await import('@/lib/server/queries/grid')).gridStatements;
+  return import('@/lib/server/queries/grid');
 }
 
 /** A season's worth of records on one block, made in the database in one statement. */
@@ -49,12 +49,12 @@ async function fillBlock(ctx: BenchContext) {
 }
 
 async function timeRoute(ctx: BenchContext) {
-  const gridStatements = await gridStatementsBuilder();
+  const { gridStatements, runGridStatements } = await gridQueries();
   const org = (await ctx.db('blocks').where({ id: CREEK_FLAT }).first('organisation_id')).organisation_id as string;
   const manager = new Client();
   await manager.signIn('manager@example.com', 'vineward-demo');
   for (const view of VIEWS) {
-    const { cells, counts } = gridStatements(org, CREEK_FLAT, 'ascending', readGridFilters(new URLSearchParams(view)));
+    const statements = gridStatements(org, CREEK_FLAT, 'ascending', readGridFilters(new URLSearchParams(view)));
     const route: number[] = [];
     const sql: number[] = [];
     const inRoute: number[] = [];
@@ -66,8 +66,7 @@ async function timeRoute(ctx: BenchContext) {
       const routeMs = performance.now() - t;
       if (res.status !== 200) throw new Error(`grid route answered ${res.status}`);
       t = performance.now();
-      // As the route runs them: side by side.
-      await Promise.all([ctx.db.raw(cells.sql, cells.bindings as never[]), ctx.db.raw(counts.sql, counts.bindings as never[])]);
+      await runGridStatements(ctx.db, statements);
       const sqlMs = performance.now() - t;
       // The first runs warm the caches and the JIT.
       if (i < 5) continue;

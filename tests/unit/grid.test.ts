@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { cellLevel, cellSlot, encodeCell, GRID_KINDS, kindCounts, rowCodes, SLOTS, type Level } from '@/lib/grid/cells';
+import { cellLevel, cellSlot, encodeCell, GRID_KINDS, kindCounts, kindMasks, rowCodes, SLOTS, type Level, type RawGridRow } from '@/lib/grid/cells';
 import { describeCell, describeRow, nextProblem } from '@/lib/grid/describe';
 import { gridFiltersToSearch, parseGridFilters, readGridFilters } from '@/lib/grid/filters';
 import { decodeCursor, encodeCursor, parsePhotoFilters, readPhotoFilters } from '@/lib/grid/photo-filters';
@@ -32,14 +32,20 @@ describe('rows from the grid statement', () => {
 
   it('lay out a row: planted by default, other slots by status, worst findings on top', () => {
     // Slot 2 replant, 4 missing, 5 dead; vine 1 act now, vine 2 watch, vine 4 act this season.
-    const codes = rowCodes([7, 6, [pack(2, 1), pack(4, 2), pack(5, 3)], null, [pack(1, 3), pack(2, 1), pack(4, 2)], 6]);
+    const codes = rowCodes([7, 6, [pack(2, 1), pack(4, 2), pack(5, 3)], null, [pack(1, 3), pack(2, 1), pack(4, 2)], 6, null, 3]);
     expect(codes).toEqual([encodeCell('planted', 3), encodeCell('replant', 1), P(null), encodeCell('missing', 2), encodeCell('dead', null), P(null)]);
   });
 
   it('mark positions a row lacks as no slot: past its last slot, or in the gaps it lists', () => {
-    expect(rowCodes([1, 4, null, null, null, 2])).toEqual([P(null), P(null), encodeCell('none', null), encodeCell('none', null)]);
-    expect(rowCodes([1, 4, null, [1, 4], [pack(4, 0)], 4])).toEqual([P(null), encodeCell('none', null), encodeCell('none', null), P(0)]);
-    expect(rowCodes([1, 3, null, null, null, 0])).toEqual(Array(3).fill(encodeCell('none', null)));
+    expect(rowCodes([1, 4, null, null, null, 2, null, 0])).toEqual([P(null), P(null), encodeCell('none', null), encodeCell('none', null)]);
+    expect(rowCodes([1, 4, null, [1, 4], [pack(4, 0)], 4, null, 1])).toEqual([P(null), encodeCell('none', null), encodeCell('none', null), P(0)]);
+    expect(rowCodes([1, 3, null, null, null, 0, null, 0])).toEqual(Array(3).fill(encodeCell('none', null)));
+  });
+
+  it('tally vines by their kind bits across rows', () => {
+    const packed = (position: number, mask: number) => position * 65536 + mask;
+    const row = (kinds: number[]): RawGridRow => [1, 10, null, null, null, 10, kinds, kinds.length];
+    expect(new Map(kindMasks([row([packed(1, 8), packed(2, 8), packed(3, 24)]), row([packed(10000, 8)])]))).toEqual(new Map([[8, 3], [24, 1]]));
   });
 
   it('count findings by kind and severity, and vines affected per kind from their kind bits', () => {

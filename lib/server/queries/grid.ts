@@ -1,5 +1,5 @@
 import 'server-only';
-import { GRID_KINDS, kindCounts, rowCodes, type RawGridRow } from '@/lib/grid/cells';
+import { GRID_KINDS, kindCounts, kindMasks, rowCodes, type RawGridRow } from '@/lib/grid/cells';
 import { dayAfter, type GridFilters } from '@/lib/grid/filters';
 import type { KindCounts } from '@/lib/grid/summary';
 import type { Db } from '@/lib/server/db';
@@ -68,54 +68,65 @@ export function gridStatements(organisationId: string, blockId: string, rowOrder
   const hit = match.length ? match.join(' and ') : 'true';
   const where = scope.join(' and ');
   // Per vine: its worst matching severity, and a bit per kind found at "watch" or worse (bit i for
-  // the kind at place i of GRID_KINDS). Positions and values travel packed as position × 4 + value.
+  // the kind at place i of GRID_KINDS); per row, packed as position × 4 + worst and position × 65536
+  // + kind bits. One row at a time (lateral), so each step reads a short run of the block's slot
+  // index in vine order, whatever the planner thinks of the table as a whole.
   const cells = `
-    with vines as materialized (
-      select row_number, position,
-        max(severity) filter (where hit) as worst,
-        bit_or(1 << coalesce(array_position(?::text[], kind), 0)) filter (where hit and severity >= 1) as kinds
-      from (select o.row_number, o.position, o.kind, o.severity, (${hit}) as hit from observations o where ${where}) s
-      group by row_number, position
-    )
-    select
-      (select coalesce(json_agg(json_build_array(r.row_number, r.vine_count, sl.slots, sl.present, w.worst, coalesce(sl.last, 0)) order by r.row_number ${order}), '[]')
-        from block_rows r
-        left join (
-          select row_number,
-            json_agg(position * 4 + case status when 'replant' then 1 when 'missing' then 2 else 3 end order by position) filter (where status <> 'planted') as slots,
-            -- Slots normally run 1…last; only a row with gaps lists the ones it has.
-            case when count(*) = max(position) then null else json_agg(position order by position) end as present,
-            max(position) as last
-          from vine_positions where block_id = ? group by row_number
-        ) sl on sl.row_number = r.row_number
-        left join (
-          select row_number, json_agg(position * 4 + worst order by position) as worst from vines where worst is not null group by row_number
-        ) w on w.row_number = r.row_number
-        where r.block_id = ?) as rows,
-      (select coalesce(json_agg(json_build_array(kinds, n)), '[]') from (select kinds, count(*)::int as n from vines where kinds is not null group by kinds) m) as masks,
-      (select count(*)::int from vines) as scouted`;
+    select coalesce(json_agg(json_build_array(r.row_number, r.vine_count, sl.slots, sl.present, v.worst, coalesce(sl.last, 0), v.kinds, v.scouted)
+      order by r.row_number ${order}), '[]') as rows
+    from block_rows r
+    left join (
+      select row_number,
+        json_agg(position * 4 + case status when 'replant' then 1 when 'missing' then 2 else 3 end order by position) filter (where status <> 'planted') as slots,
+        -- Slots normally run 1…last; only a row with gaps lists the ones it has.
+        case when count(*) = max(position) then null else json_agg(position order by position) end as present,
+        max(position) as last
+      from vine_positions where block_id = ? group by row_number
+    ) sl on sl.row_number = r.row_number
+    cross join lateral (
+      select json_agg(position * 4 + worst order by position) filter (where worst is not null) as worst,
+        json_agg(position * 65536 + kinds order by position) filter (where kinds is not null) as kinds,
+        count(*)::int as scouted
+      from (
+        select position,
+          max(severity) filter (where hit) as worst,
+          bit_or(1 << coalesce(array_position(?::text[], kind), 0)) filter (where hit and severity >= 1) as kinds
+        from (
+          select o.position, o.kind, o.severity, (${hit}) as hit from observations o
+          where o.row_number = r.row_number and ${where}
+        ) s
+        group by position
+      ) vines
+    ) v
+    where r.block_id = ?`;
   const counts = `
     select coalesce(json_agg(json_build_array(kind, severity, n)), '[]') as counts
     from (select o.kind, o.severity, count(*)::int as n from observations o where ${where} and ${hit} group by o.kind, o.severity) c`;
   return {
-    cells: { sql: cells, bindings: [GRID_KINDS, ...matchArgs, ...scopeArgs, blockId, blockId] },
+    cells: { sql: cells, bindings: [blockId, GRID_KINDS, ...matchArgs, ...scopeArgs, blockId] },
     counts: { sql: counts, bindings: [...scopeArgs, ...matchArgs] },
   };
 }
 
 /** Runs the grid's two statements side by side (on two connections when there are two). */
-export async function loadGrid(db: Db, organisationId: string, blockId: string, rowOrder: 'ascending' | 'descending', f: GridFilters): Promise<GridData> {
-  const statements = gridStatements(organisationId, blockId, rowOrder, f);
+export async function runGridStatements(db: Db, statements: ReturnType<typeof gridStatements>) {
   const [cells, counts] = await Promise.all([
     db.raw(statements.cells.sql, statements.cells.bindings as never[]),
     db.raw(statements.counts.sql, statements.counts.bindings as never[]),
   ]);
-  const grid = cells.rows[0] as { rows: RawGridRow[]; masks: [number, number][]; scouted: number };
   return {
-    rows: grid.rows.map(([n]) => n),
-    cells: grid.rows.map(rowCodes),
-    kinds: kindCounts(GRID_KINDS, (counts.rows[0] as { counts: [string, number, number][] }).counts, grid.masks),
-    vinesScouted: grid.scouted,
+    rows: (cells.rows[0] as { rows: RawGridRow[] }).rows,
+    counts: (counts.rows[0] as { counts: [string, number, number][] }).counts,
+  };
+}
+
+export async function loadGrid(db: Db, organisationId: string, blockId: string, rowOrder: 'ascending' | 'descending', f: GridFilters): Promise<GridData> {
+  const { rows, counts } = await runGridStatements(db, gridStatements(organisationId, blockId, rowOrder, f));
+  return {
+    rows: rows.map(([n]) => n),
+    cells: rows.map(rowCodes),
+    kinds: kindCounts(GRID_KINDS, counts, kindMasks(rows)),
+    vinesScouted: rows.reduce((sum, row) => sum + row[7], 0),
   };
 }
 
