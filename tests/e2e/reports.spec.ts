@@ -1,0 +1,127 @@
+import { expect, test, type Page } from '@playwright/test';
+import { signInAs } from './helpers/session';
+
+// A desk page: the service worker's first-install reload would only race the typing.
+test.use({ serviceWorkers: 'block' });
+
+// Printable widths at 96 px per inch with 12 mm margins: A4 (210 mm) and US Letter (8.5 in).
+const PAPER = {
+  A4: { width: Math.floor(((210 - 24) / 25.4) * 96), height: Math.floor(((297 - 24) / 25.4) * 96) },
+  Letter: { width: Math.floor((8.5 - 24 / 25.4) * 96), height: Math.floor((11 - 24 / 25.4) * 96) },
+};
+
+async function layoutProblems(page: Page) {
+  return page.evaluate(() => {
+    const width = document.documentElement.clientWidth;
+    const problems: string[] = [];
+    if (document.documentElement.scrollWidth > width + 1) problems.push(`page is ${document.documentElement.scrollWidth}px wide for ${width}px`);
+    for (const el of document.querySelectorAll<HTMLElement>('.vw-report svg.recharts-surface, .vw-report table, .vw-report figure')) {
+      const box = el.getBoundingClientRect();
+      if (box.right > width + 1) problems.push(`${el.tagName.toLowerCase()} ends at ${Math.round(box.right)}px`);
+    }
+    return problems;
+  });
+}
+
+const pdfPages = (pdf: Buffer) => (pdf.toString('latin1').match(/\/Type\s*\/Page(?![s\w])/g) ?? []).length;
+
+test('a manager opens the demo block’s report, changes the crop inputs, sees the estimate change, and prints it', async ({ page }) => {
+  await signInAs(page, 'manager@example.com');
+  await page.goto('/reports');
+  await expect(page.getByRole('heading', { name: /^Season \d{4}: all blocks$/ })).toBeVisible();
+  await page.getByRole('link', { name: 'Creek Flat' }).click();
+  await expect(page.getByRole('heading', { level: 1, name: /^Creek Flat: season \d{4}$/ })).toBeVisible();
+  await expect(page.getByTestId('block-facts')).toContainText('Sauvignon Blanc');
+
+  // Figures name the calculation and its inputs.
+  await expect(page.getByTestId('fig-weak')).toContainText(/wilsonInterval\(\d+, \d+, 0\.95\)/);
+  await expect(page.getByTestId('incidence-trunk-injury')).toContainText('95% CI');
+  await expect(page.getByRole('heading', { name: /side by side/ })).toBeVisible();
+  await expect(page.getByTestId('persisted-table')).toContainText('Trunk injury');
+
+  const estimate = page.getByTestId('crop-estimate');
+  const total = page.getByTestId('crop-total');
+  await expect(total).toHaveText(/\d/);
+  const before = (await total.textContent())!;
+  await expect(estimate).toContainText('clustersPerShoot: 1.5');
+
+  const clusters = page.getByLabel('Clusters per shoot');
+  await clusters.fill('-1');
+  await expect(page.getByRole('alert').filter({ hasText: 'Cannot be negative' })).toBeVisible();
+  await expect(clusters).toHaveValue('-1');
+  await expect(estimate).toContainText('Enter the clusters per shoot');
+
+  await clusters.fill('2');
+  await expect(estimate).toContainText('clustersPerShoot: 2,');
+  await expect(total).not.toHaveText(before);
+  await page.getByLabel('Cluster weight').fill('130');
+  await expect(estimate).toContainText('clusterWeightG: 130');
+  await expect(page).toHaveURL(/clustersPerShoot=2/);
+  await expect(page).toHaveURL(/clusterWeightG=130/);
+  const after = (await total.textContent())!;
+  expect(after).not.toBe(before);
+
+  // The estimate follows the inputs in proportion: 2 × 130 over 1.5 × the default weight.
+  const weight = Number((await page.getByLabel('Cluster weight').getAttribute('placeholder'))!);
+  const number = (text: string) => Number(text.replace(/[^\d.]/g, ''));
+  expect(number(after) / number(before)).toBeCloseTo((2 * 130) / (1.5 * weight), 1);
+
+  // On paper: no navigation, toolbar or input boxes; the inputs used are printed instead; charts
+  // and tables stay inside the page at A4 and at US Letter width.
+  await page.emulateMedia({ media: 'print' });
+  for (const [paper, size] of Object.entries(PAPER)) {
+    await page.setViewportSize(size);
+    await expect(page.getByRole('navigation', { name: 'Main' })).toBeHidden();
+    await expect(page.getByTestId('report-toolbar')).toBeHidden();
+    await expect(page.getByLabel('Clusters per shoot')).toBeHidden();
+    await expect(page.getByText(/^Clusters per shoot: 2/)).toBeVisible();
+    await expect(page.getByText(/^Cluster weight: 130/)).toBeVisible();
+    await expect(page.getByTestId('report-chart').first()).toBeVisible();
+    expect(await page.getByTestId('report-chart').count()).toBeGreaterThanOrEqual(4);
+    await expect.poll(() => layoutProblems(page), { message: paper }).toEqual([]);
+    const breakInside = await page.getByTestId('incidence-table').evaluate((t) => getComputedStyle(t).breakInside);
+    expect(breakInside, paper).toBe('avoid');
+  }
+
+  for (const format of ['A4', 'Letter'] as const) {
+    const pdf = await page.pdf({ format, margin: { top: '12mm', bottom: '12mm', left: '12mm', right: '12mm' }, printBackground: true });
+    const pages = pdfPages(pdf);
+    expect(pages, format).toBeGreaterThanOrEqual(3);
+    expect(pages, format).toBeLessThanOrEqual(30);
+  }
+});
+
+test('an advisor reads the estate report and the export’s column list but gets no weight form', async ({ page }) => {
+  await signInAs(page, 'advisor@example.com');
+  await page.goto('/reports');
+  await expect(page.getByTestId('estate-blocks-table')).toContainText('Schoolhouse Slope');
+  await expect(page.getByTestId('estate-incidence-table')).toContainText('Winter bud injury');
+  await page.getByRole('link', { name: 'About the CSV columns' }).click();
+  await expect(page.getByTestId('csv-columns')).toContainText('observation_id');
+  await expect(page.getByTestId('csv-columns')).toContainText('data_json');
+  await page.goto('/reports');
+  await page.getByRole('link', { name: 'Upper Terrace' }).click();
+  await page.getByRole('link', { name: 'Yields and pruning weights' }).click();
+  await expect(page.getByText('Advisors read these weights')).toBeVisible();
+  await expect(page.getByRole('button', { name: 'Save weight' })).toHaveCount(0);
+});
+
+test('a pruner enters a row sample of prunings and sees it listed', async ({ page }) => {
+  await signInAs(page, 'pruner@example.com');
+  await page.goto('/reports');
+  await page.getByRole('link', { name: 'North Bench' }).click();
+  await page.getByRole('link', { name: 'Yields and pruning weights' }).click();
+  await expect(page.getByRole('button', { name: 'Save weight' })).toBeEnabled();
+  await page.getByText('Pruning weight', { exact: true }).click();
+  await page.getByText('Row sample', { exact: true }).click();
+  await page.getByLabel('Row').fill('6');
+  await page.getByLabel('Vines in the sample').fill('10');
+  await page.getByLabel('Weight (kg)').fill('500');
+  await page.getByRole('button', { name: 'Save weight' }).click();
+  await expect(page.getByText(/more than 20 kg is unlikely/)).toBeVisible();
+  await expect(page.getByLabel('Weight (kg)')).toHaveValue('500');
+  await page.getByLabel('Weight (kg)').fill('6.4');
+  await page.getByRole('button', { name: 'Save weight' }).click();
+  await expect(page.getByRole('status').filter({ hasText: 'Saved: row 6 sample' })).toBeVisible();
+  await expect(page.getByTestId('measurement-list')).toContainText('Row 6, sample of 10 vines');
+});
