@@ -12,7 +12,8 @@ import { Notice } from '@/components/ui/field';
 import { getJson, type VineObservation, type VinePanelResponse } from '@/lib/grid/api';
 import { encodeCell } from '@/lib/grid/cells';
 import { formatDay, kindLabel, SEVERITY_LABELS, SLOT_LABELS, vineAddress } from '@/lib/grid/labels';
-import { PLAN_NOTE_CODES, type Severity } from '@/lib/viticulture';
+import { formatLengthMm } from '@/lib/units';
+import { kgToLb, PLAN_NOTE_CODES, type Severity } from '@/lib/viticulture';
 
 interface VinePanelProps {
   blockId: string;
@@ -21,6 +22,7 @@ interface VinePanelProps {
   onClose: () => void;
 }
 
+const formatWeightKg = (kg: number, units: 'metric' | 'imperial') => (units === 'imperial' ? `${kgToLb(kg).toFixed(1)} lb` : `${kg} kg`);
 const planNote = (note: string) => (PLAN_NOTE_CODES.some((c) => note.startsWith(`${c}:`)) ? note.slice(note.indexOf(':') + 1).trim() : note);
 
 function photoFor(o: VineObservation, photoId: string, address: string): ViewerPhoto {
@@ -137,8 +139,8 @@ export function VinePanel({ blockId, row, position, onClose }: VinePanelProps) {
                 </p>
                 <p className="text-sm text-bark-soft">
                   From {data.plan.canes.length} canes measured {data.plan.measuredOn ? formatDay(data.plan.measuredOn) : ''}
-                  {data.plan.pruningWeightKg !== null ? ` and ${data.plan.pruningWeightKg} kg of prunings` : ''}. Canes kept:{' '}
-                  {data.plan.plan.keep.map((i) => `#${i + 1} (${data.plan.canes[i]?.baseDiameterMm} mm)`).join(', ')}.
+                  {data.plan.pruningWeightKg !== null ? ` and ${formatWeightKg(data.plan.pruningWeightKg, data.units)} of prunings` : ''}. Canes kept:{' '}
+                  {data.plan.plan.keep.map((i) => `#${i + 1} (${formatLengthMm(data.plan.canes[i]!.baseDiameterMm, data.units)})`).join(', ')}.
                 </p>
                 {data.plan.plan.notes.length > 0 && (
                   <ul className="list-disc pl-5 text-sm">

@@ -62,6 +62,7 @@ export interface VinePanelResponse {
   plan: VinePlanReading;
   flags: { id: string; text: string; by: string | null; at: string }[];
   comments: { id: string; text: string; by: string | null; at: string }[];
+  units: 'metric' | 'imperial';
   walkUrl: string;
   gridUrl: string;
 }

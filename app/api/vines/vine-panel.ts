@@ -35,6 +35,7 @@ export async function vinePanel(member: Member, vine: VineRow) {
     plan: planFromObservations(vine.trainingSystem, readings),
     flags,
     comments,
+    units: member.unitSystem,
     walkUrl: `/field/blocks/${vine.blockId}/walk?${address}`,
     gridUrl: `/grid/${vine.blockId}?${address}`,
   };
