@@ -10,7 +10,7 @@ import { cropEstimate, labourEstimate, type InputValue } from '@/lib/reports/est
 import { formatCount, formatInterval, formatNumber, formatPercent, formatShare, formatWeightKg } from '@/lib/reports/format';
 import { formatAreaM2, formatLengthM, type UnitSystem } from '@/lib/units';
 import { reportOptionsSchema } from '@/lib/validation/report';
-import { CompareChart, ChartFrame, HistogramChart, IncidenceChart, RowIncidenceChart } from './charts';
+import { CompareChart, ChartFrame, HistogramChart, IncidenceChart, RowCountChart } from './charts';
 import { EstimateInput, PrintedInput } from './estimate-input';
 import { FigureCard, How, ReportTable, Section } from './figure';
 import { ReportToolbar } from './report-toolbar';
@@ -37,6 +37,9 @@ function readInput(key: Key, text: string, input: InputValue): { value: number |
 }
 
 const money = (v: number) => formatNumber(v, 0);
+
+// Long lists are cut on paper; the screen and the CSV keep them whole.
+const PRINTED_ROWS = 20;
 
 export function BlockReportView({ data }: { data: BlockReportResponse }) {
   const { report, comparison, seasons } = data;
@@ -286,14 +289,21 @@ function BlockFacts({ report }: { report: BlockReport }) {
 
 function IncidenceSection({ report }: { report: BlockReport }) {
   const { kinds, rows } = report.incidence;
-  const top = kinds.slice(0, 3);
-  const rowData = rows.map((r) => Object.fromEntries([['row', r.row], ...top.map((k) => [k.kind, r.kinds[k.kind] ? r.kinds[k.kind]!.incidence.estimate * 100 : 0])]));
+  const top = kinds.filter((k) => k.base === 'vines-scouted').sort((a, b) => b.vinesAffected - a.vinesAffected).slice(0, 3);
+  const rowData = rows.map((r) => Object.fromEntries([['row', r.row], ...top.map((k) => [k.kind, r.kinds[k.kind]?.affected ?? 0])]));
   const problemRows = rows.filter((r) => Object.values(r.kinds).some((k) => k.affected > 0));
+  const slotsBased = kinds.some((k) => k.base === 'slots');
   return (
     <Section
       id="incidence"
       title="Incidence by problem"
-      intro={`Share of the ${formatCount(report.scouting.vinesScouted)} vines scouted in ${report.season} whose worst record of the kind is at least "watch", with its 95% Wilson interval.`}
+      intro={
+        <>
+          Share of the {formatCount(report.scouting.vinesScouted)} vines scouted in {report.season} whose worst record of the kind is at least &quot;watch&quot;, with its 95%
+          Wilson interval{slotsBased ? `; missing or dead vines are a share of the block's ${formatCount(report.incidence.slots)} slots` : ''}. Scouts record what they find,
+          so a row where only problems were written down shows a high share of few vines: read the interval and the count beside it.
+        </>
+      }
     >
       {kinds.length === 0 ? (
         <p>Nothing was recorded on this block in {report.season}.</p>
@@ -312,12 +322,12 @@ function IncidenceSection({ report }: { report: BlockReport }) {
               }))}
             />
           </ChartFrame>
-          <ReportTable testId="incidence-table" caption="wilsonInterval(vines with the problem, vines scouted, 0.95) for each kind.">
+          <ReportTable testId="incidence-table" caption="wilsonInterval(vines with the problem, out of, 0.95) for each kind.">
             <thead>
               <tr>
                 <th scope="col">Problem</th>
                 <th scope="col">Vines with it</th>
-                <th scope="col">Vines scouted</th>
+                <th scope="col">Out of</th>
                 <th scope="col">Incidence (95% CI)</th>
                 <th scope="col">Records</th>
               </tr>
@@ -325,11 +335,11 @@ function IncidenceSection({ report }: { report: BlockReport }) {
             <tbody>
               {kinds.map((k) => (
                 <tr key={k.kind} data-kind={k.kind}>
-                  <th scope="row" className="font-bold">
-                    {k.label}
-                  </th>
+                  <th scope="row">{k.label}</th>
                   <td>{formatCount(k.vinesAffected)}</td>
-                  <td>{formatCount(k.vinesScouted)}</td>
+                  <td>
+                    {formatCount(k.outOf)} {k.base === 'slots' ? 'slots' : 'vines scouted'}
+                  </td>
                   <td data-testid={`incidence-${k.kind}`}>{formatInterval(k.incidence)}</td>
                   <td>{formatCount(k.observations)}</td>
                 </tr>
@@ -337,13 +347,16 @@ function IncidenceSection({ report }: { report: BlockReport }) {
             </tbody>
           </ReportTable>
           {rows.length > 1 && top.length > 0 && (
-            <ChartFrame title={`Incidence by row: ${top.map((k) => k.label.toLowerCase()).join(', ')}`} summary={`Incidence across ${rows.length} scouted rows for the three commonest problems.`}>
-              <RowIncidenceChart data={rowData} series={top.map((k) => ({ key: k.kind, label: k.label }))} />
+            <ChartFrame
+              title={`Vines with a problem, row by row: ${top.map((k) => k.label.toLowerCase()).join(', ')}`}
+              summary={`Counts of vines with each of the three commonest problems across ${rows.length} scouted rows.`}
+            >
+              <RowCountChart data={rowData} series={top.map((k) => ({ key: k.kind, label: k.label }))} />
             </ChartFrame>
           )}
           <ReportTable
             testId="row-incidence-table"
-            caption={`Rows with a problem (${problemRows.length} of ${rows.length} rows scouted): vines with it of vines scouted in the row, incidence and 95% Wilson interval.`}
+            caption={`Rows with a problem (${problemRows.length} of ${rows.length} rows): vines with it, share of the row's vines scouted${slotsBased ? ' (of its slots for missing or dead vines)' : ''} and 95% Wilson interval.`}
           >
             <thead>
               <tr>
@@ -358,9 +371,12 @@ function IncidenceSection({ report }: { report: BlockReport }) {
             </thead>
             <tbody>
               {problemRows.map((r) => (
-                <tr key={r.row} data-row={r.row}>
+                <tr key={r.row} data-row={r.row} className={holesOnly(r) ? 'print:hidden' : undefined}>
                   <th scope="row">{r.row}</th>
-                  <td>{r.vinesScouted}</td>
+                  <td>
+                    {r.vinesScouted}
+                    <span className="text-bark-faint"> / {r.slots}</span>
+                  </td>
                   {kinds.map((k) => {
                     const cell = r.kinds[k.kind];
                     return (
@@ -373,11 +389,16 @@ function IncidenceSection({ report }: { report: BlockReport }) {
               ))}
             </tbody>
           </ReportTable>
+          {problemRows.some(holesOnly) && (
+            <p className="hidden text-sm print:block">Rows whose only finding is missing or dead vines are left off paper; they are on screen and under Vines to replant.</p>
+          )}
         </>
       )}
     </Section>
   );
 }
+
+const holesOnly = (r: BlockReport['incidence']['rows'][number]) => Object.entries(r.kinds).every(([kind, k]) => kind === 'missing-vine' || k.affected === 0);
 
 function BudbreakSection({ report }: { report: BlockReport }) {
   const b = report.budbreak;
@@ -591,8 +612,8 @@ function BalanceSection({ report }: { report: BlockReport }) {
               </tr>
             </thead>
             <tbody>
-              {r.units.slice(0, 30).map((u) => (
-                <tr key={`${u.row}:${u.position}`}>
+              {r.units.slice(0, 30).map((u, i) => (
+                <tr key={`${u.row}:${u.position}`} className={i >= PRINTED_ROWS ? 'print:hidden' : undefined}>
                   <td>{u.position === null ? `Row ${u.row}, ${u.vines} vines` : vineAddress(u.row, u.position, report.block.vinesPerPanel)}</td>
                   <td>{formatWeightKg(u.yieldKgPerVine, report.units, 2)}</td>
                   <td>{formatWeightKg(u.pruningKgPerVine, report.units, 2)}</td>
@@ -602,7 +623,8 @@ function BalanceSection({ report }: { report: BlockReport }) {
               ))}
             </tbody>
           </ReportTable>
-          {r.units.length > 30 && <p className="text-sm text-bark-soft">The first 30 of {r.units.length} vines or samples, by row.</p>}
+          {r.units.length > 30 && <p className="text-sm text-bark-soft print:hidden">The first 30 of {r.units.length} vines or samples, by row.</p>}
+          {r.units.length > PRINTED_ROWS && <p className="hidden text-sm print:block">The first {PRINTED_ROWS} of {r.units.length} vines or samples, by row; all of them on screen.</p>}
         </>
       )}
     </Section>
@@ -746,8 +768,8 @@ function CompareSection({ comparison, vinesPerPanel }: { comparison: NonNullable
               </tr>
             </thead>
             <tbody>
-              {c.persisted.vines.map((v) => (
-                <tr key={`${v.row}:${v.position}:${v.kind}`}>
+              {c.persisted.vines.map((v, i) => (
+                <tr key={`${v.row}:${v.position}:${v.kind}`} className={i >= PRINTED_ROWS ? 'print:hidden' : undefined}>
                   <td>{vineAddress(v.row, v.position, vinesPerPanel)}</td>
                   <td>{kindLabel(v.kind)}</td>
                   <td>{v.before}</td>
@@ -759,6 +781,7 @@ function CompareSection({ comparison, vinesPerPanel }: { comparison: NonNullable
               ))}
             </tbody>
           </ReportTable>
+          {c.persisted.shown > PRINTED_ROWS && <p className="hidden text-sm print:block">The worst {PRINTED_ROWS} printed; {c.persisted.shown} on screen.</p>}
         </>
       )}
     </Section>

@@ -9,8 +9,6 @@ import {
   ErrorBar,
   LabelList,
   Legend,
-  Line,
-  LineChart,
   ReferenceLine,
   Tooltip,
   XAxis,
@@ -89,11 +87,13 @@ export interface IncidenceDatum {
 
 export function IncidenceChart({ data, height }: { data: IncidenceDatum[]; height?: number }) {
   const h = height ?? Math.max(160, 44 * data.length + 40);
+  // Up to the highest interval end, rounded up to the next 10%, so small shares are not lost in white space.
+  const top = Math.min(100, Math.ceil(Math.max(10, ...data.map((d) => d.percent + d.error[1])) / 10) * 10);
   return (
     <BarChart responsive style={chartStyle(h)} data={data} layout="vertical" margin={{ top: 4, right: 40, bottom: 20, left: 8 }}>
       <CartesianGrid stroke={GRID} horizontal={false} />
-      <XAxis type="number" domain={[0, 100]} unit="%" tick={FONT} label={{ value: 'Vines scouted with the problem (bars: 95% interval)', position: 'insideBottom', offset: -14, ...FONT }} />
-      <YAxis type="category" dataKey="label" tick={FONT} width={150} />
+      <XAxis type="number" domain={[0, top]} unit="%" tick={FONT} label={{ value: 'Share with the problem (whiskers: 95% interval)', position: 'insideBottom', offset: -14, ...FONT }} />
+      <YAxis type="category" dataKey="label" tick={FONT} width={120} interval={0} />
       <Tooltip formatter={(v) => `${Number(v).toFixed(1)}%`} />
       <Bar dataKey="percent" name="Incidence" isAnimationActive={false} fill={DARK} stroke={INK}>
         <ErrorBar dataKey="error" width={6} strokeWidth={2} stroke={INK} direction="x" />
@@ -108,37 +108,22 @@ export interface RowSeries {
   label: string;
 }
 
-const LINE_STYLES = [
-  { stroke: INK, dash: undefined },
-  { stroke: DARK, dash: '6 3' },
-  { stroke: MID, dash: '2 3' },
-  { stroke: INK, dash: '10 4 2 4' },
-];
+const SERIES_FILLS = [DARK, 'url(#vw-hatch-row)', '#c9c2b0'];
 
-/** Incidence by row for a few kinds: solid, dashed and dotted lines tell them apart without colour. */
-export function RowIncidenceChart({ data, series, height = 240 }: { data: Record<string, number | null>[]; series: RowSeries[]; height?: number }) {
+/** Vines with each problem, row by row, stacked: dark, hatched and pale tell the kinds apart without colour. */
+export function RowCountChart({ data, series, height = 240 }: { data: Record<string, number | null>[]; series: RowSeries[]; height?: number }) {
   return (
-    <LineChart responsive style={chartStyle(height)} data={data} margin={{ top: 8, right: 12, bottom: 20, left: 4 }}>
-      <CartesianGrid stroke={GRID} />
-      <XAxis dataKey="row" tick={FONT} label={{ value: 'Row', position: 'insideBottom', offset: -12, ...FONT }} />
-      <YAxis unit="%" domain={[0, 100]} tick={FONT} width={48} />
-      <Tooltip formatter={(v) => (v === null ? '–' : `${Number(v).toFixed(0)}%`)} />
+    <BarChart responsive style={chartStyle(height)} data={data} margin={{ top: 8, right: 12, bottom: 20, left: 4 }} barCategoryGap={0}>
+      {hatch('vw-hatch-row')}
+      <CartesianGrid stroke={GRID} vertical={false} />
+      <XAxis dataKey="row" tick={FONT} minTickGap={12} label={{ value: 'Row', position: 'insideBottom', offset: -12, ...FONT }} />
+      <YAxis allowDecimals={false} tick={FONT} width={40} label={{ value: 'Vines', angle: -90, position: 'insideLeft', ...FONT }} />
+      <Tooltip />
       <Legend verticalAlign="top" height={28} wrapperStyle={{ fontSize: 12, color: INK }} />
       {series.map((s, i) => (
-        <Line
-          key={s.key}
-          dataKey={s.key}
-          name={s.label}
-          type="linear"
-          stroke={LINE_STYLES[i % LINE_STYLES.length]!.stroke}
-          strokeDasharray={LINE_STYLES[i % LINE_STYLES.length]!.dash}
-          strokeWidth={2}
-          dot={false}
-          connectNulls
-          isAnimationActive={false}
-        />
+        <Bar key={s.key} dataKey={s.key} name={s.label} stackId="kinds" fill={SERIES_FILLS[i % SERIES_FILLS.length]} stroke={INK} strokeWidth={0.5} isAnimationActive={false} />
       ))}
-    </LineChart>
+    </BarChart>
   );
 }
 
@@ -156,7 +141,7 @@ export function CompareChart({ data, before, now, unit = '%', height }: { data: 
       {hatch('vw-hatch-before')}
       <CartesianGrid stroke={GRID} horizontal={false} />
       <XAxis type="number" unit={unit} tick={FONT} />
-      <YAxis type="category" dataKey="label" tick={FONT} width={150} />
+      <YAxis type="category" dataKey="label" tick={FONT} width={120} interval={0} />
       <Tooltip formatter={(v) => (v === null ? '–' : `${Number(v).toFixed(1)}${unit}`)} />
       <Legend verticalAlign="top" height={28} wrapperStyle={{ fontSize: 12, color: INK }} />
       <Bar dataKey="before" name={before} isAnimationActive={false} fill="url(#vw-hatch-before)" stroke={INK}>

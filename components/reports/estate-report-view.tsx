@@ -30,7 +30,12 @@ export function EstateReportView({ data, organisationName, units }: { data: Esta
       <Section id="estate-glance" title="The estate at a glance">
         <div className="grid gap-3 sm:grid-cols-2 lg:grid-cols-4 print:grid-cols-4">
           <FigureCard testId="estate-scouted" label="Vines scouted" value={`${formatCount(totals.vinesScouted)} of ${formatCount(totals.standing)}`} from="distinct vines with any record in the season, over standing vines" />
-          <FigureCard label="Crop estimate" value={totals.cropKg === null ? 'some blocks need inputs' : formatWeightKg(totals.cropKg, units)} from="sum of each block's estimate at its default inputs" />
+          <FigureCard
+            testId="estate-crop"
+            label="Crop estimate"
+            value={formatWeightKg(totals.cropKg, units)}
+            from={`sum of each block's estimate at its default inputs${totals.cropBlocksWithout ? `; ${totals.cropBlocksWithout} of ${blocks.length} blocks have no budbreak checks or pruning records this season, so no estimate (open the block to enter them)` : ''}`}
+          />
           <FigureCard
             label="Pruning labour"
             value={totals.labourHours === null ? '–' : `${formatCount(Math.round(totals.labourHours))} h`}
@@ -84,12 +89,16 @@ export function EstateReportView({ data, organisationName, units }: { data: Esta
         )}
       </Section>
 
-      <Section id="estate-incidence" title="Incidence by problem and block" intro="Vines whose worst record of the kind is at least “watch”, over the vines scouted, with 95% Wilson intervals.">
+      <Section
+        id="estate-incidence"
+        title="Incidence by problem and block"
+        intro="Vines whose worst record of the kind is at least “watch”, over the vines scouted (missing or dead vines over the slots), with 95% Wilson intervals."
+      >
         {kinds.length === 0 ? (
           <p>Nothing was recorded in {season}.</p>
         ) : (
           <>
-            <ReportTable testId="estate-incidence-table" caption="wilsonInterval(vines with the problem, vines scouted, 0.95): the estate as a whole, then block by block.">
+            <ReportTable testId="estate-incidence-table" caption="wilsonInterval(vines with the problem, out of, 0.95): the estate as a whole, then block by block.">
               <thead>
                 <tr>
                   <th scope="col">Problem</th>

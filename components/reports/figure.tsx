@@ -41,7 +41,10 @@ export function Section({ id, title, intro, children }: { id: string; title: str
 export function ReportTable({ caption, children, testId }: { caption: ReactNode; children: ReactNode; testId?: string }) {
   return (
     <div className="vw-table overflow-x-auto print:overflow-visible">
-      <table className="w-full border-collapse text-left text-sm [&_td]:border-b [&_td]:border-line [&_td]:px-2 [&_td]:py-1 [&_th]:border-b-2 [&_th]:border-bark [&_th]:px-2 [&_th]:py-1" data-testid={testId}>
+      <table
+        className="w-full border-collapse text-left text-sm [&_tbody_th]:border-b [&_tbody_th]:border-line [&_tbody_th]:font-bold [&_td]:border-b [&_td]:border-line [&_td]:px-2 [&_td]:py-1 [&_th]:px-2 [&_th]:py-1 [&_thead_th]:border-b-2 [&_thead_th]:border-bark [&_thead_th]:align-bottom"
+        data-testid={testId}
+      >
         <caption className="caption-top pb-1 text-left text-sm text-bark-soft">{caption}</caption>
         {children}
       </table>

@@ -2,8 +2,8 @@
 
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import { useState } from 'react';
-import { useForm, type FieldPath } from 'react-hook-form';
+import { useRef, useState } from 'react';
+import { useForm, type FieldPath, type Resolver } from 'react-hook-form';
 import { api, ApiError } from '@/components/blocks/api';
 import { Button } from '@/components/ui/button';
 import { Field, Input, Notice } from '@/components/ui/field';
@@ -100,12 +100,37 @@ export function Measurements({ block, season, units, canRecord, canRemoveAny, us
   );
 }
 
+/**
+ * The shared schema, after the form's choices are applied: a row sample has no vine number, a single
+ * vine is one vine, and only a yield counts clusters. What a hidden box still holds never blocks saving.
+ */
+function scoped(sample: { current: boolean }): Resolver<MeasurementFormValues, unknown, MeasurementInput> {
+  const resolve = zodResolver(measurementSchema);
+  return (values, context, options) =>
+    resolve(
+      {
+        ...values,
+        position: sample.current ? null : values.position,
+        vines: sample.current ? values.vines : 1,
+        clusters: values.kind === 'yield' ? values.clusters : null,
+      },
+      context,
+      options,
+    );
+}
+
 function MeasurementForm({ block, season, units, onSaved }: { block: MeasurementsProps['block']; season: number; units: UnitSystem; onSaved: () => void }) {
   const [message, setMessage] = useState<{ tone: 'ok' | 'error'; text: string }>();
-  const [sample, setSample] = useState(false);
+  const [sample, setSampleState] = useState(false);
+  // Read by the resolver, which the form keeps from its first render.
+  const sampleRef = useRef(false);
+  const setSample = (on: boolean) => {
+    sampleRef.current = on;
+    setSampleState(on);
+  };
   const today = new Date().toISOString().slice(0, 10);
   const form = useForm<MeasurementFormValues, unknown, MeasurementInput>({
-    resolver: zodResolver(measurementSchema),
+    resolver: scoped(sampleRef),
     defaultValues: {
       blockId: block.id,
       kind: 'yield',
@@ -139,9 +164,14 @@ function MeasurementForm({ block, season, units, onSaved }: { block: Measurement
   const onSubmit = form.handleSubmit(
     (input) => {
       setMessage(undefined);
-      save.mutate({ ...input, position: sample ? null : input.position, vines: sample ? input.vines : 1, clusters: input.kind === 'yield' ? input.clusters : null });
+      save.mutate(input);
     },
-    () => setMessage({ tone: 'error', text: 'Some fields need attention; see the messages next to them.' }),
+    (invalid) => {
+      // Fields not on screen (a vine number behind "Row sample") still say what is wrong.
+      const shown = new Set(['row', 'weight', 'measuredOn', 'note', sample ? 'vines' : 'position', ...(kind === 'yield' ? ['clusters'] : [])]);
+      const hidden = Object.entries(invalid).filter(([name]) => !shown.has(name)).map(([, e]) => e?.message).filter(Boolean);
+      setMessage({ tone: 'error', text: ['Some fields need attention; see the messages next to them.', ...hidden].join(' ') });
+    },
   );
   const err = (name: FieldPath<MeasurementFormValues>) => errors[name as keyof typeof errors]?.message as string | undefined;
   const weightWord = units === 'metric' ? 'kg' : 'lb';

@@ -4,9 +4,12 @@
  * `from` (the records behind it), so the page, the API and the tests read the same numbers.
  *
  * Counting rules, stated once:
- * - A vine is "scouted" in a season when it has any live record then, of any kind or status.
+ * - A vine is "scouted" in a season when it has any live record then, of any kind or status, other
+ *   than a missing-vine record: a hole is found without looking at a vine.
  * - A vine "has" a kind when its worst record of that kind in the season is at least "watch" (1).
  *   Closed records count: the report is the season's history, not today's to-do list.
+ * - Incidence of a kind is over the vines scouted; missing or dead vines are over the slots, since
+ *   the stand of every slot is known whether or not anyone looked at the vine beside it.
  * - Budbreak, pruning records and winter bud-injury samples: each vine counts once, with its
  *   latest record of the season. Canes count one per record (each record is one cane).
  */
@@ -91,9 +94,11 @@ export interface KindRowCount {
   observations: number;
 }
 
+/** Per row: vines scouted (any record but a missing-vine one) and planting slots. */
 export interface ScoutedRow {
   row: number;
   vines: number;
+  slots: number;
 }
 
 export interface MeasuredObservation {
@@ -181,12 +186,17 @@ export interface Figure {
   from: string;
 }
 
+/** What a kind's incidence is a share of: the vines scouted, or (for missing and dead vines) the slots. */
+export type IncidenceBase = 'vines-scouted' | 'slots';
+
 export interface KindIncidence {
   kind: string;
   label: string;
   vinesAffected: number;
   vinesRecorded: number;
-  vinesScouted: number;
+  base: IncidenceBase;
+  /** The count the incidence is a share of. */
+  outOf: number;
   observations: number;
   incidence: ProportionInterval;
   how: string;
@@ -195,8 +205,11 @@ export interface KindIncidence {
 export interface RowIncidence {
   row: number;
   vinesScouted: number;
-  kinds: Record<string, { affected: number; incidence: ProportionInterval }>;
+  slots: number;
+  kinds: Record<string, { affected: number; outOf: number; incidence: ProportionInterval }>;
 }
+
+export const baseOf = (kind: string): IncidenceBase => (kind === 'missing-vine' ? 'slots' : 'vines-scouted');
 
 export interface HistogramBin {
   label: string;
@@ -317,7 +330,8 @@ export interface BlockReport {
   units: UnitSystem;
   slots: SlotCounts & { standing: number; bearing: number; total: number };
   scouting: { vinesScouted: number; observations: number; coverage: Figure };
-  incidence: { kinds: KindIncidence[]; rows: RowIncidence[] };
+  /** `slots` is the count missing and dead vines are a share of. */
+  incidence: { kinds: KindIncidence[]; rows: RowIncidence[]; slots: number };
   budbreak: BudbreakSection | null;
   canes: CaneSection | null;
   budLoad: BudLoadSection | null;
@@ -366,10 +380,13 @@ export function formulaFor(options: ReportOptions, settings: ViticultureSettings
 }
 
 function incidenceSection(input: BlockReportInput) {
-  const scoutedByRow = new Map(input.scoutedRows.map((r) => [r.row, r.vines]));
+  const byRow = new Map(input.scoutedRows.map((r) => [r.row, r]));
   const vinesScouted = input.scoutedRows.reduce((a, r) => a + r.vines, 0);
+  const slots = input.scoutedRows.reduce((a, r) => a + r.slots, 0);
   const totals = new Map<string, { affected: number; recorded: number; observations: number }>();
-  const rows = new Map<number, RowIncidence>();
+  const rows = new Map<number, RowIncidence>(
+    input.scoutedRows.filter((r) => r.vines > 0).map((r) => [r.row, { row: r.row, vinesScouted: r.vines, slots: r.slots, kinds: {} }]),
+  );
   for (const r of input.kindRows) {
     if (r.kind === 'note') continue;
     const t = totals.get(r.kind) ?? { affected: 0, recorded: 0, observations: 0 };
@@ -377,29 +394,33 @@ function incidenceSection(input: BlockReportInput) {
     t.recorded += r.recorded;
     t.observations += r.observations;
     totals.set(r.kind, t);
-    const scouted = scoutedByRow.get(r.row) ?? 0;
-    if (scouted === 0) continue;
-    const row = rows.get(r.row) ?? { row: r.row, vinesScouted: scouted, kinds: {} };
-    row.kinds[r.kind] = { affected: r.affected, incidence: wilsonInterval(r.affected, scouted) };
+    const counts = byRow.get(r.row);
+    const outOf = baseOf(r.kind) === 'slots' ? (counts?.slots ?? 0) : (counts?.vines ?? 0);
+    if (!counts || outOf === 0) continue;
+    const row = rows.get(r.row) ?? { row: r.row, vinesScouted: counts.vines, slots: counts.slots, kinds: {} };
+    row.kinds[r.kind] = { affected: r.affected, outOf, incidence: wilsonInterval(Math.min(r.affected, outOf), outOf) };
     rows.set(r.row, row);
   }
-  const kinds: KindIncidence[] = vinesScouted
-    ? [...totals.entries()]
-        .map(([kind, t]) => ({
-          kind,
-          label: kindLabel(kind),
-          vinesAffected: t.affected,
-          vinesRecorded: t.recorded,
-          vinesScouted,
-          observations: t.observations,
-          incidence: wilsonInterval(t.affected, vinesScouted),
-          how: call('wilsonInterval', t.affected, vinesScouted, 0.95),
-        }))
-        .sort((a, b) => b.incidence.estimate - a.incidence.estimate || a.label.localeCompare(b.label))
-    : [];
-  // Rows with nothing scouted have no incidence to show; rows scouted but without findings still do.
-  for (const [row, vines] of scoutedByRow) if (!rows.has(row) && vines > 0) rows.set(row, { row, vinesScouted: vines, kinds: {} });
-  return { vinesScouted, kinds, rows: [...rows.values()].sort((a, b) => a.row - b.row) };
+  const kinds: KindIncidence[] = [];
+  for (const [kind, t] of totals) {
+    const base = baseOf(kind);
+    const outOf = base === 'slots' ? slots : vinesScouted;
+    if (outOf === 0) continue;
+    const affected = Math.min(t.affected, outOf);
+    kinds.push({
+      kind,
+      label: kindLabel(kind),
+      vinesAffected: t.affected,
+      vinesRecorded: t.recorded,
+      base,
+      outOf,
+      observations: t.observations,
+      incidence: wilsonInterval(affected, outOf),
+      how: call('wilsonInterval', affected, outOf, 0.95),
+    });
+  }
+  kinds.sort((a, b) => b.incidence.estimate - a.incidence.estimate || a.label.localeCompare(b.label));
+  return { vinesScouted, slots, kinds, rows: [...rows.values()].sort((a, b) => a.row - b.row) };
 }
 
 function budbreakSection(input: BlockReportInput, s: ViticultureSettings): BudbreakSection | null {
@@ -865,11 +886,11 @@ export function buildBlockReport(input: BlockReportInput): BlockReport {
         label: 'Vines scouted',
         value: coverage ? incidence.vinesScouted / coverage : null,
         text: coverage ? `${formatCount(incidence.vinesScouted)} of ${formatCount(coverage)} standing vines (${formatShare(incidence.vinesScouted / coverage)})` : '–',
-        how: 'distinct vines with any live record in the season ÷ standing vines (planted + replant slots)',
+        how: 'distinct vines with any live record in the season (missing-vine records aside) ÷ standing vines (planted + replant slots)',
         from: `${formatCount(input.observations)} live records of ${input.season}`,
       },
     },
-    incidence: { kinds: incidence.kinds, rows: incidence.rows },
+    incidence: { kinds: incidence.kinds, rows: incidence.rows, slots: incidence.slots },
     budbreak,
     canes: caneSection(input, s),
     budLoad,

@@ -1,13 +1,14 @@
 /** The estate's season across all blocks: each block's headline figures and the estate totals. */
 import { wilsonInterval, type ProportionInterval } from '@/lib/viticulture';
-import type { BlockReport } from './block-report';
+import { baseOf, type BlockReport, type IncidenceBase } from './block-report';
 import { call } from './format';
 
 export interface EstateKind {
   kind: string;
   label: string;
   vinesAffected: number;
-  vinesScouted: number;
+  base: IncidenceBase;
+  outOf: number;
   incidence: ProportionInterval;
   how: string;
   byBlock: Record<string, ProportionInterval | null>;
@@ -20,7 +21,9 @@ export interface EstateReport {
   totals: {
     vinesScouted: number;
     standing: number;
-    cropKg: number | null;
+    /** Over the blocks whose estimate has every input; `cropBlocksWithout` says how many have not. */
+    cropKg: number;
+    cropBlocksWithout: number;
     labourHours: number | null;
     labourCost: number | null;
     replant: number;
@@ -42,6 +45,7 @@ export function buildEstateReport(season: number, blocks: BlockReport[]): Estate
     }
   }
   const scouted = blocks.reduce((a, b) => a + b.scouting.vinesScouted, 0);
+  const slots = blocks.reduce((a, b) => a + b.incidence.slots, 0);
   const stock = new Map<string, { clone: string; rootstock: string; vines: number }>();
   for (const b of blocks) {
     for (const s of b.replant.byStock) {
@@ -51,26 +55,39 @@ export function buildEstateReport(season: number, blocks: BlockReport[]): Estate
       stock.set(key, entry);
     }
   }
+  const estateKinds: EstateKind[] = [];
+  for (const k of kinds.values()) {
+    const base = baseOf(k.kind);
+    const outOf = base === 'slots' ? slots : scouted;
+    if (outOf === 0) continue;
+    const affected = Math.min(k.affected, outOf);
+    estateKinds.push({
+      kind: k.kind,
+      label: k.label,
+      vinesAffected: k.affected,
+      base,
+      outOf,
+      incidence: wilsonInterval(affected, outOf),
+      how: call('wilsonInterval', affected, outOf, 0.95),
+      byBlock: Object.fromEntries(
+        blocks.map((b) => {
+          const found = b.incidence.kinds.find((x) => x.kind === k.kind);
+          const blockOutOf = base === 'slots' ? b.incidence.slots : b.scouting.vinesScouted;
+          return [b.block.id, found ? found.incidence : blockOutOf ? wilsonInterval(0, blockOutOf) : null];
+        }),
+      ),
+    });
+  }
+  estateKinds.sort((a, b) => b.incidence.estimate - a.incidence.estimate || a.label.localeCompare(b.label));
   return {
     season,
     blocks,
-    kinds: scouted
-      ? [...kinds.values()]
-          .map((k) => ({
-            kind: k.kind,
-            label: k.label,
-            vinesAffected: k.affected,
-            vinesScouted: scouted,
-            incidence: wilsonInterval(k.affected, scouted),
-            how: call('wilsonInterval', k.affected, scouted, 0.95),
-            byBlock: Object.fromEntries(blocks.map((b) => [b.block.id, b.incidence.kinds.find((x) => x.kind === k.kind)?.incidence ?? (b.scouting.vinesScouted ? wilsonInterval(0, b.scouting.vinesScouted) : null)])),
-          }))
-          .sort((a, b) => b.incidence.estimate - a.incidence.estimate || a.label.localeCompare(b.label))
-      : [],
+    kinds: estateKinds,
     totals: {
       vinesScouted: scouted,
       standing: blocks.reduce((a, b) => a + b.slots.standing, 0),
-      cropKg: sum(blocks.map((b) => b.crop.estimate.kg)),
+      cropKg: blocks.reduce((a, b) => a + (b.crop.estimate.kg ?? 0), 0),
+      cropBlocksWithout: blocks.filter((b) => b.crop.estimate.kg === null).length,
       labourHours: sum(blocks.map((b) => b.labour.estimate.hours)),
       labourCost: sum(blocks.map((b) => b.labour.estimate.cost)),
       replant: blocks.reduce((a, b) => a + b.replant.total, 0),

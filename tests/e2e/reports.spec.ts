@@ -93,6 +93,11 @@ test('a manager opens the demo block’s report, changes the crop inputs, sees t
 
 test('an advisor reads the estate report and the export’s column list but gets no weight form', async ({ page }) => {
   await signInAs(page, 'advisor@example.com');
+  // The advisor also consults for a grower with no blocks yet, and starts there.
+  await page.goto('/reports');
+  await expect(page.getByText('There are no blocks yet')).toBeVisible();
+  await page.getByLabel('Organisation').selectOption({ label: 'Ninefold Ridge Estate (advisor)' });
+  await expect(page).not.toHaveURL(/\/reports/);
   await page.goto('/reports');
   await expect(page.getByTestId('estate-blocks-table')).toContainText('Schoolhouse Slope');
   await expect(page.getByTestId('estate-incidence-table')).toContainText('Winter bud injury');
@@ -114,7 +119,7 @@ test('a pruner enters a row sample of prunings and sees it listed', async ({ pag
   await expect(page.getByRole('button', { name: 'Save weight' })).toBeEnabled();
   await page.getByText('Pruning weight', { exact: true }).click();
   await page.getByText('Row sample', { exact: true }).click();
-  await page.getByLabel('Row').fill('6');
+  await page.getByLabel('Row', { exact: true }).fill('6');
   await page.getByLabel('Vines in the sample').fill('10');
   await page.getByLabel('Weight (kg)').fill('500');
   await page.getByRole('button', { name: 'Save weight' }).click();

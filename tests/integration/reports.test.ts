@@ -117,37 +117,38 @@ async function report(query = '', client = manager) {
 describe('GET /api/reports/blocks/:blockId', () => {
   it('counts incidence per kind over the vines scouted, with Wilson bounds, closed records in and deleted ones out', async () => {
     const { report: r } = await report();
-    // Vines with any live 2024 record: r1 v1–v4, r2 v1–v5 and v9, r3 v1, v5, v10.
-    expect(r.scouting.vinesScouted).toBe(13);
+    // Vines with a live 2024 record other than a missing-vine one: r1 v1–v4, r2 v1–v5 and v9, r3 v1 and v5.
+    expect(r.scouting.vinesScouted).toBe(12);
     const kinds = Object.fromEntries(r.incidence.kinds.map((k: { kind: string }) => [k.kind, k]));
     // Worst of the season per vine: vine 1/1's early check (36%) makes it a weak-budbreak vine here.
-    const expected: Record<string, number> = {
-      'weak-budbreak': 4, // r1v1, r1v2 (71%), r1v3 (15%), r2v2 (39%)
-      'trunk-injury': 3, // r1v2, r3v5, r2v9 (closed, still this season's)
-      'missing-vine': 2, // r2v9, r3v10
-      'bud-injury': 2, // 35% and 45% kill
-      'shade-cane': 1,
-      'cane-diameter': 1, // the 5.5 mm cane is thin
-      'pruning-record': 1, // r1v1 kept 28 buds against a target of 44
+    const expected: Record<string, [number, number]> = {
+      'weak-budbreak': [4, 12], // r1v1, r1v2 (71%), r1v3 (15%), r2v2 (39%)
+      'trunk-injury': [3, 12], // r1v2, r3v5, r2v9 (closed, still this season's)
+      'bud-injury': [2, 12], // 35% and 45% kill
+      'shade-cane': [1, 12],
+      'cane-diameter': [1, 12], // the 5.5 mm cane is thin
+      'pruning-record': [1, 12], // r1v1 kept 28 buds against a target of 44
+      'missing-vine': [2, 30], // r2v9, r3v10, out of the block's 30 slots
     };
     expect(Object.keys(kinds).sort()).toEqual(Object.keys(expected).sort());
-    for (const [kind, affected] of Object.entries(expected)) {
-      const w = wilson(affected, 13);
-      expect(kinds[kind].vinesAffected, kind).toBe(affected);
+    for (const [kind, [affected, outOf]] of Object.entries(expected)) {
+      const w = wilson(affected, outOf);
+      expect([kinds[kind].vinesAffected, kinds[kind].outOf], kind).toEqual([affected, outOf]);
       expect(kinds[kind].incidence.estimate, kind).toBeCloseTo(w.estimate, 12);
       expect(kinds[kind].incidence.lower, kind).toBeCloseTo(w.lower, 12);
       expect(kinds[kind].incidence.upper, kind).toBeCloseTo(w.upper, 12);
     }
   });
 
-  it('gives each row its own incidence over the vines scouted in it', async () => {
+  it('gives each row its own incidence over the vines scouted in it, and over its slots for missing vines', async () => {
     const { report: r } = await report();
     const rows = Object.fromEntries(r.incidence.rows.map((row: { row: number }) => [row.row, row]));
-    expect([rows[1].vinesScouted, rows[2].vinesScouted, rows[3].vinesScouted]).toEqual([4, 6, 3]);
+    expect([rows[1].vinesScouted, rows[2].vinesScouted, rows[3].vinesScouted]).toEqual([4, 6, 2]);
     expect(rows[1].kinds['weak-budbreak'].affected).toBe(3);
     expect(rows[1].kinds['weak-budbreak'].incidence.lower).toBeCloseTo(wilson(3, 4).lower, 12);
     expect(rows[2].kinds['trunk-injury'].incidence.upper).toBeCloseTo(wilson(1, 6).upper, 12);
-    expect(rows[3].kinds['missing-vine'].incidence.estimate).toBeCloseTo(1 / 3, 12);
+    expect(rows[3].kinds['missing-vine']).toMatchObject({ affected: 1, outOf: 10 });
+    expect(rows[3].kinds['missing-vine'].incidence.upper).toBeCloseTo(wilson(1, 10).upper, 12);
   });
 
   it('reads budbreak from each vine’s latest check: the pooled share, the weak share and its interval', async () => {
@@ -254,7 +255,7 @@ describe('GET /api/reports/blocks/:blockId', () => {
   it('sets the season before beside it and lists the vines whose problems persisted', async () => {
     const { comparison } = await report();
     expect(comparison.previous).toBe(2023);
-    expect(comparison.rows.find((row: { label: string }) => row.label === 'Vines scouted')).toMatchObject({ before: 3, now: 13 });
+    expect(comparison.rows.find((row: { label: string }) => row.label === 'Vines scouted')).toMatchObject({ before: 3, now: 12 });
     expect(comparison.persisted.total).toBe(2);
     expect(comparison.persisted.vines).toEqual([
       { row: 1, position: 2, kind: 'trunk-injury', before: 2, now: 3 },
@@ -298,7 +299,7 @@ describe('GET /api/reports', () => {
     const estate = await res.json();
     expect(estate.blocks.map((b: { block: { id: string } }) => b.block.id)).toEqual([block.id]);
     const trunk = estate.kinds.find((k: { kind: string }) => k.kind === 'trunk-injury');
-    expect(trunk.incidence.upper).toBeCloseTo(wilson(3, 13).upper, 12);
+    expect(trunk.incidence.upper).toBeCloseTo(wilson(3, 12).upper, 12);
     expect(estate.totals.replant).toBe(2);
   });
 });

@@ -43,10 +43,11 @@ function input(over: Partial<BlockReportInput> = {}): BlockReportInput {
       { row: 2, kind: 'weak-budbreak', recorded: 1, affected: 0, observations: 1 },
       { row: 2, kind: 'trunk-injury', recorded: 1, affected: 1, observations: 1 },
       { row: 2, kind: 'note', recorded: 1, affected: 0, observations: 1 },
+      { row: 2, kind: 'missing-vine', recorded: 1, affected: 1, observations: 1 },
     ],
     scoutedRows: [
-      { row: 1, vines: 3 },
-      { row: 2, vines: 2 },
+      { row: 1, vines: 3, slots: 5 },
+      { row: 2, vines: 2, slots: 5 },
     ],
     observations: 7,
     measured: [
@@ -89,7 +90,7 @@ describe('block report assembly', () => {
 
   it('counts incidence over the vines scouted, block and row, with Wilson intervals, leaving notes out', () => {
     expect(report.scouting.vinesScouted).toBe(5);
-    expect(report.incidence.kinds.map((k) => k.kind)).toEqual(['weak-budbreak', 'trunk-injury']);
+    expect(report.incidence.kinds.map((k) => k.kind)).toEqual(['weak-budbreak', 'trunk-injury', 'missing-vine']);
     const budbreak = report.incidence.kinds[0]!;
     expect(budbreak.vinesAffected).toBe(2);
     expect(budbreak.incidence.lower).toBeCloseTo(wilson(2, 5).lower, 12);
@@ -98,6 +99,13 @@ describe('block report assembly', () => {
     const row1 = report.incidence.rows.find((r) => r.row === 1)!;
     expect(row1.kinds['weak-budbreak']!.incidence.upper).toBeCloseTo(wilson(2, 3).upper, 12);
     expect(report.incidence.rows.find((r) => r.row === 2)!.kinds.note).toBeUndefined();
+  });
+
+  it('counts missing and dead vines against the slots, which are known whether or not a vine was looked at', () => {
+    const missing = report.incidence.kinds.find((k) => k.kind === 'missing-vine')!;
+    expect(missing).toMatchObject({ base: 'slots', outOf: 10, vinesAffected: 1, how: 'wilsonInterval(1, 10, 0.95)' });
+    expect(missing.incidence.upper).toBeCloseTo(wilson(1, 10).upper, 12);
+    expect(report.incidence.rows.find((r) => r.row === 2)!.kinds['missing-vine']).toMatchObject({ affected: 1, outOf: 5 });
   });
 
   it('reads budbreak from each vine’s latest check: pooled share, weak vines and a ten-band histogram', () => {
@@ -202,7 +210,7 @@ describe('block report assembly', () => {
   });
 
   it('leaves sections out when nothing was recorded for them, and asks for the inputs it cannot default', () => {
-    const empty = buildBlockReport(input({ kindRows: [], scoutedRows: [], measured: [], measurements: [], observations: 0 }));
+    const empty = buildBlockReport(input({ kindRows: [], scoutedRows: [{ row: 1, vines: 0, slots: 5 }], measured: [], measurements: [], observations: 0 }));
     expect(empty.budbreak).toBeNull();
     expect(empty.canes).toBeNull();
     expect(empty.budLoad).toBeNull();
@@ -236,7 +244,7 @@ describe('estimates', () => {
 describe('year over year', () => {
   it('sets both seasons’ figures side by side and lists persisting problems by kind', () => {
     const now = buildBlockReport(input());
-    const before = buildBlockReport(input({ season: 2023, kindRows: [{ row: 1, kind: 'trunk-injury', recorded: 2, affected: 1, observations: 2 }], scoutedRows: [{ row: 1, vines: 4 }], measured: [] }));
+    const before = buildBlockReport(input({ season: 2023, kindRows: [{ row: 1, kind: 'trunk-injury', recorded: 2, affected: 1, observations: 2 }], scoutedRows: [{ row: 1, vines: 4, slots: 5 }], measured: [] }));
     const c = compareReports(now, before, { total: 1, byKind: [{ kind: 'trunk-injury', vines: 1 }], vines: [{ row: 2, position: 3, kind: 'trunk-injury', before: 1, now: 3 }] });
     expect(c.rows.find((r) => r.label === 'Vines scouted')).toMatchObject({ before: 4, now: 5 });
     expect(c.rows.find((r) => r.label === 'Share of weak vines')).toMatchObject({ before: null, beforeText: '–', now: 0.5, nowText: '50%' });
@@ -246,7 +254,7 @@ describe('year over year', () => {
 
   it('adds blocks into an estate incidence over all vines scouted', () => {
     const a = buildBlockReport(input());
-    const b = buildBlockReport(input({ block: { ...input().block, id: 'b2' }, kindRows: [{ row: 1, kind: 'trunk-injury', recorded: 1, affected: 1, observations: 1 }], scoutedRows: [{ row: 1, vines: 10 }] }));
+    const b = buildBlockReport(input({ block: { ...input().block, id: 'b2' }, kindRows: [{ row: 1, kind: 'trunk-injury', recorded: 1, affected: 1, observations: 1 }], scoutedRows: [{ row: 1, vines: 10, slots: 10 }] }));
     const estate = buildEstateReport(2024, [a, b]);
     const trunk = estate.kinds.find((k) => k.kind === 'trunk-injury')!;
     expect(trunk.vinesAffected).toBe(2);

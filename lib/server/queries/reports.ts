@@ -63,7 +63,7 @@ const liveArgs = (organisationId: string, blockId: string, season: number) => {
 
 /**
  * Per row and kind: vines with a record, vines whose worst record is "watch" or worse, and records;
- * per row: vines with any record. One pass over the block's season.
+ * per row: vines scouted (any record but a missing-vine one) and slots. One pass over the season.
  */
 export async function countByRowAndKind(db: Db, organisationId: string, blockId: string, season: number) {
   const { rows } = await db.raw<{ rows: { kinds: KindRowCount[]; scouted: ScoutedRow[]; observations: number }[] }>(
@@ -76,10 +76,13 @@ export async function countByRowAndKind(db: Db, organisationId: string, blockId:
        (select coalesce(json_agg(json_build_object('row', row_number, 'kind', kind, 'recorded', recorded, 'affected', affected, 'observations', observations)), '[]')
           from (select row_number, kind, count(*)::int as recorded, count(*) filter (where worst >= 1)::int as affected, sum(n)::int as observations
                   from per_vine group by row_number, kind) k) as kinds,
-       (select coalesce(json_agg(json_build_object('row', row_number, 'vines', vines)), '[]')
-          from (select row_number, count(distinct position)::int as vines from per_vine group by row_number) s) as scouted,
+       (select coalesce(json_agg(json_build_object('row', r.row_number, 'vines', coalesce(s.vines, 0), 'slots', r.vine_count) order by r.row_number), '[]')
+          from block_rows r
+          left join (select row_number, count(distinct position)::int as vines from per_vine where kind <> 'missing-vine' group by row_number) s
+            on s.row_number = r.row_number
+         where r.block_id = ?) as scouted,
        (select coalesce(sum(n), 0)::int from per_vine) as observations`,
-    liveArgs(organisationId, blockId, season),
+    [...liveArgs(organisationId, blockId, season), blockId],
   );
   return rows[0]!;
 }
