@@ -13,7 +13,11 @@ export function ServiceWorker({ labels }: { labels: { update: string; reload: st
     if (!('serviceWorker' in navigator) || process.env.NODE_ENV !== 'production') return;
     const wb = new Workbox('/sw.js', { scope: '/' });
     wb.addEventListener('waiting', () => setWaiting(wb));
-    wb.addEventListener('controlling', () => window.location.reload());
+    // Reload only for an update the person accepted: the first worker takes over quietly, so a
+    // half-filled form is never wiped.
+    wb.addEventListener('controlling', (event) => {
+      if (event.isUpdate) window.location.reload();
+    });
     void wb.register();
     const check = () => void wb.update();
     const interval = window.setInterval(check, 30 * 60 * 1000);
