@@ -18,7 +18,8 @@ export default defineConfig({
     projects: [
       {
         extends: true,
-        test: { name: 'unit', include: ['tests/unit/**/*.test.ts'] },
+        // Property tests run hundreds of cases; on a busy 2-core machine 5 s is too tight.
+        test: { name: 'unit', include: ['tests/unit/**/*.test.ts'], testTimeout: 20_000 },
       },
       {
         extends: true,
