@@ -19,8 +19,10 @@ import { OBSERVATION_KINDS, type ObservationKind } from '@/lib/viticulture';
 
 // The forms (and the validation and calculation code they carry) load when a kind is tapped; the
 // service worker precaches the chunk, so this works offline too.
-const ObservationForm = dynamic(() => import('@/components/field/observation-form').then((m) => m.ObservationForm));
-const FlagForm = dynamic(() => import('@/components/flags/flag-form').then((m) => m.FlagForm));
+const loadObservationForm = () => import('@/components/field/observation-form');
+const loadFlagForm = () => import('@/components/flags/flag-form');
+const ObservationForm = dynamic(() => loadObservationForm().then((m) => m.ObservationForm));
+const FlagForm = dynamic(() => loadFlagForm().then((m) => m.FlagForm));
 
 interface Address {
   row: number;
@@ -63,6 +65,13 @@ export function VineStepper({ blockId, owner }: { blockId: string; owner: string
   const [kind, setKind] = useState<ObservationKind>();
   const [flash, setFlash] = useState<string>();
   const [jump, setJump] = useState('');
+
+  // Fetch the forms while there is signal, right after the page shows: a scout who loses signal
+  // before the service worker has cached them can still record.
+  useEffect(() => {
+    const idle = window.requestIdleCallback ?? ((fn: () => void) => window.setTimeout(fn, 200));
+    idle(() => void Promise.all([loadObservationForm(), loadFlagForm()]).catch(() => undefined));
+  }, []);
 
   useEffect(() => {
     const initial = readAddress();

@@ -78,6 +78,7 @@ test('a batch whose answer is lost after the server stored it is resent without 
   await signInAs(page, 'scout@example.com');
   await page.goto(`/field/blocks/${UPPER_TERRACE}/walk?row=7&position=1`);
   await expect(page.getByTestId('vine-address')).toContainText('Row 7 · Vine 1');
+  await waitForServiceWorker(page);
 
   let dropped = 0;
   await page.route('**/api/sync', async (route) => {
@@ -106,6 +107,7 @@ test('a session that ends while offline keeps the queue; after signing in again 
   await signInAs(page, 'scout@example.com');
   await page.goto(`/field/blocks/${UPPER_TERRACE}/walk?row=9&position=1`);
   await expect(page.getByTestId('vine-address')).toContainText('Row 9 · Vine 1');
+  await waitForServiceWorker(page);
   await context(page).setOffline(true);
   await recordBudbreak(page, 30, 12);
   await recordBudbreak(page, 30, 13);

@@ -1,6 +1,7 @@
-import { readFileSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import os from 'node:os';
 import path from 'node:path';
-import { expect, test } from '@playwright/test';
+import { chromium, expect, test } from '@playwright/test';
 import { signInAs, waitForServiceWorker } from './helpers/session';
 
 // The app serves the worker from its build folder on every request (app/sw.js/route.ts).
@@ -28,18 +29,37 @@ test('when a new service worker is waiting, the page offers to reload instead of
   }
 });
 
-test('Chromium finds the app installable: manifest, icons and a controlling service worker', async ({ page }) => {
-  await signInAs(page, 'scout@example.com');
-  await page.goto('/field');
-  await waitForServiceWorker(page);
-  const cdp = await page.context().newCDPSession(page);
-  const { installabilityErrors } = await cdp.send('Page.getInstallabilityErrors');
-  expect(installabilityErrors).toEqual([]);
-  const manifest = await (await page.request.get('/manifest.webmanifest')).json();
-  expect(manifest).toMatchObject({ name: 'Vineward', display: 'standalone', start_url: '/field', theme_color: '#244a2a' });
-  for (const icon of manifest.icons as { src: string; sizes: string }[]) {
-    const res = await page.request.get(icon.src);
-    expect(res.status(), icon.src).toBe(200);
+test('Chromium finds the app installable: manifest, icons and a controlling service worker', async ({ browserName }, testInfo) => {
+  // Install prompts never appear in incognito windows, and every Playwright context is one: use a
+  // profile on disk, as a phone's browser has.
+  const profile = mkdtempSync(path.join(os.tmpdir(), 'vineward-profile-'));
+  const use = testInfo.project.use;
+  const context = await chromium.launchPersistentContext(profile, {
+    executablePath: '/usr/bin/chromium',
+    args: use.launchOptions?.args ?? [],
+    baseURL: use.baseURL,
+    viewport: use.viewport,
+    isMobile: use.isMobile,
+    hasTouch: use.hasTouch,
+  });
+  try {
+    expect(browserName).toBe('chromium');
+    const page = context.pages()[0] ?? (await context.newPage());
+    await signInAs(page, 'scout@example.com');
+    await page.goto('/field');
+    await waitForServiceWorker(page);
+    const cdp = await context.newCDPSession(page);
+    const { installabilityErrors } = await cdp.send('Page.getInstallabilityErrors');
+    expect(installabilityErrors).toEqual([]);
+    const manifest = await (await page.request.get('/manifest.webmanifest')).json();
+    expect(manifest).toMatchObject({ name: 'Vineward', display: 'standalone', start_url: '/field', theme_color: '#244a2a' });
+    for (const icon of manifest.icons as { src: string; sizes: string }[]) {
+      const res = await page.request.get(icon.src);
+      expect(res.status(), icon.src).toBe(200);
+    }
+  } finally {
+    await context.close();
+    rmSync(profile, { recursive: true, force: true });
   }
 });
 
