@@ -1,7 +1,7 @@
 'use client';
 
 import { Workbox } from 'workbox-window';
-import { useEffect, useState } from 'react';
+import { useEffect, useRef, useState } from 'react';
 
 /**
  * Registers the service worker and, when a new version is waiting, asks before switching:
@@ -9,14 +9,15 @@ import { useEffect, useState } from 'react';
  */
 export function ServiceWorker({ labels }: { labels: { update: string; reload: string } }) {
   const [waiting, setWaiting] = useState<Workbox>();
+  const accepted = useRef(false);
   useEffect(() => {
     if (!('serviceWorker' in navigator) || process.env.NODE_ENV !== 'production') return;
     const wb = new Workbox('/sw.js', { scope: '/' });
     wb.addEventListener('waiting', () => setWaiting(wb));
     // Reload only for an update the person accepted: the first worker takes over quietly, so a
     // half-filled form is never wiped.
-    wb.addEventListener('controlling', (event) => {
-      if (event.isUpdate) window.location.reload();
+    wb.addEventListener('controlling', () => {
+      if (accepted.current) window.location.reload();
     });
     void wb.register();
     const check = () => void wb.update();
@@ -27,7 +28,10 @@ export function ServiceWorker({ labels }: { labels: { update: string; reload: st
   return (
     <div role="alert" data-testid="sw-update" className="fixed inset-x-3 bottom-3 z-50 mx-auto flex max-w-md items-center gap-3 rounded-xl border-2 border-rootstock bg-panel p-3 shadow-lg">
       <span className="font-bold">{labels.update}</span>
-      <button type="button" className="ml-auto min-h-touch rounded-lg bg-rootstock px-4 font-bold text-white" onClick={() => waiting.messageSkipWaiting()}>
+      <button type="button" className="ml-auto min-h-touch rounded-lg bg-rootstock px-4 font-bold text-white" onClick={() => {
+          accepted.current = true;
+          waiting.messageSkipWaiting();
+        }}>
         {labels.reload}
       </button>
     </div>
