@@ -8,7 +8,7 @@ import type { BlockReportResponse } from '@/lib/reports/api';
 import { adjustForBudInjury, type BlockReport } from '@/lib/reports/block-report';
 import { cropEstimate, labourEstimate, type InputValue } from '@/lib/reports/estimates';
 import { formatCount, formatInterval, formatNumber, formatPercent, formatShare, formatWeightKg } from '@/lib/reports/format';
-import { formatAreaM2, formatLengthM, type UnitSystem } from '@/lib/units';
+import { formatAreaM2, formatLengthM, formatLengthMm, type UnitSystem } from '@/lib/units';
 import { reportOptionsSchema } from '@/lib/validation/report';
 import { CompareChart, ChartFrame, HistogramChart, IncidenceChart, RowCountChart } from './charts';
 import { EstimateInput, PrintedInput } from './estimate-input';
@@ -129,7 +129,16 @@ export function BlockReportView({ data }: { data: BlockReportResponse }) {
       <BudLoadSection report={report} />
       <BalanceSection report={report} />
 
-      <Section id="crop" title="Crop estimate" intro="Bearing vines × buds kept per vine × budbreak × clusters per shoot × cluster weight. Change an input to see the estimate follow; the address keeps it for printing.">
+      <Section
+        id="crop"
+        title="Crop estimate"
+        intro={
+          <>
+            Bearing vines × buds kept per vine × budbreak × clusters per shoot × cluster weight.
+            <span className="print:hidden"> Change an input to see the estimate follow; the address keeps it for printing and sharing.</span>
+          </>
+        }
+      >
         <div className="grid gap-4 sm:grid-cols-2 lg:grid-cols-4 print:hidden" data-testid="crop-inputs">
           <EstimateInput id="budsPerVine" label="Buds kept per vine" text={texts.budsPerVine} error={read.budsPerVine.error} input={inputs.budsPerVine} onChange={(t) => change('budsPerVine', t)} />
           <EstimateInput id="budbreakPercent" label="Budbreak" unit="%" text={texts.budbreakPercent} error={read.budbreakPercent.error} input={inputs.budbreakPercent} onChange={(t) => change('budbreakPercent', t)} />
@@ -438,8 +447,8 @@ function CaneSection({ report }: { report: BlockReport }) {
             <FigureCard
               testId="fig-cane-mean"
               label="Mean base diameter"
-              value={c.meanDiameterMm === null ? '–' : `${formatNumber(c.meanDiameterMm)} mm`}
-              from={`${formatCount(c.measured)} canes measured; median ${c.medianDiameterMm === null ? '–' : `${formatNumber(c.medianDiameterMm)} mm`}`}
+              value={c.meanDiameterMm === null ? '–' : formatLengthMm(c.meanDiameterMm, report.units)}
+              from={`${formatCount(c.measured)} canes measured; median ${c.medianDiameterMm === null ? '–' : formatLengthMm(c.medianDiameterMm, report.units)}`}
             />
             <FigureCard testId="fig-shade" label={c.shadeFigure.label} value={c.shadeFigure.text} how={c.shadeFigure.how} from={c.shadeFigure.from} />
             <FigureCard

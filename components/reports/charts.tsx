@@ -53,6 +53,9 @@ const hatch = (id: string) => (
 
 const chartStyle = (height: number) => ({ width: '100%', height });
 
+// Legend words in ink whatever the series' fill, so a pale series still reads.
+const legendText = (value: string) => <span style={{ color: INK }}>{value}</span>;
+
 export interface HistogramDatum {
   label: string;
   count: number;
@@ -90,14 +93,13 @@ export function IncidenceChart({ data, height }: { data: IncidenceDatum[]; heigh
   // Up to the highest interval end, rounded up to the next 10%, so small shares are not lost in white space.
   const top = Math.min(100, Math.ceil(Math.max(10, ...data.map((d) => d.percent + d.error[1])) / 10) * 10);
   return (
-    <BarChart responsive style={chartStyle(h)} data={data} layout="vertical" margin={{ top: 4, right: 40, bottom: 20, left: 8 }}>
+    <BarChart responsive style={chartStyle(h)} data={data} layout="vertical" margin={{ top: 4, right: 16, bottom: 20, left: 8 }}>
       <CartesianGrid stroke={GRID} horizontal={false} />
       <XAxis type="number" domain={[0, top]} unit="%" tick={FONT} label={{ value: 'Share with the problem (whiskers: 95% interval)', position: 'insideBottom', offset: -14, ...FONT }} />
       <YAxis type="category" dataKey="label" tick={FONT} width={120} interval={0} />
       <Tooltip formatter={(v) => `${Number(v).toFixed(1)}%`} />
       <Bar dataKey="percent" name="Incidence" isAnimationActive={false} fill={DARK} stroke={INK}>
         <ErrorBar dataKey="error" width={6} strokeWidth={2} stroke={INK} direction="x" />
-        <LabelList dataKey="percent" position="right" formatter={(v) => `${Number(v).toFixed(1)}%`} style={FONT} offset={14} />
       </Bar>
     </BarChart>
   );
@@ -119,7 +121,7 @@ export function RowCountChart({ data, series, height = 240 }: { data: Record<str
       <XAxis dataKey="row" tick={FONT} minTickGap={12} label={{ value: 'Row', position: 'insideBottom', offset: -12, ...FONT }} />
       <YAxis allowDecimals={false} tick={FONT} width={40} label={{ value: 'Vines', angle: -90, position: 'insideLeft', ...FONT }} />
       <Tooltip />
-      <Legend verticalAlign="top" height={28} wrapperStyle={{ fontSize: 12, color: INK }} />
+      <Legend verticalAlign="top" height={28} wrapperStyle={{ fontSize: 12, color: INK }} formatter={legendText} />
       {series.map((s, i) => (
         <Bar key={s.key} dataKey={s.key} name={s.label} stackId="kinds" fill={SERIES_FILLS[i % SERIES_FILLS.length]} stroke={INK} strokeWidth={0.5} isAnimationActive={false} />
       ))}
@@ -143,7 +145,7 @@ export function CompareChart({ data, before, now, unit = '%', height }: { data: 
       <XAxis type="number" unit={unit} tick={FONT} />
       <YAxis type="category" dataKey="label" tick={FONT} width={120} interval={0} />
       <Tooltip formatter={(v) => (v === null ? '–' : `${Number(v).toFixed(1)}${unit}`)} />
-      <Legend verticalAlign="top" height={28} wrapperStyle={{ fontSize: 12, color: INK }} />
+      <Legend verticalAlign="top" height={28} wrapperStyle={{ fontSize: 12, color: INK }} formatter={legendText} />
       <Bar dataKey="before" name={before} isAnimationActive={false} fill="url(#vw-hatch-before)" stroke={INK}>
         <LabelList dataKey="before" position="right" formatter={(v) => (v == null ? '' : `${Number(v).toFixed(1)}`)} style={FONT} />
       </Bar>

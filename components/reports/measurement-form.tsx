@@ -40,7 +40,10 @@ const optionalNumber = { setValueAs: (v: unknown) => (v === '' || v === null || 
 const requiredNumber = { setValueAs: (v: unknown) => (v === '' || v === null || v === undefined ? NaN : Number(v)) };
 
 const choice = (on: boolean) =>
-  cn('flex min-h-touch cursor-pointer items-center justify-center rounded-lg border-2 px-3 text-center font-bold', on ? 'border-rootstock bg-rootstock text-white' : 'border-line bg-panel');
+  cn(
+    'flex min-h-touch cursor-pointer items-center justify-center rounded-lg border-2 px-3 text-center font-bold has-[:focus-visible]:outline-3 has-[:focus-visible]:outline-offset-2 has-[:focus-visible]:outline-cut',
+    on ? 'border-rootstock bg-rootstock text-white' : 'border-line bg-panel',
+  );
 
 /** Yield and pruning-weight entry for one block and season, with what was entered so far. */
 export function Measurements({ block, season, units, canRecord, canRemoveAny, userId }: MeasurementsProps) {
