@@ -19,8 +19,9 @@ export function ServiceWorker({ labels }: { labels: { update: string; reload: st
     wb.addEventListener('controlling', () => {
       if (accepted.current) window.location.reload();
     });
-    void wb.register();
-    const check = () => void wb.update();
+    // Blocked or unsupported (private modes, some managed phones): the app still works online.
+    wb.register().catch(() => undefined);
+    const check = () => void wb.update().catch(() => undefined);
     const interval = window.setInterval(check, 30 * 60 * 1000);
     return () => window.clearInterval(interval);
   }, []);
