@@ -14,6 +14,7 @@ import {
 import Link from 'next/link';
 import { useMemo, useState } from 'react';
 import { Field, Input, Notice, Select } from '@/components/ui/field';
+import { SortableHead } from '@/components/ui/sortable-head';
 import { cn } from '@/lib/cn';
 import type { BlockView } from '@/lib/server/services/blocks';
 import { formatAreaM2, formatCount, formatLengthM, type UnitSystem } from '@/lib/units';
@@ -116,33 +117,7 @@ export function BlocksTable({ units }: { units: UnitSystem }) {
       ) : (
         <div className="overflow-x-auto rounded-lg border-2 border-line bg-panel">
           <table className="w-full border-collapse text-left">
-            <thead>
-              {table.getHeaderGroups().map((group) => (
-                <tr key={group.id} className="border-b-2 border-line">
-                  {group.headers.map((header) => {
-                    const sorted = header.column.getIsSorted();
-                    const numeric = (header.column.columnDef.meta as { numeric?: boolean } | undefined)?.numeric;
-                    return (
-                      <th
-                        key={header.id}
-                        scope="col"
-                        aria-sort={sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : 'none'}
-                        className={cn(numeric && 'text-right', header.column.id === 'name' && 'sticky left-0 bg-panel')}
-                      >
-                        <button
-                          type="button"
-                          onClick={header.column.getToggleSortingHandler()}
-                          className="inline-flex min-h-touch items-center gap-1 px-3 font-bold whitespace-nowrap"
-                        >
-                          {flexRender(header.column.columnDef.header, header.getContext())}
-                          <span aria-hidden="true">{sorted === 'asc' ? '▲' : sorted === 'desc' ? '▼' : '↕'}</span>
-                        </button>
-                      </th>
-                    );
-                  })}
-                </tr>
-              ))}
-            </thead>
+            <SortableHead table={table} stickyColumn="name" />
             <tbody>
               {rows.map((row) => (
                 <tr key={row.id} className="border-b border-line">

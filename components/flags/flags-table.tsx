@@ -16,6 +16,7 @@ import { api, ApiError } from '@/components/blocks/api';
 import { memberLabel, useCrew } from '@/components/tasks/use-crew';
 import { Button } from '@/components/ui/button';
 import { Field, Input, Notice, Select } from '@/components/ui/field';
+import { SortableHead } from '@/components/ui/sortable-head';
 import { cn } from '@/lib/cn';
 import { formatDay, vineAddress } from '@/lib/grid/labels';
 import { FLAG_REASONS, REASON_LABELS, type FlagReason } from '@/lib/validation/flag';
@@ -167,27 +168,7 @@ export function FlagsTable({ canManage }: { canManage: boolean }) {
       ) : (
         <div className="overflow-x-auto rounded-lg border-2 border-line bg-panel">
           <table className="w-full border-collapse text-left">
-            <thead>
-              {table.getHeaderGroups().map((group) => (
-                <tr key={group.id} className="border-b-2 border-line">
-                  {group.headers.map((header) => {
-                    const sorted = header.column.getIsSorted();
-                    return (
-                      <th key={header.id} scope="col" aria-sort={sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : 'none'}>
-                        {header.column.getCanSort() ? (
-                          <button type="button" onClick={header.column.getToggleSortingHandler()} className="inline-flex min-h-touch items-center gap-1 px-3 font-bold whitespace-nowrap">
-                            {flexRender(header.column.columnDef.header, header.getContext())}
-                            <span aria-hidden="true">{sorted === 'asc' ? '▲' : sorted === 'desc' ? '▼' : '↕'}</span>
-                          </button>
-                        ) : (
-                          <span className="px-3">{flexRender(header.column.columnDef.header, header.getContext())}</span>
-                        )}
-                      </th>
-                    );
-                  })}
-                </tr>
-              ))}
-            </thead>
+            <SortableHead table={table} />
             <tbody>
               {table.getRowModel().rows.map((row) => (
                 <tr key={row.id} className={cn('border-b border-line', row.getIsSelected() && 'bg-rootstock-tint')} data-testid="flag-row">

@@ -7,6 +7,7 @@ import { useMemo, useState } from 'react';
 import { api } from '@/components/blocks/api';
 import { memberLabel, useCrew } from '@/components/tasks/use-crew';
 import { Field, Input, Notice, Select } from '@/components/ui/field';
+import { SortableHead } from '@/components/ui/sortable-head';
 import { cn } from '@/lib/cn';
 import { formatDay } from '@/lib/grid/labels';
 import { TASK_PRIORITIES, TASK_STATUSES, type TaskPriority, type TaskStatus } from '@/lib/validation/task';
@@ -183,23 +184,7 @@ export function TasksTable() {
       ) : (
         <div className="overflow-x-auto rounded-lg border-2 border-line bg-panel">
           <table className="w-full border-collapse text-left">
-            <thead>
-              {table.getHeaderGroups().map((group) => (
-                <tr key={group.id} className="border-b-2 border-line">
-                  {group.headers.map((header) => {
-                    const sorted = header.column.getIsSorted();
-                    return (
-                      <th key={header.id} scope="col" aria-sort={sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : 'none'}>
-                        <button type="button" onClick={header.column.getToggleSortingHandler()} className="inline-flex min-h-touch items-center gap-1 px-3 font-bold whitespace-nowrap">
-                          {flexRender(header.column.columnDef.header, header.getContext())}
-                          <span aria-hidden="true">{sorted === 'asc' ? '▲' : sorted === 'desc' ? '▼' : '↕'}</span>
-                        </button>
-                      </th>
-                    );
-                  })}
-                </tr>
-              ))}
-            </thead>
+            <SortableHead table={table} />
             <tbody>
               {table.getRowModel().rows.map((row) => (
                 <tr key={row.id} className="border-b border-line" data-testid="task-row">
