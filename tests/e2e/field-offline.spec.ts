@@ -49,7 +49,8 @@ test('a scout walks a row with no signal, reloads twice, and everything arrives 
     await recordBudbreak(page, 20 + (i % 7), 5 + (i % 11), photo);
     await expect(page.getByTestId('vine-address')).toContainText(`Row 5 · Vine ${i + 2}`);
   }
-  expect(await waiting(page)).toEqual({ records: 30, photos: 5 });
+  // The status bar counts the outbox a moment after each save.
+  await expect.poll(() => waiting(page)).toEqual({ records: 30, photos: 5 });
 
   await page.reload();
   await expect(page.getByTestId('vine-address')).toBeVisible();
@@ -115,7 +116,7 @@ test('a session that ends while offline keeps the queue; after signing in again 
   await context(page).setOffline(false);
   await page.getByRole('button', { name: 'Sync now' }).click();
   await expect(page.getByText('Your session ended')).toBeVisible();
-  expect(await waiting(page)).toEqual({ records: 2, photos: 0 });
+  await expect.poll(() => waiting(page)).toEqual({ records: 2, photos: 0 });
 
   await signInAs(page, 'scout@example.com');
   await page.goto('/field');
