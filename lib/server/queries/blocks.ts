@@ -188,14 +188,15 @@ export async function summariseLayoutChange(db: Db, blockId: string, rows: Layou
 /**
  * The tables whose rows hang on a planting slot (observations, flags, task items, comments,
  * measurements…), read from the foreign keys so that later features are covered too. A slot's
- * own vines are its history, not field records: they go with it.
+ * own vines are its history, not field records, and the grid's summary of it is derived from its
+ * observations: both go with it.
  */
 async function slotRecordTables(db: Db) {
   const { rows } = await db.raw<{ rows: { tbl: string; col: string }[] }>(
     `select c.conrelid::regclass::text as tbl, quote_ident(a.attname) as col
      from pg_constraint c join pg_attribute a on a.attrelid = c.conrelid and a.attnum = c.conkey[1]
      where c.contype = 'f' and c.confrelid = 'vine_positions'::regclass and cardinality(c.conkey) = 1
-       and c.conrelid <> 'vines'::regclass order by 1`,
+       and c.conrelid not in ('vines'::regclass, 'grid_vines'::regclass) order by 1`,
   );
   return rows;
 }

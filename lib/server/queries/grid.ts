@@ -21,68 +21,108 @@ interface Fragment {
   bindings: unknown[];
 }
 
-/** Positions covered by an open flag (a flag may cover a run of vines in a row). */
-function flaggedPositions(organisationId: string, blockId: string): Fragment {
-  return openFlagPositionsSql(organisationId, blockId);
+export interface GridStatements {
+  cells: Fragment;
+  counts: Fragment;
 }
+
+/** Where the grid is read from: the standing per-vine summary, or the observations themselves. */
+export type GridSource = 'summary' | 'observations';
+
+/**
+ * The summary (grid_vines, grid_counts; see db/migrations/20261202-01-grid-summary.ts) knows each
+ * vine's worst finding per kind and status, but not when or by whom: a date range or a person
+ * needs the observations to colour the vines. Its counts are kept per day and person, so they
+ * answer every filter but "flagged", which depends on where each observation stands.
+ */
+export const gridSource = (f: GridFilters): GridSource => (f.from || f.to || f.by ? 'observations' : 'summary');
 
 /**
  * The block's grid and summary counts in two statements, the filters applied in SQL: one reads each
  * vine's worst finding (and the grid's rows and slots), the other counts findings by kind and
  * severity. Date range and person scope every figure; kind, status and "flagged" choose the findings
  * that colour a vine, so "vines scouted" (the incidence denominator) is every vine with any record in
- * the period. Vines are addressed by the row and position stored on each observation, so neither
- * statement joins the block's thousands of slots.
+ * the period. Both sources give the same answer (a test holds them equal); `source` forces one.
  */
-export function gridStatements(organisationId: string, blockId: string, rowOrder: 'ascending' | 'descending', f: GridFilters): { cells: Fragment; counts: Fragment } {
+export function gridStatements(
+  organisationId: string,
+  blockId: string,
+  rowOrder: 'ascending' | 'descending',
+  f: GridFilters,
+  source?: GridSource,
+): GridStatements {
+  const order = rowOrder === 'descending' ? 'desc' : 'asc';
+  const cellsFrom = source ?? gridSource(f);
+  if (cellsFrom === 'summary' && gridSource(f) === 'observations') throw new Error('The grid summary cannot answer a date or person filter');
+  const countsFrom = f.flagged ? 'observations' : (source ?? 'summary');
+  return {
+    cells: cellsFrom === 'summary' ? summaryCells(organisationId, blockId, order, f) : observationCells(organisationId, blockId, order, f),
+    counts: countsFrom === 'summary' ? summaryCounts(organisationId, blockId, f) : observationCounts(organisationId, blockId, f),
+  };
+}
+
+/** The live observations in the period and of the person the filters name. */
+function observationScope(organisationId: string, blockId: string, f: GridFilters): Fragment {
   const scope = ['o.organisation_id = ?', 'o.block_id = ?', 'o.deleted_at is null'];
-  const scopeArgs: unknown[] = [organisationId, blockId];
+  const bindings: unknown[] = [organisationId, blockId];
   if (f.from) {
     scope.push('o.observed_at >= ?');
-    scopeArgs.push(`${f.from}T00:00:00Z`);
+    bindings.push(`${f.from}T00:00:00Z`);
   }
   if (f.to) {
     scope.push('o.observed_at < ?');
-    scopeArgs.push(dayAfter(f.to));
+    bindings.push(dayAfter(f.to));
   }
   if (f.by) {
     scope.push('o.recorded_by = ?');
-    scopeArgs.push(f.by);
+    bindings.push(f.by);
   }
+  return { sql: scope.join(' and '), bindings };
+}
+
+/** Among those, the findings that colour a vine. */
+function observationMatch(organisationId: string, blockId: string, f: GridFilters): Fragment {
   const match: string[] = [];
-  const matchArgs: unknown[] = [];
+  const bindings: unknown[] = [];
   if (f.status !== 'all') {
     match.push('o.status = ?');
-    matchArgs.push(f.status);
+    bindings.push(f.status);
   }
   if (f.kind.length) {
     match.push(`o.kind in (${f.kind.map(() => '?').join(', ')})`);
-    matchArgs.push(...f.kind);
+    bindings.push(...f.kind);
   }
   if (f.flagged) {
-    const flagged = flaggedPositions(organisationId, blockId);
+    const flagged = openFlagPositionsSql(organisationId, blockId);
     match.push(`o.position_id in (${flagged.sql})`);
-    matchArgs.push(...flagged.bindings);
+    bindings.push(...flagged.bindings);
   }
-  const order = rowOrder === 'descending' ? 'desc' : 'asc';
-  const hit = match.length ? match.join(' and ') : 'true';
-  const where = scope.join(' and ');
-  // Per vine: its worst matching severity, and a bit per kind found at "watch" or worse (bit i for
-  // the kind at place i of GRID_KINDS); per row, packed as position × 4 + worst and position × 65536
-  // + kind bits. One row at a time (lateral), so each step reads a short run of the block's slot
-  // index in vine order, whatever the planner thinks of the table as a whole.
-  const cells = `
+  return { sql: match.length ? match.join(' and ') : 'true', bindings };
+}
+
+/**
+ * A block's slots per row: slots not planted (position × 4 + slot index), the positions present
+ * when the row has gaps (rows normally run 1…last), and the last position.
+ */
+const SLOT_COLUMNS = `
+  json_agg(position * 4 + case status when 'replant' then 1 when 'missing' then 2 else 3 end order by position) filter (where status <> 'planted') as slots,
+  case when count(*) = max(position) then null else json_agg(position order by position) end as present,
+  max(position) as last`;
+
+/**
+ * Per vine: its worst matching severity, and a bit per kind found at "watch" or worse (bit i + 1 for
+ * the kind at place i of GRID_KINDS); per row, packed as position × 4 + worst and position × 65536
+ * + kind bits (lib/grid/cells.ts reads them). One row at a time (lateral), so each step reads a
+ * short run of the block's slot index in vine order, whatever the planner thinks of the table.
+ */
+function observationCells(organisationId: string, blockId: string, order: string, f: GridFilters): Fragment {
+  const scope = observationScope(organisationId, blockId, f);
+  const hit = observationMatch(organisationId, blockId, f);
+  const sql = `
     select coalesce(json_agg(json_build_array(r.row_number, r.vine_count, sl.slots, sl.present, v.worst, coalesce(sl.last, 0), v.kinds, v.scouted)
       order by r.row_number ${order}), '[]') as rows
     from block_rows r
-    left join (
-      select row_number,
-        json_agg(position * 4 + case status when 'replant' then 1 when 'missing' then 2 else 3 end order by position) filter (where status <> 'planted') as slots,
-        -- Slots normally run 1…last; only a row with gaps lists the ones it has.
-        case when count(*) = max(position) then null else json_agg(position order by position) end as present,
-        max(position) as last
-      from vine_positions where block_id = ? group by row_number
-    ) sl on sl.row_number = r.row_number
+    left join (select row_number, ${SLOT_COLUMNS} from vine_positions where block_id = ? group by row_number) sl on sl.row_number = r.row_number
     cross join lateral (
       select json_agg(position * 4 + worst order by position) filter (where worst is not null) as worst,
         json_agg(position * 65536 + kinds order by position) filter (where kinds is not null) as kinds,
@@ -92,24 +132,108 @@ export function gridStatements(organisationId: string, blockId: string, rowOrder
           max(severity) filter (where hit) as worst,
           bit_or(1 << coalesce(array_position(?::text[], kind), 0)) filter (where hit and severity >= 1) as kinds
         from (
-          select o.position, o.kind, o.severity, (${hit}) as hit from observations o
-          where o.row_number = r.row_number and ${where}
+          select o.position, o.kind, o.severity, (${hit.sql}) as hit from observations o
+          where o.row_number = r.row_number and ${scope.sql}
         ) s
         group by position
       ) vines
     ) v
     where r.block_id = ?`;
-  const counts = `
-    select coalesce(json_agg(json_build_array(kind, severity, n)), '[]') as counts
-    from (select o.kind, o.severity, count(*)::int as n from observations o where ${where} and ${hit} group by o.kind, o.severity) c`;
+  return { sql, bindings: [blockId, GRID_KINDS, ...hit.bindings, ...scope.bindings, blockId] };
+}
+
+/**
+ * The same cells from grid_vines: one row per vine with its worst level and kind bits kept for open
+ * and closed findings (level 0 = none, 1–4 = severity 0–3). A kind filter reads the chosen kinds'
+ * levels from the packed columns, three bits per kind at the place GRID_KINDS gives it (a test holds
+ * it equal to the database's grid_kind_index); those places are integers made here, never input.
+ */
+function summaryCells(organisationId: string, blockId: string, order: string, f: GridFilters): Fragment {
+  const columns = f.status === 'all' ? ['open', 'closed'] : [f.status];
+  let worst: string;
+  let kinds: string;
+  if (f.kind.length) {
+    const places = f.kind.map((kind) => GRID_KINDS.indexOf(kind));
+    worst = `greatest(${places.flatMap((i) => columns.map((c) => `((g.${c}_levels >> ${3 * i}) & 7)`)).join(', ')})`;
+    const mask = places.reduce((bits, i) => bits | (2 ** (i + 1)), 0);
+    kinds = `(${columns.map((c) => `g.${c}_kinds`).join(' | ')}) & ${mask}`;
+  } else {
+    worst = columns.length > 1 ? 'greatest(g.open_worst, g.closed_worst)' : `g.${columns[0]}_worst`;
+    kinds = columns.map((c) => `g.${c}_kinds`).join(' | ');
+  }
+  worst = `nullif(${worst}, 0) - 1`;
+  kinds = `nullif(${kinds}, 0)`;
+  const bindings: unknown[] = [];
+  if (f.flagged) {
+    const flagged = openFlagPositionsSql(organisationId, blockId);
+    const on = `vp.id in (${flagged.sql})`;
+    worst = `case when ${on} then ${worst} end`;
+    kinds = `case when ${on} then ${kinds} end`;
+    bindings.push(...flagged.bindings, ...flagged.bindings);
+  }
+  const sql = `
+    select coalesce(json_agg(json_build_array(r.row_number, r.vine_count, v.slots, v.present, v.worst, coalesce(v.last, 0), v.kinds, coalesce(v.scouted, 0))
+      order by r.row_number ${order}), '[]') as rows
+    from block_rows r
+    left join (
+      select row_number, ${SLOT_COLUMNS},
+        json_agg(position * 4 + worst order by position) filter (where worst is not null) as worst,
+        json_agg(position * 65536 + kinds order by position) filter (where kinds is not null) as kinds,
+        count(records)::int as scouted
+      from (
+        select vp.row_number, vp.position, vp.status, g.records, ${worst} as worst, ${kinds} as kinds
+        from vine_positions vp left join grid_vines g on g.position_id = vp.id and g.organisation_id = ?
+        where vp.block_id = ?
+      ) s
+      group by row_number
+    ) v on v.row_number = r.row_number
+    where r.block_id = ?`;
+  return { sql, bindings: [...bindings, organisationId, blockId, blockId] };
+}
+
+const countsOf = (from: string) => `select coalesce(json_agg(json_build_array(kind, severity, n)), '[]') as counts from (${from}) c`;
+
+function observationCounts(organisationId: string, blockId: string, f: GridFilters): Fragment {
+  const scope = observationScope(organisationId, blockId, f);
+  const hit = observationMatch(organisationId, blockId, f);
   return {
-    cells: { sql: cells, bindings: [blockId, GRID_KINDS, ...matchArgs, ...scopeArgs, blockId] },
-    counts: { sql: counts, bindings: [...scopeArgs, ...matchArgs] },
+    sql: countsOf(`select o.kind, o.severity, count(*)::int as n from observations o where ${scope.sql} and ${hit.sql} group by o.kind, o.severity`),
+    bindings: [...scope.bindings, ...hit.bindings],
+  };
+}
+
+/** Counts from grid_counts, kept per UTC day and person, so dates and people filter them too. */
+function summaryCounts(organisationId: string, blockId: string, f: GridFilters): Fragment {
+  const where = ['c.organisation_id = ?', 'c.block_id = ?'];
+  const bindings: unknown[] = [organisationId, blockId];
+  if (f.from) {
+    where.push('c.day >= ?');
+    bindings.push(f.from);
+  }
+  if (f.to) {
+    where.push('c.day <= ?');
+    bindings.push(f.to);
+  }
+  if (f.by) {
+    where.push('c.recorded_by = ?');
+    bindings.push(f.by);
+  }
+  if (f.status !== 'all') {
+    where.push('c.status = ?');
+    bindings.push(f.status);
+  }
+  if (f.kind.length) {
+    where.push(`c.kind in (${f.kind.map(() => '?').join(', ')})`);
+    bindings.push(...f.kind);
+  }
+  return {
+    sql: countsOf(`select kind, severity, sum(n)::int as n from grid_counts c where ${where.join(' and ')} group by kind, severity having sum(n) > 0`),
+    bindings,
   };
 }
 
 /** Runs the grid's two statements side by side (on two connections when there are two). */
-export async function runGridStatements(db: Db, statements: ReturnType<typeof gridStatements>) {
+export async function runGridStatements(db: Db, statements: GridStatements) {
   const [cells, counts] = await Promise.all([
     db.raw(statements.cells.sql, statements.cells.bindings as never[]),
     db.raw(statements.counts.sql, statements.counts.bindings as never[]),
@@ -120,8 +244,15 @@ export async function runGridStatements(db: Db, statements: ReturnType<typeof gr
   };
 }
 
-export async function loadGrid(db: Db, organisationId: string, blockId: string, rowOrder: 'ascending' | 'descending', f: GridFilters): Promise<GridData> {
-  const { rows, counts } = await runGridStatements(db, gridStatements(organisationId, blockId, rowOrder, f));
+export async function loadGrid(
+  db: Db,
+  organisationId: string,
+  blockId: string,
+  rowOrder: 'ascending' | 'descending',
+  f: GridFilters,
+  source?: GridSource,
+): Promise<GridData> {
+  const { rows, counts } = await runGridStatements(db, gridStatements(organisationId, blockId, rowOrder, f, source));
   return {
     rows: rows.map(([n]) => n),
     cells: rows.map(rowCodes),
@@ -154,10 +285,8 @@ export function listGridBlocks(db: Db, organisationId: string): Promise<GridBloc
       vinesPerRow: 'b.vines_per_row',
     })
     .select(
-      db.raw(`(select count(distinct o.position_id)::int from observations o where o.block_id = b.id and o.organisation_id = b.organisation_id
-        and o.deleted_at is null and o.status = 'open' and o.severity >= 2) as "actVines"`),
-      db.raw(`(select count(distinct o.position_id)::int from observations o where o.block_id = b.id and o.organisation_id = b.organisation_id
-        and o.deleted_at is null and o.status = 'open' and o.severity = 3) as "urgentVines"`),
+      db.raw(`(select count(*)::int from grid_vines g where g.block_id = b.id and g.organisation_id = b.organisation_id and g.open_worst >= 3) as "actVines"`),
+      db.raw(`(select count(*)::int from grid_vines g where g.block_id = b.id and g.organisation_id = b.organisation_id and g.open_worst = 4) as "urgentVines"`),
     );
 }
 
