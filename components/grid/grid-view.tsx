@@ -45,7 +45,13 @@ function readAddress(search: URLSearchParams) {
 export function GridView({ block, people }: GridViewProps) {
   const search = useSearchParams();
   const pathname = usePathname();
-  const filters = readGridFilters(search);
+  const fromUrl = readGridFilters(search);
+  const urlKey = gridFiltersToSearch(fromUrl).toString();
+  // Next applies a replaced URL to useSearchParams in a transition, a moment later; until then the
+  // controls show what was just chosen, so a tapped box stays ticked on a slow phone.
+  const [chosen, setChosen] = useState<Filters | null>(null);
+  useEffect(() => setChosen(null), [urlKey]);
+  const filters = chosen ?? fromUrl;
   const filterKey = gridFiltersToSearch(filters).toString();
   const datesOk = datesInOrder(filters);
   const address = readAddress(search);
@@ -120,7 +126,14 @@ export function GridView({ block, people }: GridViewProps) {
         {block.positionOrigin && <p className="mt-1">Vine numbers run from the left: {block.positionOrigin.replace(/^Vine 1 /, 'vine 1 ')}.</p>}
       </header>
 
-      <GridFilters filters={filters} people={people} onChange={(next) => writeUrl(next, address)} />
+      <GridFilters
+        filters={filters}
+        people={people}
+        onChange={(next) => {
+          setChosen(next);
+          writeUrl(next, address);
+        }}
+      />
 
       {query.isError && (
         <Notice tone="error">
