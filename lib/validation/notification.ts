@@ -24,3 +24,8 @@ export type Preferences = z.infer<typeof preferencesSchema>;
 export const unsubscribeSchema = z.strictObject({
   token: z.string('The link is incomplete').min(10, 'The link is incomplete').max(200, 'The link is not one of ours'),
 });
+
+/** What a manager does with mail that failed or may not have arrived. */
+export const undeliveredActionSchema = z.strictObject({
+  action: z.enum(['resend', 'dismiss'], 'Must be resend or dismiss'),
+});

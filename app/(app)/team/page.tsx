@@ -1,17 +1,20 @@
 import type { Metadata } from 'next';
 import { InviteForm } from '@/components/layout/invite-form';
+import { UndeliveredMail } from '@/components/layout/undelivered-mail';
 import { memberForPage } from '@/lib/server/auth/guard';
 import { db } from '@/lib/server/db';
 import { listOpenInvitations } from '@/lib/server/queries/invitations';
+import { listUndeliveredMail } from '@/lib/server/queries/mail-outbox';
 import { listMembers } from '@/lib/server/queries/organisations';
 
 export const metadata: Metadata = { title: 'Team' };
 
 export default async function TeamPage() {
   const member = await memberForPage('manage-organisation');
-  const [members, invitations] = await Promise.all([
+  const [members, invitations, undelivered] = await Promise.all([
     listMembers(db(), member.organisationId),
     listOpenInvitations(db(), member.organisationId),
+    listUndeliveredMail(db(), member.organisationId),
   ]);
   return (
     <div className="flex flex-col gap-6">
@@ -51,6 +54,12 @@ export default async function TeamPage() {
               </li>
             ))}
           </ul>
+        </section>
+      )}
+      {undelivered.length > 0 && (
+        <section>
+          <h2 className="mb-2 text-xl font-bold">Mail that may not have arrived</h2>
+          <UndeliveredMail items={undelivered.map((m) => ({ ...m, createdAt: m.createdAt.toISOString() }))} />
         </section>
       )}
     </div>

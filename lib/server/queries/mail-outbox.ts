@@ -76,3 +76,51 @@ export function markStaleSendingUncertain(db: Db, leaseMs: number) {
     .update({ status: 'uncertain', last_error: 'The worker stopped during the SMTP call; not resent, to never send twice.' })
     .returning<{ id: string; to_email: string; subject: string }[]>(['id', 'to_email', 'subject']);
 }
+
+export interface UndeliveredMail {
+  id: string;
+  toEmail: string;
+  kind: NotificationKind;
+  subject: string;
+  status: 'failed' | 'uncertain';
+  attempts: number;
+  lastError: string | null;
+  createdAt: Date;
+}
+
+/** The organisation's mail that failed for good or may not have arrived, newest first. */
+export function listUndeliveredMail(db: Db, organisationId: string, limit = 100): Promise<UndeliveredMail[]> {
+  return db('mail_outbox')
+    .where({ organisation_id: organisationId })
+    .whereIn('status', ['failed', 'uncertain'])
+    .orderBy([{ column: 'created_at', order: 'desc' }, { column: 'id', order: 'desc' }])
+    .limit(limit)
+    .select({
+      id: 'id',
+      toEmail: 'to_email',
+      kind: 'kind',
+      subject: 'subject',
+      status: 'status',
+      attempts: 'attempts',
+      lastError: 'last_error',
+      createdAt: 'created_at',
+    });
+}
+
+/** Queues one such mail again (a fresh round of attempts); answers whether there was one. */
+export async function requeueUndeliveredMail(db: Db, organisationId: string, id: string) {
+  const changed = await db('mail_outbox')
+    .where({ id, organisation_id: organisationId })
+    .whereIn('status', ['failed', 'uncertain'])
+    .update({ status: 'queued', attempts: 0, next_attempt_at: db.fn.now(), claimed_at: null });
+  return changed > 0;
+}
+
+/** Takes one such mail off the list for good; answers whether there was one. */
+export async function dismissUndeliveredMail(db: Db, organisationId: string, id: string, by: string) {
+  const changed = await db('mail_outbox')
+    .where({ id, organisation_id: organisationId })
+    .whereIn('status', ['failed', 'uncertain'])
+    .update({ status: 'dismissed', dismissed_by: by, dismissed_at: db.fn.now() });
+  return changed > 0;
+}
