@@ -128,7 +128,8 @@ export function GridSummary({ summary, onGoToRow }: GridSummaryProps) {
         )}
         <p className="mt-2 text-xs text-bark-soft">
           Columns 0–3 count findings by severity (fine, watch, act this season, act now). Incidence: vines with a finding of that kind at
-          watch or worse, out of the vines scouted in this period, with its 95% interval (Wilson).
+          watch or worse, out of the vines scouted in this period (missing or dead vines: out of every slot), with its 95% interval
+          (Wilson).
         </p>
       </div>
     </section>

@@ -28,7 +28,10 @@ export interface RowProblems {
 }
 
 export interface GridSummary {
-  /** Vines with any record in the date range (and by the chosen person), whatever its kind or status. */
+  /**
+   * Vines with any record in the date range (and by the chosen person), whatever its status, other
+   * than a missing-vine record: a hole is found without looking at a vine.
+   */
   vinesScouted: number;
   byLevel: { watch: number; act: number; urgent: number };
   kinds: KindSummary[];
@@ -61,16 +64,26 @@ export function summariseGrid(rows: readonly number[], cells: readonly (readonly
     if (row.problems) perRow.push(row);
   });
   perRow.sort((a, b) => b.problems - a.problems || b.urgent - a.urgent || a.row - b.row);
+  const slotCount = SLOTS.reduce((sum, s) => (s === 'none' ? sum : sum + slots[s]), 0);
   return {
     vinesScouted,
     byLevel,
     kinds: kinds.map((k) => ({
       ...k,
       observations: k.bySeverity.reduce((a, b) => a + b, 0),
-      // A vine can only be affected if it was scouted, but guard against a count from another filter.
-      incidence: vinesScouted > 0 ? wilsonInterval(Math.min(k.vinesAffected, vinesScouted), vinesScouted) : null,
+      incidence: incidenceOf(k, vinesScouted, slotCount),
     })),
     worstRows: perRow.slice(0, WORST_ROWS),
     slots,
   };
+}
+
+/**
+ * Incidence as the season report counts it: a kind over the vines scouted; missing or dead vines
+ * over every slot, since a hole is known whether or not anyone looked at the vine beside it.
+ */
+function incidenceOf(k: KindCounts, vinesScouted: number, slotCount: number): ProportionInterval | null {
+  const outOf = k.kind === 'missing-vine' ? slotCount : vinesScouted;
+  // A vine can only be affected if it was counted, but guard against a count from another filter.
+  return outOf > 0 ? wilsonInterval(Math.min(k.vinesAffected, outOf), outOf) : null;
 }

@@ -84,6 +84,13 @@ describe('the grid summary', () => {
     expect(s.kinds[0]).toMatchObject({ observations: 4, incidence: wilsonInterval(3, 40) });
     expect(summariseGrid(rows, cells, kinds, 0).kinds[0]!.incidence).toBeNull();
   });
+
+  it('counts missing or dead vines over every slot, scouted or not, as the season report does', () => {
+    const holes = [{ kind: 'missing-vine' as const, bySeverity: [0, 0, 2, 0] as [number, number, number, number], vinesAffected: 2 }];
+    // 10 slots in the two rows (7 planted, 1 replant, 1 missing, 1 dead), though only 3 vines were scouted.
+    expect(summariseGrid(rows, cells, holes, 3).kinds[0]!.incidence).toEqual(wilsonInterval(2, 10));
+    expect(summariseGrid(rows, cells, holes, 0).kinds[0]!.incidence).toEqual(wilsonInterval(2, 10));
+  });
 });
 
 describe('words for the canvas', () => {

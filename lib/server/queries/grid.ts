@@ -42,7 +42,8 @@ export const gridSource = (f: GridFilters): GridSource => (f.from || f.to || f.b
  * vine's worst finding (and the grid's rows and slots), the other counts findings by kind and
  * severity. Date range and person scope every figure; kind, status and "flagged" choose the findings
  * that colour a vine, so "vines scouted" (the incidence denominator) is every vine with any record in
- * the period. Both sources give the same answer (a test holds them equal); `source` forces one.
+ * the period but a missing-vine one (a hole is found without looking at a vine; the season report
+ * counts the same way). Both sources give the same answer (a test holds them equal); `source` forces one.
  */
 export function gridStatements(
   organisationId: string,
@@ -126,9 +127,10 @@ function observationCells(organisationId: string, blockId: string, order: string
     cross join lateral (
       select json_agg(position * 4 + worst order by position) filter (where worst is not null) as worst,
         json_agg(position * 65536 + kinds order by position) filter (where kinds is not null) as kinds,
-        count(*)::int as scouted
+        count(*) filter (where looked)::int as scouted
       from (
         select position,
+          bool_or(kind <> 'missing-vine') as looked,
           max(severity) filter (where hit) as worst,
           bit_or(1 << coalesce(array_position(?::text[], kind), 0)) filter (where hit and severity >= 1) as kinds
         from (
@@ -141,6 +143,9 @@ function observationCells(organisationId: string, blockId: string, order: string
     where r.block_id = ?`;
   return { sql, bindings: [blockId, GRID_KINDS, ...hit.bindings, ...scope.bindings, blockId] };
 }
+
+/** Every kind's three bits but a missing-vine record's: a vine was looked at when any of them is set. */
+const LOOKED_MASK = 2 ** (3 * GRID_KINDS.length) - 1 - 7 * 2 ** (3 * GRID_KINDS.indexOf('missing-vine'));
 
 /**
  * The same cells from grid_vines: one row per vine with its worst level and kind bits kept for open
@@ -179,9 +184,10 @@ function summaryCells(organisationId: string, blockId: string, order: string, f:
       select row_number, ${SLOT_COLUMNS},
         json_agg(position * 4 + worst order by position) filter (where worst is not null) as worst,
         json_agg(position * 65536 + kinds order by position) filter (where kinds is not null) as kinds,
-        count(records)::int as scouted
+        count(*) filter (where looked)::int as scouted
       from (
-        select vp.row_number, vp.position, vp.status, g.records, ${worst} as worst, ${kinds} as kinds
+        select vp.row_number, vp.position, vp.status, ((g.open_levels | g.closed_levels) & ${LOOKED_MASK}) <> 0 as looked,
+          ${worst} as worst, ${kinds} as kinds
         from vine_positions vp left join grid_vines g on g.position_id = vp.id and g.organisation_id = ?
         where vp.block_id = ?
       ) s
