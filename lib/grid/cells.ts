@@ -29,14 +29,14 @@ export function cellLevel(code: number): Level {
 /** A slot with no vine standing in it: its findings matter less than the hole itself. */
 export const isEmptySlot = (slot: Slot) => slot === 'missing' || slot === 'dead';
 
-/** The kinds in the order the grid statement numbers them (bit i of a vine's kind mask is kind i). */
+/** The kinds in the order the grid statement numbers them (bit i + 1 of a vine's kind mask is kind i). */
 export const GRID_KINDS: readonly string[] = OBSERVATION_KINDS;
 
 /**
  * One row as the grid statement returns it: row number, vine count, slots not planted (position × 4 +
  * slot index), the positions present when the row has gaps, vines with matching findings (position ×
  * 4 + worst severity), the last position present, vines with kinds at "watch" or worse (position ×
- * 65536 + kind bits), and how many vines have any record in scope.
+ * 65536 + kind bits), and how many vines have any record in scope but a missing-vine one.
  */
 export type RawGridRow = [number, number, number[] | null, number[] | null, number[] | null, number, number[] | null, number];
 
