@@ -85,6 +85,11 @@ export function BlockReportView({ data }: { data: BlockReportResponse }) {
         <h1 className="text-3xl font-extrabold">
           {report.block.name}: season {report.season}
         </h1>
+        {!report.period.from.startsWith(`${report.season}-01-01`) && (
+          <p data-testid="season-span">
+            From {report.period.from.slice(0, 10)} up to {report.period.to.slice(0, 10)}
+          </p>
+        )}
         <BlockFacts report={report} />
         <ReportToolbar
           seasons={seasons}

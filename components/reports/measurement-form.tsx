@@ -10,6 +10,7 @@ import { Field, Input, Notice } from '@/components/ui/field';
 import { cn } from '@/lib/cn';
 import { vineAddress } from '@/lib/grid/labels';
 import { formatWeightKg } from '@/lib/reports/format';
+import { seasonOf, type SeasonBounds } from '@/lib/reports/season';
 import type { UnitSystem } from '@/lib/units';
 import { MEASUREMENT_LABELS, measurementSchema, type MeasurementFormValues, type MeasurementInput } from '@/lib/validation/measurement';
 
@@ -30,6 +31,8 @@ export interface MeasurementItem {
 interface MeasurementsProps {
   block: { id: string; name: string; vinesPerPanel: number | null };
   season: number;
+  /** The season's first instant and the next season's (lib/reports/season.ts). */
+  period: SeasonBounds;
   units: UnitSystem;
   canRecord: boolean;
   canRemoveAny: boolean;
@@ -46,7 +49,7 @@ const choice = (on: boolean) =>
   );
 
 /** Yield and pruning-weight entry for one block and season, with what was entered so far. */
-export function Measurements({ block, season, units, canRecord, canRemoveAny, userId }: MeasurementsProps) {
+export function Measurements({ block, season, period, units, canRecord, canRemoveAny, userId }: MeasurementsProps) {
   const queryClient = useQueryClient();
   const key = ['measurements', block.id, season];
   const list = useQuery({
@@ -61,7 +64,7 @@ export function Measurements({ block, season, units, canRecord, canRemoveAny, us
   });
   return (
     <div className="flex flex-col gap-6">
-      {canRecord ? <MeasurementForm block={block} season={season} units={units} onSaved={() => queryClient.invalidateQueries({ queryKey: key })} /> : <Notice>Advisors read these weights; a manager, scout or pruner enters them.</Notice>}
+      {canRecord ? <MeasurementForm block={block} period={period} units={units} onSaved={() => queryClient.invalidateQueries({ queryKey: key })} /> : <Notice>Advisors read these weights; a manager, scout or pruner enters them.</Notice>}
       <section aria-labelledby="entered" className="flex flex-col gap-2">
         <h2 id="entered" className="text-2xl font-extrabold">
           Entered for {season}
@@ -122,7 +125,18 @@ function scoped(sample: { current: boolean }): Resolver<MeasurementFormValues, u
     );
 }
 
-function MeasurementForm({ block, season, units, onSaved }: { block: MeasurementsProps['block']; season: number; units: UnitSystem; onSaved: () => void }) {
+/**
+ * The day a new weight defaults to: today within the season, else about harvest time, eight and a
+ * half months after the season starts (15 September for a January start, 15 March for a July one).
+ */
+function defaultDay({ from, to }: SeasonBounds, today: string) {
+  if (today >= from.slice(0, 10) && today < to.slice(0, 10)) return today;
+  const harvest = new Date(from);
+  harvest.setUTCMonth(harvest.getUTCMonth() + 8, 15);
+  return harvest.toISOString().slice(0, 10);
+}
+
+function MeasurementForm({ block, period, units, onSaved }: { block: MeasurementsProps['block']; period: SeasonBounds; units: UnitSystem; onSaved: () => void }) {
   const [message, setMessage] = useState<{ tone: 'ok' | 'error'; text: string }>();
   const [sample, setSampleState] = useState(false);
   // Read by the resolver, which the form keeps from its first render.
@@ -141,7 +155,7 @@ function MeasurementForm({ block, season, units, onSaved }: { block: Measurement
       vines: 1,
       position: null,
       clusters: null,
-      measuredOn: season === Number(today.slice(0, 4)) ? today : `${season}-09-15`,
+      measuredOn: defaultDay(period, today),
       note: '',
     },
     mode: 'onTouched',
@@ -151,7 +165,9 @@ function MeasurementForm({ block, season, units, onSaved }: { block: Measurement
   const save = useMutation({
     mutationFn: (input: MeasurementInput) => api<{ measurement: MeasurementItem }>('/api/measurements', { method: 'POST', body: input }),
     onSuccess: ({ measurement }) => {
-      const other = measurement.measuredOn.slice(0, 4) !== String(season) ? ` It belongs to the ${measurement.measuredOn.slice(0, 4)} season.` : '';
+      const day = measurement.measuredOn.slice(0, 10);
+      const inSeason = day >= period.from.slice(0, 10) && day < period.to.slice(0, 10);
+      const other = inSeason ? '' : ` It belongs to the ${seasonOf(`${day}T00:00:00Z`, Number(period.from.slice(5, 7)))} season.`;
       setMessage({ tone: 'ok', text: `Saved: ${measurement.position === null ? `row ${measurement.row} sample` : vineAddress(measurement.row, measurement.position, block.vinesPerPanel)}, ${formatWeightKg(measurement.weightKg, units, 2)}.${other}` });
       // Ready for the next vine: same kind, unit, day and row; the vine and weight cleared.
       form.reset({ ...form.getValues(), position: null, weight: undefined, clusters: null, note: '' }, { keepDefaultValues: true });

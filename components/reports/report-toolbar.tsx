@@ -67,7 +67,8 @@ export function ReportToolbar({ seasons, season, compare, exportHref, links = []
         </ButtonLink>
       ))}
       <p id="season-hint" className="w-full text-sm text-bark-faint">
-        A season is a calendar year (UTC): the winter pruning that opens it, budbreak, harvest and the walks after.
+        A season runs twelve months from the month the estate chose in Settings (January unless changed; UTC): the winter pruning that opens it, budbreak,
+        harvest and the walks after. A season that spans two years is named by the year it ends in.
       </p>
     </div>
   );

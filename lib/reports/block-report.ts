@@ -160,6 +160,8 @@ export interface PersistedVine {
 export interface BlockReportInput {
   block: ReportBlock;
   season: number;
+  /** 1–12, the month the organisation's seasons start in; January when absent. */
+  seasonStartMonth?: number;
   units: UnitSystem;
   slots: SlotCounts;
   kindRows: KindRowCount[];
@@ -876,7 +878,7 @@ export function buildBlockReport(input: BlockReportInput): BlockReport {
   return {
     block: { ...block, areaM2 },
     season: input.season,
-    period: seasonBounds(input.season),
+    period: seasonBounds(input.season, input.seasonStartMonth),
     units: input.units,
     slots: { ...slots, standing, bearing, total },
     scouting: {

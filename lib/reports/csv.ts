@@ -4,7 +4,8 @@
  *
  * Columns, in order:
  *   observation_id        the record's id (UUID, made on the device)
- *   season                calendar year of observed_at (UTC)
+ *   season                season of observed_at (the calendar year, UTC, unless the estate's
+ *                         seasons start in another month; lib/reports/season.ts)
  *   block_id, block_name  the block
  *   row, position         the vine's planting slot
  *   kind                  cane-diameter | shade-cane | weak-budbreak | trunk-injury | cane-injury |
@@ -24,6 +25,7 @@
  * get a leading apostrophe so a spreadsheet never runs them as formulas.
  */
 import { budbreakPercent, primaryBudKillPercent } from '@/lib/viticulture';
+import { seasonOf } from './season';
 
 export const CSV_COLUMNS = [
   'observation_id',
@@ -58,7 +60,7 @@ export const CSV_COLUMNS = [
 
 export const CSV_COLUMN_NOTES: Record<(typeof CSV_COLUMNS)[number], string> = {
   observation_id: "The record's id (UUID, made on the device).",
-  season: 'Calendar year of observed_at, in UTC.',
+  season: 'Season of observed_at: its calendar year in UTC, or, when the estate’s seasons start later in the year, the year the season ends in.',
   block_id: "The block's id.",
   block_name: "The block's name.",
   row: 'Row number.',
@@ -125,7 +127,7 @@ function safe<T>(fn: () => T): T | undefined {
   }
 }
 
-export function csvLine(r: ExportRow): string {
+export function csvLine(r: ExportRow, seasonStartMonth = 1): string {
   const d = r.data ?? {};
   const retained = n(d.budsRetained);
   const pushed = n(d.budsPushed);
@@ -134,7 +136,7 @@ export function csvLine(r: ExportRow): string {
   const observedAt = iso(r.observedAt)!;
   const cells: unknown[] = [
     r.id,
-    Number(observedAt.slice(0, 4)),
+    seasonOf(observedAt, seasonStartMonth),
     r.blockId,
     r.blockName,
     r.row,

@@ -1,3 +1,4 @@
+import fc from 'fast-check';
 import Papa from 'papaparse';
 import { describe, expect, it } from 'vitest';
 import { buildBlockReport, type BlockReportInput, type MeasuredObservation } from '@/lib/reports/block-report';
@@ -6,7 +7,7 @@ import { CSV_COLUMNS, csvCell, csvHeader, csvLine } from '@/lib/reports/csv';
 import { buildEstateReport } from '@/lib/reports/estate-report';
 import { cropEstimate, labourEstimate } from '@/lib/reports/estimates';
 import { call } from '@/lib/reports/format';
-import { defaultSeason, seasonBounds } from '@/lib/reports/season';
+import { defaultSeason, seasonBounds, seasonLabel, seasonOf, seasonShiftMonths } from '@/lib/reports/season';
 import { optionsToSearch, parseReportOptions, readReportOptions } from '@/lib/validation/report';
 
 const LB = 0.45359237;
@@ -323,5 +324,37 @@ describe('report options and seasons', () => {
     expect(seasonBounds(2024)).toEqual({ from: '2024-01-01T00:00:00.000Z', to: '2025-01-01T00:00:00.000Z' });
     expect(defaultSeason([2023, 2025], new Date('2026-03-01'))).toBe(2025);
     expect(defaultSeason([], new Date('2026-03-01'))).toBe(2026);
+  });
+
+  // Southern-hemisphere estates prune from about May to September (workflows reference: stuff.co.nz)
+  // and harvest early in the calendar year; naming a season by its harvest year is common practice,
+  // no source.
+  it('may start in another month, spanning two years and named by the year they end in', () => {
+    expect(seasonBounds(2026, 7)).toEqual({ from: '2025-07-01T00:00:00.000Z', to: '2026-07-01T00:00:00.000Z' });
+    expect(seasonOf('2025-06-30T23:59:59Z', 7)).toBe(2025);
+    expect(seasonOf('2025-07-01T00:00:00Z', 7)).toBe(2026);
+    expect(seasonOf('2026-03-15T08:00:00Z', 7)).toBe(2026);
+    expect(seasonOf('2026-03-15T08:00:00Z')).toBe(2026);
+    expect(seasonLabel(2026, 7)).toBe('2025–26');
+    expect(seasonLabel(2000, 9)).toBe('1999–00');
+    expect(seasonLabel(2026)).toBe('2026');
+    expect(defaultSeason([], new Date('2026-08-01'), 7)).toBe(2027);
+    expect(() => seasonBounds(2026, 13)).toThrow(RangeError);
+    expect(() => seasonOf('2026-01-01', 0)).toThrow(RangeError);
+  });
+
+  it('place every moment in exactly one season, whatever the start month', () => {
+    fc.assert(
+      fc.property(fc.integer({ min: 1, max: 12 }), fc.date({ min: new Date('1990-01-01'), max: new Date('2100-01-01'), noInvalidDate: true }), (month, at) => {
+        const season = seasonOf(at, month);
+        const { from, to } = seasonBounds(season, month);
+        expect(at.getTime()).toBeGreaterThanOrEqual(Date.parse(from));
+        expect(at.getTime()).toBeLessThan(Date.parse(to));
+        // The shift SQL uses names the same season.
+        const shifted = new Date(at);
+        shifted.setUTCMonth(shifted.getUTCMonth() + seasonShiftMonths(month), 1);
+        expect(shifted.getUTCFullYear()).toBe(season);
+      }),
+    );
   });
 });

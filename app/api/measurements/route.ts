@@ -5,6 +5,7 @@ import { AppError } from '@/lib/server/errors';
 import { memberRoute } from '@/lib/server/http';
 import { getBlock } from '@/lib/server/queries/blocks';
 import { listMeasurements } from '@/lib/server/queries/measurements';
+import { seasonBounds } from '@/lib/reports/season';
 import { recordMeasurement } from '@/lib/server/services/reports';
 import { measurementSchema } from '@/lib/validation/measurement';
 import { searchToOptionsRaw } from '@/lib/validation/report';
@@ -19,7 +20,7 @@ export const GET = memberRoute({}, async (member, { req }) => {
   const query = listQuery.parse(searchToOptionsRaw(req.nextUrl.searchParams));
   const block = await getBlock(db(), member.organisationId, query.blockId);
   if (!block) throw new AppError('not-found', 'There is no such block in your organisation.');
-  return { measurements: await listMeasurements(db(), member.organisationId, block.id, query.season) };
+  return { measurements: await listMeasurements(db(), member.organisationId, block.id, seasonBounds(query.season, member.seasonStartMonth)) };
 });
 
 /** POST /api/measurements — one vine's or one row sample's yield or pruning weight. */

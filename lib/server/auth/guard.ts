@@ -18,6 +18,7 @@ export interface Member {
   organisationId: string;
   organisationName: string;
   unitSystem: 'metric' | 'imperial';
+  seasonStartMonth: number;
   role: Role;
   memberships: MembershipView[];
 }
@@ -41,6 +42,7 @@ export async function currentMember(): Promise<Member | null> {
     organisationId: current.organisationId,
     organisationName: current.organisationName,
     unitSystem: current.unitSystem,
+    seasonStartMonth: current.seasonStartMonth,
     role: current.role,
     memberships,
   };

@@ -1,4 +1,5 @@
 import 'server-only';
+import type { SeasonBounds } from '@/lib/reports/season';
 import type { Db } from '@/lib/server/db';
 import type { MeasurementKind } from '@/lib/validation/measurement';
 
@@ -61,13 +62,13 @@ export function getMeasurement(db: Db, organisationId: string, id: string): Prom
     .first(columns(db));
 }
 
-/** A block's weights of one season, newest first. */
-export function listMeasurements(db: Db, organisationId: string, blockId: string, season: number): Promise<MeasurementView[]> {
+/** A block's weights of one season (its bounds, lib/reports/season.ts), newest first. */
+export function listMeasurements(db: Db, organisationId: string, blockId: string, period: SeasonBounds): Promise<MeasurementView[]> {
   return db('measurements as m')
     .leftJoin('users as u', 'u.id', 'm.recorded_by')
     .where({ 'm.organisation_id': organisationId, 'm.block_id': blockId })
-    .andWhere('m.measured_on', '>=', `${season}-01-01`)
-    .andWhere('m.measured_on', '<', `${season + 1}-01-01`)
+    .andWhere('m.measured_on', '>=', period.from.slice(0, 10))
+    .andWhere('m.measured_on', '<', period.to.slice(0, 10))
     .orderBy([{ column: 'm.measured_on', order: 'desc' }, { column: 'm.created_at', order: 'desc' }])
     .select(columns(db));
 }

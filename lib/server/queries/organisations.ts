@@ -7,6 +7,7 @@ export interface OrganisationRow {
   name: string;
   unit_system: 'metric' | 'imperial';
   keep_photo_location: boolean;
+  season_start_month: number;
   created_at: Date;
 }
 
@@ -14,6 +15,8 @@ export interface MembershipView {
   organisationId: string;
   organisationName: string;
   unitSystem: 'metric' | 'imperial';
+  /** 1–12: the month the organisation's seasons start in (lib/reports/season.ts). */
+  seasonStartMonth: number;
   role: Role;
 }
 
@@ -37,6 +40,7 @@ export async function listMemberships(db: Db, userId: string): Promise<Membershi
       organisationId: 'o.id',
       organisationName: 'o.name',
       unitSystem: 'o.unit_system',
+      seasonStartMonth: 'o.season_start_month',
       role: 'm.role',
     });
 }
@@ -60,4 +64,8 @@ export function listMembers(db: Db, organisationId: string) {
       role: 'm.role',
       since: 'm.created_at',
     });
+}
+
+export function updateSeasonStartMonth(db: Db, organisationId: string, month: number) {
+  return db('organisations').where({ id: organisationId }).update({ season_start_month: month });
 }

@@ -11,31 +11,36 @@ import type {
   TaskRow,
 } from '@/lib/reports/block-report';
 import type { ExportRow } from '@/lib/reports/csv';
-import { seasonBounds } from '@/lib/reports/season';
+import { seasonBounds, seasonShiftMonths, type SeasonBounds } from '@/lib/reports/season';
 import type { Db } from '@/lib/server/db';
 
 /** Kinds whose data the report reads record by record; the rest are counted in SQL. */
 export const MEASURED_KINDS = ['weak-budbreak', 'cane-diameter', 'shade-cane', 'pruning-record', 'bud-injury'] as const;
 
+/** The season (lib/reports/season.ts) of a UTC date and time or a date, in SQL: the year of it moved on by the shift. */
+const seasonOfSql = (utc: string, startMonth: number) => `extract(year from ${utc} + interval '1 month' * ${seasonShiftMonths(startMonth)})::int`;
+
 /**
- * Seasons (calendar years) with live observations or weights, newest first. The observation years
- * are found by skipping from one year's first record to the next, so a million records cost a
- * handful of index probes, not a scan.
+ * Seasons with live observations or weights, newest first. The observation seasons are found by
+ * skipping from one season's first record to the next, so a million records cost a handful of
+ * index probes, not a scan.
  */
-export async function listSeasons(db: Db, organisationId: string, blockId?: string): Promise<number[]> {
+export async function listSeasons(db: Db, organisationId: string, blockId: string | undefined, startMonth: number): Promise<number[]> {
   const scope = blockId ? 'o.organisation_id = ? and o.block_id = ?' : 'o.organisation_id = ?';
   const args = blockId ? [organisationId, blockId] : [organisationId];
+  const firstSeason = seasonOfSql(`min(o.observed_at) at time zone 'UTC'`, startMonth);
+  // Season N + 1 starts in the start month of year N, or of N + 1 for calendar-year seasons.
+  const nextStart = `make_timestamptz(years.year + ${startMonth === 1 ? 1 : 0}, ${startMonth}, 1, 0, 0, 0, 'UTC')`;
   const { rows } = await db.raw<{ rows: { year: number }[] }>(
     `with recursive years(year) as (
-       select (select extract(year from min(o.observed_at) at time zone 'UTC')::int from observations o where ${scope} and o.deleted_at is null)
+       select (select ${firstSeason} from observations o where ${scope} and o.deleted_at is null)
        union all
-       select (select extract(year from min(o.observed_at) at time zone 'UTC')::int from observations o
-                where ${scope} and o.deleted_at is null and o.observed_at >= make_timestamptz(years.year + 1, 1, 1, 0, 0, 0, 'UTC'))
+       select (select ${firstSeason} from observations o where ${scope} and o.deleted_at is null and o.observed_at >= ${nextStart})
          from years where years.year is not null
      )
      select year from years where year is not null
      union
-     select distinct extract(year from m.measured_on)::int from measurements m where m.organisation_id = ?${blockId ? ' and m.block_id = ?' : ''}
+     select distinct ${seasonOfSql('m.measured_on', startMonth)} from measurements m where m.organisation_id = ?${blockId ? ' and m.block_id = ?' : ''}
      order by year desc`,
     [...args, ...args, ...args],
   );
@@ -56,16 +61,13 @@ export async function countSlots(db: Db, blockId: string, bearingFromYear: numbe
 }
 
 const live = 'o.organisation_id = ? and o.block_id = ? and o.deleted_at is null and o.observed_at >= ? and o.observed_at < ?';
-const liveArgs = (organisationId: string, blockId: string, season: number) => {
-  const { from, to } = seasonBounds(season);
-  return [organisationId, blockId, from, to];
-};
+const liveArgs = (organisationId: string, blockId: string, period: SeasonBounds) => [organisationId, blockId, period.from, period.to];
 
 /**
  * Per row and kind: vines with a record, vines whose worst record is "watch" or worse, and records;
  * per row: vines scouted (any record but a missing-vine one) and slots. One pass over the season.
  */
-export async function countByRowAndKind(db: Db, organisationId: string, blockId: string, season: number) {
+export async function countByRowAndKind(db: Db, organisationId: string, blockId: string, period: SeasonBounds) {
   const { rows } = await db.raw<{ rows: { kinds: KindRowCount[]; scouted: ScoutedRow[]; observations: number }[] }>(
     `with per_vine as materialized (
        select o.row_number, o.position, o.kind, max(o.severity) as worst, count(*)::int as n
@@ -82,44 +84,51 @@ export async function countByRowAndKind(db: Db, organisationId: string, blockId:
             on s.row_number = r.row_number
          where r.block_id = ?) as scouted,
        (select coalesce(sum(n), 0)::int from per_vine) as observations`,
-    [...liveArgs(organisationId, blockId, season), blockId],
+    [...liveArgs(organisationId, blockId, period), blockId],
   );
   return rows[0]!;
 }
 
-export async function listMeasuredObservations(db: Db, organisationId: string, blockId: string, season: number): Promise<MeasuredObservation[]> {
+export async function listMeasuredObservations(db: Db, organisationId: string, blockId: string, period: SeasonBounds): Promise<MeasuredObservation[]> {
   const { rows } = await db.raw<{ rows: (Omit<MeasuredObservation, 'observedAt'> & { observedAt: Date })[] }>(
     `select o.row_number as row, o.position, o.kind, o.data, o.observed_at as "observedAt"
        from observations o where ${live} and o.kind = any(?::text[])
       order by o.observed_at, o.id`,
-    [...liveArgs(organisationId, blockId, season), [...MEASURED_KINDS]],
+    [...liveArgs(organisationId, blockId, period), [...MEASURED_KINDS]],
   );
   return rows.map((r) => ({ ...r, observedAt: r.observedAt.toISOString() }));
 }
 
 /** Weights of the seasons from `first` to `last`, both included. */
-export async function listMeasurementRows(db: Db, organisationId: string, blockId: string, first: number, last: number): Promise<MeasurementRow[]> {
+export async function listMeasurementRows(db: Db, organisationId: string, blockId: string, first: number, last: number, startMonth: number): Promise<MeasurementRow[]> {
   const { rows } = await db.raw<{ rows: (Omit<MeasurementRow, 'weightKg'> & { weightKg: string })[] }>(
-    `select kind, extract(year from measured_on)::int as season, row_number as row, position, vines, weight_kg as "weightKg", clusters
+    `select kind, ${seasonOfSql('measured_on', startMonth)} as season, row_number as row, position, vines, weight_kg as "weightKg", clusters
        from measurements
-      where organisation_id = ? and block_id = ? and measured_on >= make_date(?, 1, 1) and measured_on < make_date(?, 1, 1)
+      where organisation_id = ? and block_id = ? and measured_on >= ?::date and measured_on < ?::date
       order by measured_on, id`,
-    [organisationId, blockId, first, last + 1],
+    [organisationId, blockId, seasonBounds(first, startMonth).from.slice(0, 10), seasonBounds(last, startMonth).to.slice(0, 10)],
   );
   return rows.map((r) => ({ ...r, weightKg: Number(r.weightKg) }));
 }
 
 /** Pruning weights carried by pruning records of the seasons from `first` to `last`: each vine's latest. */
-export async function listRecordedPruningWeights(db: Db, organisationId: string, blockId: string, first: number, last: number): Promise<RecordedPruningWeight[]> {
+export async function listRecordedPruningWeights(
+  db: Db,
+  organisationId: string,
+  blockId: string,
+  first: number,
+  last: number,
+  startMonth: number,
+): Promise<RecordedPruningWeight[]> {
   const { rows } = await db.raw<{ rows: RecordedPruningWeight[] }>(
     `select distinct on (season, o.row_number, o.position)
-            extract(year from o.observed_at at time zone 'UTC')::int as season, o.row_number as row, o.position,
+            ${seasonOfSql(`o.observed_at at time zone 'UTC'`, startMonth)} as season, o.row_number as row, o.position,
             (o.data->>'pruningWeightKg')::float8 as "weightKg"
        from observations o
       where o.organisation_id = ? and o.block_id = ? and o.deleted_at is null and o.kind = 'pruning-record'
         and o.observed_at >= ? and o.observed_at < ? and jsonb_typeof(o.data->'pruningWeightKg') = 'number'
       order by season, o.row_number, o.position, o.observed_at desc`,
-    [organisationId, blockId, seasonBounds(first).from, seasonBounds(last).to],
+    [organisationId, blockId, seasonBounds(first, startMonth).from, seasonBounds(last, startMonth).to],
   );
   return rows;
 }
@@ -142,7 +151,7 @@ export async function tableExists(db: Db, table: string): Promise<boolean> {
  * closed, or under an open 'replant' flag (when flags exist). Each with the clone and rootstock of
  * the vine last planted there.
  */
-export async function listReplantSlots(db: Db, organisationId: string, blockId: string, season: number): Promise<ReplantSlot[]> {
+export async function listReplantSlots(db: Db, organisationId: string, blockId: string, period: SeasonBounds): Promise<ReplantSlot[]> {
   const withFlags = await tableExists(db, 'flags');
   const flagged = withFlags
     ? `union all
@@ -167,15 +176,14 @@ export async function listReplantSlots(db: Db, organisationId: string, blockId: 
        join vine_positions vp on vp.id = r.position_id and vp.block_id = ?
        left join lateral (select clone, rootstock from vines where position_id = vp.id order by planting_year desc nulls last, created_at desc limit 1) v on true
       order by vp.row_number, vp.position`,
-    [blockId, ...liveArgs(organisationId, blockId, season), ...(withFlags ? [organisationId, blockId] : []), blockId],
+    [blockId, ...liveArgs(organisationId, blockId, period), ...(withFlags ? [organisationId, blockId] : []), blockId],
   );
   return rows;
 }
 
 /** The block's tasks that belong to the season: made in it, closed in it, or still open from before. Null without a tasks table. */
-export async function listSeasonTasks(db: Db, organisationId: string, blockId: string, season: number): Promise<TaskRow[] | null> {
+export async function listSeasonTasks(db: Db, organisationId: string, blockId: string, { from, to }: SeasonBounds): Promise<TaskRow[] | null> {
   if (!(await tableExists(db, 'tasks'))) return null;
-  const { from, to } = seasonBounds(season);
   const { rows } = await db.raw<{ rows: (Omit<TaskRow, 'dueOn' | 'closedAt'> & { dueOn: string | null; closedAt: Date | null })[] }>(
     `select t.id, t.title, t.status, t.priority, to_char(t.due_on, 'YYYY-MM-DD') as "dueOn", coalesce(u.name, u.email) as assignee,
             (select count(*)::int from task_items i where i.task_id = t.id) as items,
@@ -195,9 +203,7 @@ export async function listSeasonTasks(db: Db, organisationId: string, blockId: s
  * worst of them now. One pass over both seasons' records, grouped by vine and kind, with no join
  * for a planner to misjudge.
  */
-export async function listPersistedProblems(db: Db, organisationId: string, blockId: string, season: number, previous: number, limit = 100) {
-  const now = seasonBounds(season);
-  const before = seasonBounds(previous);
+export async function listPersistedProblems(db: Db, organisationId: string, blockId: string, now: SeasonBounds, before: SeasonBounds, limit = 100) {
   const { rows } = await db.raw<{ rows: { vines: (PersistedVine & { total: number })[]; kinds: { kind: string; vines: number }[] }[] }>(
     `with persisted as materialized (
        select row_number, position, kind, before, now
@@ -233,12 +239,11 @@ export interface ExportCursor {
 export async function listExportPage(
   db: Db,
   organisationId: string,
-  season: number,
+  { from, to }: SeasonBounds,
   blockId: string | undefined,
   cursor: ExportCursor | null,
   limit: number,
 ): Promise<(ExportRow & { cursorAt: string })[]> {
-  const { from, to } = seasonBounds(season);
   const where = ['o.organisation_id = ?', 'o.deleted_at is null', 'o.observed_at >= ?', 'o.observed_at < ?'];
   const args: unknown[] = [organisationId, from, to];
   if (blockId) {

@@ -5,7 +5,7 @@ import { buildBlockReport, type BlockReport, type BlockReportInput } from '@/lib
 import { compareReports, type Comparison } from '@/lib/reports/compare';
 import { csvHeader, csvLine } from '@/lib/reports/csv';
 import { buildEstateReport } from '@/lib/reports/estate-report';
-import { defaultSeason } from '@/lib/reports/season';
+import { defaultSeason, seasonBounds } from '@/lib/reports/season';
 import type { Member } from '@/lib/server/auth/guard';
 import { db, type Db } from '@/lib/server/db';
 import { AppError } from '@/lib/server/errors';
@@ -40,14 +40,16 @@ async function blockOf(database: Db, member: Member, blockId: string): Promise<B
 async function blockSeason(database: Db, member: Member, block: BlockRow, season: number, options: ReportOptions): Promise<BlockReport> {
   const settings = DEFAULT_SETTINGS;
   const org = member.organisationId;
+  const month = member.seasonStartMonth;
+  const period = seasonBounds(season, month);
   const [slots, counts, measured, measurements, recordedWeights, replant, tasks] = await Promise.all([
     countSlots(database, block.id, season - settings.crop.bearingAfterSeasons),
-    countByRowAndKind(database, org, block.id, season),
-    listMeasuredObservations(database, org, block.id, season),
-    listMeasurementRows(database, org, block.id, season - 1, season + 1),
-    listRecordedPruningWeights(database, org, block.id, season - 1, season + 1),
-    listReplantSlots(database, org, block.id, season),
-    listSeasonTasks(database, org, block.id, season),
+    countByRowAndKind(database, org, block.id, period),
+    listMeasuredObservations(database, org, block.id, period),
+    listMeasurementRows(database, org, block.id, season - 1, season + 1, month),
+    listRecordedPruningWeights(database, org, block.id, season - 1, season + 1, month),
+    listReplantSlots(database, org, block.id, period),
+    listSeasonTasks(database, org, block.id, period),
   ]);
   const input: BlockReportInput = {
     block: {
@@ -65,6 +67,7 @@ async function blockSeason(database: Db, member: Member, block: BlockRow, season
       vinesPerPanel: block.vines_per_panel,
     },
     season,
+    seasonStartMonth: month,
     units: member.unitSystem,
     slots,
     kindRows: counts.kinds,
@@ -85,8 +88,9 @@ async function blockSeason(database: Db, member: Member, block: BlockRow, season
 export async function loadBlockReport(member: Member, blockId: string, options: ReportOptions, now = new Date()): Promise<BlockReportResponse> {
   const database = db();
   const block = await blockOf(database, member, blockId);
-  const seasons = await listSeasons(database, member.organisationId, block.id);
-  const season = options.season ?? defaultSeason(seasons, now);
+  const month = member.seasonStartMonth;
+  const seasons = await listSeasons(database, member.organisationId, block.id, month);
+  const season = options.season ?? defaultSeason(seasons, now, month);
   const previous = options.compare === 'none' ? null : (options.compare ?? season - 1);
   const report = await blockSeason(database, member, block, season, options);
   let comparison: Comparison | null = null;
@@ -95,7 +99,7 @@ export async function loadBlockReport(member: Member, blockId: string, options: 
     const { budsPerVine: _b, budbreakPercent: _p, budTarget: _t, ...shared } = options;
     const [before, persisted] = await Promise.all([
       blockSeason(database, member, block, previous, shared),
-      listPersistedProblems(database, member.organisationId, block.id, season, previous),
+      listPersistedProblems(database, member.organisationId, block.id, seasonBounds(season, month), seasonBounds(previous, month)),
     ]);
     comparison = compareReports(report, before, persisted);
   }
@@ -110,8 +114,8 @@ const BLOCKS_AT_ONCE = 2;
  */
 export async function loadEstateReport(member: Member, options: ReportOptions, now = new Date()): Promise<EstateReportResponse> {
   const database = db();
-  const seasons = await listSeasons(database, member.organisationId);
-  const season = options.season ?? defaultSeason(seasons, now);
+  const seasons = await listSeasons(database, member.organisationId, undefined, member.seasonStartMonth);
+  const season = options.season ?? defaultSeason(seasons, now, member.seasonStartMonth);
   const { budsPerVine: _b, budbreakPercent: _p, budTarget: _t, minutesPerVine: _m, ...shared } = options;
   const all = await listBlocks(database, member.organisationId);
   const blocks: BlockReport[] = [];
@@ -130,6 +134,7 @@ const EXPORT_PAGE = 2000;
 export async function exportObservations(member: Member, season: number, blockId?: string): Promise<{ filename: string; stream: ReadableStream<Uint8Array> }> {
   const database = db();
   const block = blockId ? await blockOf(database, member, blockId) : undefined;
+  const period = seasonBounds(season, member.seasonStartMonth);
   const encoder = new TextEncoder();
   let cursor: ExportCursor | null = null;
   let headerSent = false;
@@ -141,9 +146,9 @@ export async function exportObservations(member: Member, season: number, blockId
           controller.enqueue(encoder.encode(`\uFEFF${csvHeader()}`));
           return;
         }
-        const rows = await listExportPage(database, member.organisationId, season, block?.id, cursor, EXPORT_PAGE);
+        const rows = await listExportPage(database, member.organisationId, period, block?.id, cursor, EXPORT_PAGE);
         if (rows.length) {
-          controller.enqueue(encoder.encode(rows.map(csvLine).join('')));
+          controller.enqueue(encoder.encode(rows.map((r) => csvLine(r, member.seasonStartMonth)).join('')));
           const last = rows[rows.length - 1]!;
           cursor = { observedAt: last.cursorAt, id: last.id };
         }

@@ -12,8 +12,9 @@ export const metadata: Metadata = { title: 'Observation export' };
 
 export default async function ExportPage() {
   const member = await memberForPage();
-  const [seasons, blocks] = await Promise.all([listSeasons(db(), member.organisationId), listBlocks(db(), member.organisationId)]);
-  const season = defaultSeason(seasons, new Date());
+  const month = member.seasonStartMonth;
+  const [seasons, blocks] = await Promise.all([listSeasons(db(), member.organisationId, undefined, month), listBlocks(db(), member.organisationId)]);
+  const season = defaultSeason(seasons, new Date(), month);
   return (
     <div className="flex max-w-4xl flex-col gap-5">
       <header>
