@@ -233,6 +233,37 @@ describe('the grid summary kept by triggers', () => {
     await expectSourcesAgree(db, block.id);
   });
 
+  it('goes with a block or an organisation deleted with its records', async () => {
+    const db = testDb();
+    const gone = await makeTeam();
+    const recorded = async () => {
+      const block = await makeBlock(gone.org.id, { rows: 1, vinesPerRow: 2 });
+      const slot = await db('vine_positions').where({ block_id: block.id, position: 1 }).first('id');
+      await db('observations').insert({
+        id: randomUUID(),
+        organisation_id: gone.org.id,
+        block_id: block.id,
+        position_id: slot.id,
+        row_number: 1,
+        position: 1,
+        kind: 'trunk-injury',
+        observed_at: new Date('2026-03-02T08:00:00Z'),
+        severity: 2,
+        payload_sha256: 'summary-test',
+      });
+      expect(await db('grid_vines').where({ block_id: block.id }).count({ n: '*' })).toEqual([{ n: '1' }]);
+      return block;
+    };
+    const summaryRows = async (blockId: string) =>
+      Number((await db('grid_vines').where({ block_id: blockId }).count({ n: '*' }))[0]!.n) + Number((await db('grid_counts').where({ block_id: blockId }).count({ n: '*' }))[0]!.n);
+    const block = await recorded();
+    await db('blocks').where({ id: block.id }).delete();
+    expect(await summaryRows(block.id)).toBe(0);
+    const another = await recorded();
+    await db('organisations').where({ id: gone.org.id }).delete();
+    expect(await summaryRows(another.id)).toBe(0);
+  });
+
   it('counts vines needing action per block for the grid picker', async () => {
     const db = testDb();
     const block = await makeBlock(team.org.id, { rows: 1, vinesPerRow: 3, name: `Picker ${randomUUID().slice(0, 6)}` });
