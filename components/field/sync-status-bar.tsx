@@ -14,8 +14,8 @@ export function SyncStatusBar() {
     <section
       aria-label="Sync"
       data-testid="sync-status"
-      data-waiting={s.waiting}
-      data-photos-waiting={s.photosWaiting}
+      data-waiting={s.counted ? s.waiting : undefined}
+      data-photos-waiting={s.counted ? s.photosWaiting : undefined}
       className={cn('sticky top-0 z-20 border-b-2 px-3 py-2 text-sm', s.online ? 'border-line bg-panel' : 'border-cut bg-cut-tint')}
     >
       <div className="mx-auto flex max-w-md flex-wrap items-center gap-x-3 gap-y-1">
@@ -23,7 +23,8 @@ export function SyncStatusBar() {
           <span aria-hidden className={cn('inline-block size-3 rounded-full', s.online ? 'bg-rootstock' : 'border-2 border-cut')} />
           {s.online ? t('online') : t('offline')}
         </span>
-        <span data-testid="waiting">{t('waiting', { count: s.waiting })}</span>
+        {/* Never "nothing waiting" before the outbox is read: a record on the phone would look sent. */}
+        <span data-testid="waiting">{s.counted ? t('waiting', { count: s.waiting }) : t('counting')}</span>
         {s.photosWaiting > 0 && <span data-testid="photos-waiting">{t('photosWaiting', { count: s.photosWaiting })}</span>}
         <button
           type="button"

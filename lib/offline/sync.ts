@@ -37,6 +37,8 @@ const IDLE_INTERVAL_MS = 60_000;
 export interface SyncStatus {
   online: boolean;
   running: boolean;
+  /** False until this phone's outbox has been read once: until then the counts below mean nothing. */
+  counted: boolean;
   waiting: number;
   photosWaiting: number;
   rejected: ObservationEntry[];
@@ -52,6 +54,7 @@ export interface SyncStatus {
 let status: SyncStatus = {
   online: typeof navigator === 'undefined' ? true : navigator.onLine,
   running: false,
+  counted: false,
   waiting: 0,
   photosWaiting: 0,
   rejected: [],
@@ -84,6 +87,7 @@ export async function refreshCounts() {
   const mine = obs.filter((o) => o.owner === owner);
   const myPhotos = pics.filter((p) => p.owner === owner);
   setStatus({
+    counted: true,
     waiting: mine.filter((o) => o.state !== 'rejected').length,
     photosWaiting: myPhotos.filter((p) => p.state !== 'rejected').length,
     rejected: mine.filter((o) => o.state === 'rejected'),

@@ -2,17 +2,12 @@ import { expect, test, type Page } from '@playwright/test';
 import { closeTestDb, testDb } from '../helpers/fixtures';
 import { objectExists } from '../helpers/s3';
 import { testPhoto } from './helpers/photos';
-import { signInAs, waitForServiceWorker } from './helpers/session';
+import { signInAs, waitForServiceWorker, waitingOnPhone } from './helpers/session';
 
 const UPPER_TERRACE = '0b10c4a0-0000-4000-8000-000000000001';
 const SCOUT_ID = '8a6b2c10-1d4e-4f3a-8b7c-000000000002';
 
 test.afterAll(closeTestDb);
-
-async function waiting(page: Page) {
-  const bar = page.getByTestId('sync-status');
-  return { records: Number(await bar.getAttribute('data-waiting')), photos: Number(await bar.getAttribute('data-photos-waiting')) };
-}
 
 async function recordBudbreak(page: Page, retained: number, pushed: number, photo?: Awaited<ReturnType<typeof testPhoto>>) {
   await page.getByRole('button', { name: 'Weak budbreak' }).click();
@@ -50,15 +45,15 @@ test('a scout walks a row with no signal, reloads twice, and everything arrives 
     await expect(page.getByTestId('vine-address')).toContainText(`Row 5 · Vine ${i + 2}`);
   }
   // The status bar counts the outbox a moment after each save.
-  await expect.poll(() => waiting(page)).toEqual({ records: 30, photos: 5 });
+  await expect.poll(() => waitingOnPhone(page)).toEqual({ records: 30, photos: 5 });
 
   await page.reload();
   await expect(page.getByTestId('vine-address')).toBeVisible();
-  await expect.poll(() => waiting(page)).toEqual({ records: 30, photos: 5 });
+  await expect.poll(() => waitingOnPhone(page)).toEqual({ records: 30, photos: 5 });
 
   await context.setOffline(false);
   await page.getByRole('button', { name: 'Sync now' }).click();
-  await expect.poll(() => waiting(page), { timeout: 90_000 }).toEqual({ records: 0, photos: 0 });
+  await expect.poll(() => waitingOnPhone(page), { timeout: 90_000 }).toEqual({ records: 0, photos: 0 });
 
   const stored = await testDb()('observations').where({ block_id: UPPER_TERRACE, recorded_by: SCOUT_ID, row_number: 5 }).where('received_at', '>=', started);
   expect(stored).toHaveLength(30);
@@ -95,7 +90,7 @@ test('a batch whose answer is lost after the server stored it is resent without 
   for (let i = 0; i < 4; i++) await recordBudbreak(page, 24, 10 + i);
   await context(page).setOffline(false);
   await page.getByRole('button', { name: 'Sync now' }).click();
-  await expect.poll(() => waiting(page), { timeout: 60_000 }).toEqual({ records: 0, photos: 0 });
+  await expect.poll(() => waitingOnPhone(page), { timeout: 60_000 }).toEqual({ records: 0, photos: 0 });
   expect(dropped).toBe(1);
 
   const stored = await testDb()('observations').where({ block_id: UPPER_TERRACE, row_number: 7 }).where('received_at', '>=', started);
@@ -116,11 +111,11 @@ test('a session that ends while offline keeps the queue; after signing in again 
   await context(page).setOffline(false);
   await page.getByRole('button', { name: 'Sync now' }).click();
   await expect(page.getByText('Your session ended')).toBeVisible();
-  await expect.poll(() => waiting(page)).toEqual({ records: 2, photos: 0 });
+  await expect.poll(() => waitingOnPhone(page)).toEqual({ records: 2, photos: 0 });
 
   await signInAs(page, 'scout@example.com');
   await page.goto('/field');
-  await expect.poll(() => waiting(page), { timeout: 60_000 }).toEqual({ records: 0, photos: 0 });
+  await expect.poll(() => waitingOnPhone(page), { timeout: 60_000 }).toEqual({ records: 0, photos: 0 });
   const stored = await testDb()('observations').where({ block_id: UPPER_TERRACE, row_number: 9 }).where('received_at', '>=', started);
   expect(stored).toHaveLength(2);
 });

@@ -1,9 +1,9 @@
 import { randomUUID } from 'node:crypto';
-import { expect, test, type Browser, type Page } from '@playwright/test';
+import { expect, test, type Browser } from '@playwright/test';
 import { closeTestDb, testDb } from '../helpers/fixtures';
 import { mailsTo } from '../helpers/mail';
 import { testPhoto } from './helpers/photos';
-import { signInAs, waitForServiceWorker } from './helpers/session';
+import { signInAs, waitForServiceWorker, waitingOnPhone } from './helpers/session';
 
 const UPPER_TERRACE = '0b10c4a0-0000-4000-8000-000000000001';
 const PRUNER_ID = '8a6b2c10-1d4e-4f3a-8b7c-000000000003';
@@ -22,11 +22,6 @@ async function phoneOf(browser: Browser, email: string) {
   const page = await context.newPage();
   await signInAs(page, email);
   return page;
-}
-
-async function waiting(page: Page) {
-  const bar = page.getByTestId('sync-status');
-  return { records: Number(await bar.getAttribute('data-waiting')), photos: Number(await bar.getAttribute('data-photos-waiting')) };
 }
 
 async function until<T>(read: () => Promise<T>, ok: (value: T) => boolean, timeoutMs = 30_000) {
@@ -70,11 +65,11 @@ test('a pruner flags vines offline, the manager makes a task of it, the pruner w
   await page.getByLabel('Note', { exact: true }).fill('Split at the graft, keep the low sucker');
   await page.getByRole('button', { name: 'Save the flag on this phone' }).click();
   await expect(page.getByRole('status').filter({ hasText: 'Flag saved on this phone' })).toBeVisible();
-  expect(await waiting(page)).toEqual({ records: 1, photos: 0 });
+  expect(await waitingOnPhone(page)).toEqual({ records: 1, photos: 0 });
 
   await page.context().setOffline(false);
   await page.getByRole('button', { name: 'Sync now' }).click();
-  await expect.poll(() => waiting(page), { timeout: 30_000 }).toEqual({ records: 0, photos: 0 });
+  await expect.poll(() => waitingOnPhone(page), { timeout: 30_000 }).toEqual({ records: 0, photos: 0 });
   const flag = await testDb()('flags').where({ block_id: UPPER_TERRACE, row_number: ROW, position: 33 }).first();
   expect(flag).toMatchObject({ to_position: 34, reason: 'trunk-renewal', flagged_by: PRUNER_ID, status: 'open' });
 
@@ -113,7 +108,7 @@ test('a pruner flags vines offline, the manager makes a task of it, the pruner w
   await step.getByRole('button', { name: 'Save as done' }).click();
   await expect(page.getByTestId('task-vine-done')).toBeVisible();
   await expect(page.getByText('Every vine of this task is done.')).toBeVisible();
-  await expect.poll(() => waiting(page), { timeout: 60_000 }).toEqual({ records: 0, photos: 0 });
+  await expect.poll(() => waitingOnPhone(page), { timeout: 60_000 }).toEqual({ records: 0, photos: 0 });
 
   const task = await testDb()('tasks').where({ title: 'Renew trunks, row 20' }).first();
   expect(task).toMatchObject({ status: 'done', assignee_id: PRUNER_ID });
@@ -135,7 +130,10 @@ test('a pruner flags vines offline, the manager makes a task of it, the pruner w
   // 4. The advisor comments on the scout's finding on that vine; the scout gets the mail.
   const advisor = await phoneOf(browser, 'advisor@example.com');
   // The advisor consults for two growers; this vine is the estate's.
+  // The advisor already sits on the desk, so the URL says nothing: wait for the switch itself.
+  const switched = advisor.waitForResponse((r) => r.url().endsWith('/api/organisations/current') && r.request().method() === 'PUT');
   await advisor.getByLabel('Organisation').selectOption({ label: 'Ninefold Ridge Estate (advisor)' });
+  expect((await switched).status()).toBe(200);
   await expect(advisor).toHaveURL(/\/desk$/);
   await advisor.goto(`/grid/${UPPER_TERRACE}?row=${ROW}&position=33`);
   const panel = advisor.getByTestId('vine-panel');
@@ -178,11 +176,11 @@ test('a crew lead records a pruning check with no signal, and the check counts i
   await expect(page.getByTestId('check-feedback')).toContainText('34 buds left on this vine');
   await expect(page.getByTestId('check-feedback')).toContainText('21% more buds than the target of 28');
   await page.getByRole('button', { name: 'Save on this phone' }).click();
-  await expect.poll(() => waiting(page)).toEqual({ records: 1, photos: 0 });
+  await expect.poll(() => waitingOnPhone(page)).toEqual({ records: 1, photos: 0 });
 
   await page.context().setOffline(false);
   await page.getByRole('button', { name: 'Sync now' }).click();
-  await expect.poll(() => waiting(page), { timeout: 30_000 }).toEqual({ records: 0, photos: 0 });
+  await expect.poll(() => waitingOnPhone(page), { timeout: 30_000 }).toEqual({ records: 0, photos: 0 });
   const stored = await testDb()('observations').where({ block_id: UPPER_TERRACE, kind: 'pruning-check', row_number: 22, position: 10 }).first();
   expect(stored).toMatchObject({ recorded_by: PRUNER_ID, severity: 1, data: { prunedBy: PRUNER_ID, canesKept: 2, budsOnCanes: 30, renewalSpurs: 2, budTarget: 28 } });
 

@@ -15,3 +15,10 @@ export async function waitForServiceWorker(page: Page) {
     return !!navigator.serviceWorker.controller;
   });
 }
+
+/** What the field status bar says waits on the phone; null until it has read the outbox. */
+export async function waitingOnPhone(page: Page) {
+  const bar = page.getByTestId('sync-status');
+  const count = (value: string | null) => (value === null ? null : Number(value));
+  return { records: count(await bar.getAttribute('data-waiting')), photos: count(await bar.getAttribute('data-photos-waiting')) };
+}
