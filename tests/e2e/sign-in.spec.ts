@@ -32,3 +32,15 @@ test('a signed-out visitor is sent to the sign-in page', async ({ page }) => {
   await page.goto('/desk');
   await expect(page).toHaveURL(/\/signin/);
 });
+
+test('an advisor switching organisation without a connection is told so and stays where they were', async ({ page }) => {
+  await signIn(page, 'advisor@example.com', 'vineward-demo');
+  await expect(page).toHaveURL(/\/desk$/);
+  const picker = page.getByLabel('Organisation');
+  const before = await picker.inputValue();
+  await page.context().setOffline(true);
+  await picker.selectOption({ label: 'Ninefold Ridge Estate (advisor)' });
+  await expect(page.getByRole('alert').filter({ hasText: 'Could not switch organisation: no connection.' })).toBeVisible();
+  await expect(picker).toHaveValue(before);
+  await page.context().setOffline(false);
+});
