@@ -24,4 +24,10 @@ describe('environment check', () => {
       /DATABASE_URL[\s\S]*SMTP_URL: must be an smtp:\/\/ or smtps:\/\/ URL[\s\S]*NEXTAUTH_SECRET: must be at least 32/,
     );
   });
+
+  it('reads one trusted proxy unless told otherwise, and refuses a count it cannot use', () => {
+    expect(getEnv({ ...good }).TRUSTED_PROXY_HOPS).toBe(1);
+    expect(getEnv({ ...good, TRUSTED_PROXY_HOPS: '2' }).TRUSTED_PROXY_HOPS).toBe(2);
+    expect(() => getEnv({ ...good, TRUSTED_PROXY_HOPS: '0' })).toThrowError(/TRUSTED_PROXY_HOPS: must be 1 or more/);
+  });
 });

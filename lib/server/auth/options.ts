@@ -5,7 +5,7 @@ import EmailProvider from 'next-auth/providers/email';
 import { getEnv } from '@/lib/env';
 import { knexAdapter } from '@/lib/server/auth/adapter';
 import { verifyPassword } from '@/lib/server/auth/passwords';
-import { clearFailedSignIns, clientAddress, recordFailedSignIn } from '@/lib/server/auth/rate-limit';
+import { clearFailedSignIns, requestAddress, recordFailedSignIn } from '@/lib/server/auth/rate-limit';
 import { db } from '@/lib/server/db';
 import { linkMail, sendMail } from '@/lib/server/mail';
 import { getUserByEmail } from '@/lib/server/queries/users';
@@ -33,7 +33,7 @@ export function authOptions(): NextAuthOptions {
           const user = await getUserByEmail(db(), email);
           const ok = !!user?.password_hash && (await verifyPassword(password, user.password_hash));
           if (!ok || !user) {
-            await recordFailedSignIn(clientAddress(req?.headers), email);
+            await recordFailedSignIn(requestAddress(req?.headers), email);
             return null;
           }
           await clearFailedSignIns(email);

@@ -1,5 +1,7 @@
 import 'server-only';
 import { RateLimiterPostgres, type RateLimiterRes } from 'rate-limiter-flexible';
+import { clientAddress } from '@/lib/client-address';
+import { getEnv } from '@/lib/env';
 import { db } from '@/lib/server/db';
 import { AppError } from '@/lib/server/errors';
 
@@ -52,8 +54,5 @@ export async function clearFailedSignIns(email: string) {
   await limiters().account.delete(email.toLowerCase());
 }
 
-export function clientAddress(headers: Headers | Record<string, unknown> | undefined): string {
-  const raw = headers instanceof Headers ? headers.get('x-forwarded-for') : headers?.['x-forwarded-for'];
-  const first = typeof raw === 'string' ? raw.split(',')[0]?.trim() : undefined;
-  return first || 'unknown';
-}
+/** The client address to count failures against, as the configured proxies report it. */
+export const requestAddress = (headers: Headers | Record<string, unknown> | undefined) => clientAddress(headers, getEnv().TRUSTED_PROXY_HOPS);

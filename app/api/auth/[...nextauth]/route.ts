@@ -1,7 +1,7 @@
 import NextAuth from 'next-auth';
 import type { NextRequest } from 'next/server';
 import { authOptions } from '@/lib/server/auth/options';
-import { assertSignInAllowed, clientAddress } from '@/lib/server/auth/rate-limit';
+import { assertSignInAllowed, requestAddress } from '@/lib/server/auth/rate-limit';
 import { errorResponse } from '@/lib/server/http';
 
 type Segment = { params: Promise<{ nextauth: string[] }> };
@@ -17,7 +17,7 @@ export async function POST(req: NextRequest, segment: Segment) {
     const form = await req.clone().formData().catch(() => undefined);
     const email = String(form?.get('email') ?? '').trim().toLowerCase();
     try {
-      await assertSignInAllowed(clientAddress(req.headers), email);
+      await assertSignInAllowed(requestAddress(req.headers), email);
     } catch (err) {
       return errorResponse(err);
     }
