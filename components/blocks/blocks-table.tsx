@@ -13,7 +13,7 @@ import {
 } from '@tanstack/react-table';
 import Link from 'next/link';
 import { useMemo, useState } from 'react';
-import { Field, Input, Notice, Select } from '@/components/ui/field';
+import { Field, FilterSelect, Input, Notice } from '@/components/ui/field';
 import { SortableHead } from '@/components/ui/sortable-head';
 import { cn } from '@/lib/cn';
 import type { BlockView } from '@/lib/server/services/blocks';
@@ -96,16 +96,7 @@ export function BlocksTable({ units }: { units: UnitSystem }) {
         <Field id="block-search" label="Find a block">
           <Input id="block-search" type="search" value={query} onChange={(e) => setQuery(e.target.value)} placeholder="Name, variety, clone…" />
         </Field>
-        <Field id="block-training" label="Training">
-          <Select id="block-training" value={training} onChange={(e) => setTraining(e.target.value)}>
-            <option value="">All</option>
-            {TRAINING_SYSTEMS.map((t) => (
-              <option key={t} value={t}>
-                {TRAINING_LABEL[t]}
-              </option>
-            ))}
-          </Select>
-        </Field>
+        <FilterSelect id="block-training" label="Training" value={training} onChange={setTraining} any="All" options={TRAINING_SYSTEMS.map((t) => [t, TRAINING_LABEL[t]] as const)} />
         <label className="flex min-h-touch items-center gap-2 font-bold">
           <input type="checkbox" className="size-6" checked={archived} onChange={(e) => setArchived(e.target.checked)} />
           Show archived

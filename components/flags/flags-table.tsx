@@ -15,7 +15,7 @@ import { useMemo, useState } from 'react';
 import { api, ApiError } from '@/components/blocks/api';
 import { memberLabel, useCrew } from '@/components/tasks/use-crew';
 import { Button } from '@/components/ui/button';
-import { Field, Input, Notice, Select } from '@/components/ui/field';
+import { Field, FilterSelect, Input, Notice, Select } from '@/components/ui/field';
 import { SortableHead } from '@/components/ui/sortable-head';
 import { cn } from '@/lib/cn';
 import { formatDay, vineAddress } from '@/lib/grid/labels';
@@ -129,33 +129,19 @@ export function FlagsTable({ canManage }: { canManage: boolean }) {
   return (
     <div className="flex flex-col gap-4">
       <div className="grid gap-3 sm:grid-cols-4 sm:items-end">
-        <Field id="flag-status" label="Status">
-          <Select id="flag-status" value={status} onChange={(e) => setStatus(e.target.value as typeof status)}>
-            <option value="open">Open</option>
-            <option value="closed">Closed</option>
-            <option value="all">All</option>
-          </Select>
-        </Field>
-        <Field id="flag-block" label="Block">
-          <Select id="flag-block" value={block} onChange={(e) => setBlock(e.target.value)}>
-            <option value="">All blocks</option>
-            {blocks.map(([id, name]) => (
-              <option key={id} value={id}>
-                {name}
-              </option>
-            ))}
-          </Select>
-        </Field>
-        <Field id="flag-reason" label="Needs">
-          <Select id="flag-reason" value={reason} onChange={(e) => setReason(e.target.value)}>
-            <option value="">Anything</option>
-            {FLAG_REASONS.map((r) => (
-              <option key={r} value={r}>
-                {REASON_LABELS[r]}
-              </option>
-            ))}
-          </Select>
-        </Field>
+        <FilterSelect
+          id="flag-status"
+          label="Status"
+          value={status}
+          onChange={setStatus}
+          options={[
+            ['open', 'Open'],
+            ['closed', 'Closed'],
+            ['all', 'All'],
+          ]}
+        />
+        <FilterSelect id="flag-block" label="Block" value={block} onChange={setBlock} any="All blocks" options={blocks} />
+        <FilterSelect id="flag-reason" label="Needs" value={reason} onChange={setReason} any="Anything" options={FLAG_REASONS.map((r) => [r, REASON_LABELS[r]] as const)} />
         <label className="flex min-h-touch items-center gap-2 font-bold">
           <input type="checkbox" className="size-6 accent-rootstock" checked={untasked} onChange={(e) => setUntasked(e.target.checked)} />
           Not in a task yet

@@ -6,7 +6,7 @@ import Link from 'next/link';
 import { useMemo, useState } from 'react';
 import { api } from '@/components/blocks/api';
 import { memberLabel, useCrew } from '@/components/tasks/use-crew';
-import { Field, Input, Notice, Select } from '@/components/ui/field';
+import { Field, FilterSelect, Input, Notice } from '@/components/ui/field';
 import { SortableHead } from '@/components/ui/sortable-head';
 import { cn } from '@/lib/cn';
 import { formatDay } from '@/lib/grid/labels';
@@ -133,49 +133,23 @@ export function TasksTable() {
         <Field id="task-search" label="Find">
           <Input id="task-search" type="search" value={query} onChange={(e) => setQuery(e.target.value)} placeholder="Title, block, person…" />
         </Field>
-        <Field id="task-status" label="Status">
-          <Select id="task-status" value={status} onChange={(e) => setStatus(e.target.value as TaskStatus | 'all')}>
-            {TASK_STATUSES.map((s) => (
-              <option key={s} value={s} className="capitalize">
-                {s[0]!.toUpperCase() + s.slice(1)}
-              </option>
-            ))}
-            <option value="all">All</option>
-          </Select>
-        </Field>
-        <Field id="task-person" label="Assigned to">
-          <Select id="task-person" value={assignee} onChange={(e) => setAssignee(e.target.value)}>
-            <option value="">Anyone</option>
-            <option value="me">Me</option>
-            {(crew.data ?? [])
-              .filter((m) => m.role === 'pruner' || m.role === 'manager')
-              .map((m) => (
-                <option key={m.userId} value={m.userId}>
-                  {memberLabel(m)}
-                </option>
-              ))}
-          </Select>
-        </Field>
-        <Field id="task-block" label="Block">
-          <Select id="task-block" value={block} onChange={(e) => setBlock(e.target.value)}>
-            <option value="">All blocks</option>
-            {blocks.map(([id, name]) => (
-              <option key={id} value={id}>
-                {name}
-              </option>
-            ))}
-          </Select>
-        </Field>
-        <Field id="task-priority" label="Priority">
-          <Select id="task-priority" value={priority} onChange={(e) => setPriority(e.target.value)}>
-            <option value="">Any</option>
-            {TASK_PRIORITIES.map((p) => (
-              <option key={p} value={p}>
-                {p[0]!.toUpperCase() + p.slice(1)}
-              </option>
-            ))}
-          </Select>
-        </Field>
+        <FilterSelect<TaskStatus | 'all'>
+          id="task-status"
+          label="Status"
+          value={status}
+          onChange={setStatus}
+          options={[...TASK_STATUSES.map((s) => [s, capitalised(s)] as const), ['all', 'All']]}
+        />
+        <FilterSelect
+          id="task-person"
+          label="Assigned to"
+          value={assignee}
+          onChange={setAssignee}
+          any="Anyone"
+          options={[['me', 'Me'], ...(crew.data ?? []).filter((m) => m.role === 'pruner' || m.role === 'manager').map((m) => [m.userId, memberLabel(m)] as const)]}
+        />
+        <FilterSelect id="task-block" label="Block" value={block} onChange={setBlock} any="All blocks" options={blocks} />
+        <FilterSelect id="task-priority" label="Priority" value={priority} onChange={setPriority} any="Any" options={TASK_PRIORITIES.map((p) => [p, capitalised(p)] as const)} />
       </div>
 
       {list.isError && <Notice tone="error">{list.error.message}</Notice>}
@@ -203,3 +177,5 @@ export function TasksTable() {
     </div>
   );
 }
+
+const capitalised = (word: string) => word[0]!.toUpperCase() + word.slice(1);

@@ -36,6 +36,36 @@ export function Select({ className, ...props }: ComponentProps<'select'>) {
   );
 }
 
+/** A labelled choice for a table's filter bar: an "any" entry first (when given), then the options. */
+export function FilterSelect<T extends string>({
+  id,
+  label,
+  value,
+  onChange,
+  any,
+  options,
+}: {
+  id: string;
+  label: string;
+  value: T;
+  onChange: (value: T) => void;
+  any?: string;
+  options: readonly (readonly [T, string])[];
+}) {
+  return (
+    <Field id={id} label={label}>
+      <Select id={id} value={value} onChange={(e) => onChange(e.target.value as T)}>
+        {any !== undefined && <option value="">{any}</option>}
+        {options.map(([v, text]) => (
+          <option key={v} value={v}>
+            {text}
+          </option>
+        ))}
+      </Select>
+    </Field>
+  );
+}
+
 export function Notice({ tone = 'info', children, className }: { tone?: 'info' | 'warn' | 'error' | 'ok'; children: ReactNode; className?: string }) {
   const tones = {
     info: 'border-line bg-panel',
