@@ -1,4 +1,5 @@
 import { execFileSync } from 'node:child_process';
+import { randomUUID } from 'node:crypto';
 import knex from 'knex';
 import { afterAll, describe, expect, it } from 'vitest';
 
@@ -42,5 +43,35 @@ describe('migrations', () => {
     expect(await tables()).toEqual([]);
     migrate('up');
     expect((await tables()).length).toBeGreaterThan(4);
+  });
+
+  // Here, in a database of its own: emptying observations in the shared one would take the demo's with it.
+  it('empty the grid summary with the observations when they are truncated', async () => {
+    const db = knex({ client: 'pg', connection: url });
+    try {
+      const [org] = await db('organisations').insert({ name: 'Truncation Test Estate' }).returning('id');
+      const [block] = await db('blocks')
+        .insert({ organisation_id: org.id, name: 'T', variety: 'Test Noir', training_system: 'cane', row_spacing_m: 2.5, vine_spacing_m: 1.2, row_count: 1, vines_per_row: 1 })
+        .returning('id');
+      await db('block_rows').insert({ block_id: block.id, row_number: 1, vine_count: 1 });
+      const [slot] = await db('vine_positions').insert({ block_id: block.id, row_number: 1, position: 1 }).returning('id');
+      await db('observations').insert({
+        id: randomUUID(),
+        organisation_id: org.id,
+        block_id: block.id,
+        position_id: slot.id,
+        row_number: 1,
+        position: 1,
+        kind: 'note',
+        observed_at: new Date(),
+        payload_sha256: 'truncate-test',
+      });
+      const rows = async () => [(await db('grid_vines').count({ n: '*' }))[0]!.n, (await db('grid_counts').count({ n: '*' }))[0]!.n].map(Number);
+      expect(await rows()).toEqual([1, 1]);
+      await db.raw('truncate observations cascade');
+      expect(await rows()).toEqual([0, 0]);
+    } finally {
+      await db.destroy();
+    }
   });
 });
