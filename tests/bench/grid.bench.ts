@@ -11,12 +11,13 @@ const CREEK_FLAT = '0b10c4a0-0000-4000-8000-000000000002';
 const OBSERVATIONS = 200_000;
 const RUNS = 60;
 const KINDS = ['cane-diameter', 'shade-cane', 'weak-budbreak', 'trunk-injury', 'cane-injury', 'missing-vine', 'bud-injury', 'pruning-record', 'note'];
-// The morning view and a kind filter (both from the standing summary), and a date range (which
-// needs the observations themselves).
+// The morning view and a kind filter (both from the standing summary), and date ranges (which
+// need the observations themselves).
 const VIEWS = [
   ['all open findings', ''],
   ['2 kinds', 'kind=trunk-injury,weak-budbreak'],
   ['2 kinds, 3 months', 'kind=trunk-injury,weak-budbreak&from=2026-02-01&to=2026-04-30'],
+  ['one week', 'from=2026-03-01&to=2026-03-07'],
 ] as const;
 
 /** The route's own statements and runner; 'server-only' refuses to load outside Next's server build, so it is stubbed here. */
