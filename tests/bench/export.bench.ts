@@ -44,6 +44,8 @@ async function timeExport(ctx: BenchContext, client: Client) {
 }
 
 async function timeReports(ctx: BenchContext, client: Client) {
+  // Statistics as autovacuum keeps them on a running server; a just-seeded database has none yet.
+  await ctx.db.raw('analyze');
   for (const [name, path] of [
     ['block report (Creek Flat 2026, with 2025 beside it)', `/api/reports/blocks/${CREEK_FLAT}?season=2026`],
     ['estate report (4 blocks, 2026)', '/api/reports?season=2026'],
