@@ -12,7 +12,7 @@ import { formatAreaM2, formatLengthM, formatLengthMm, type UnitSystem } from '@/
 import { reportOptionsSchema } from '@/lib/validation/report';
 import { CompareChart, ChartFrame, HistogramChart, IncidenceChart, RowCountChart } from './charts';
 import { EstimateInput, PrintedInput } from './estimate-input';
-import { FigureCard, How, ReportTable, Section } from './figure';
+import { FigureCard, How, ReportTable, Section, StockTable } from './figure';
 import { ReportToolbar } from './report-toolbar';
 
 type Key = 'budsPerVine' | 'budbreakPercent' | 'clustersPerShoot' | 'clusterWeightG' | 'minutesPerVine' | 'hourlyCost' | 'budTarget';
@@ -94,6 +94,7 @@ export function BlockReportView({ data }: { data: BlockReportResponse }) {
         <ReportToolbar
           seasons={seasons}
           season={report.season}
+          startMonth={Number(report.period.from.slice(5, 7))}
           compare={compare}
           exportHref={exportHref}
           links={[
@@ -691,24 +692,11 @@ function ReplantSection({ report }: { report: BlockReport }) {
         <p>No slot on this block needs a new vine.</p>
       ) : (
         <>
-          <ReportTable testId="replant-table" caption={`${formatCount(r.total)} vines: ${r.reasons.missing} slots marked missing, ${r.reasons.dead} dead, ${r.reasons['recorded-missing'] + r.reasons['recorded-dead']} recorded missing or dead this season, ${r.reasons.flagged} flagged for replanting.`}>
-            <thead>
-              <tr>
-                <th scope="col">Clone</th>
-                <th scope="col">Rootstock</th>
-                <th scope="col">Vines</th>
-              </tr>
-            </thead>
-            <tbody>
-              {r.byStock.map((s) => (
-                <tr key={`${s.clone}:${s.rootstock}`}>
-                  <td>{s.clone}</td>
-                  <td>{s.rootstock}</td>
-                  <td>{formatCount(s.vines)}</td>
-                </tr>
-              ))}
-            </tbody>
-          </ReportTable>
+          <StockTable
+            testId="replant-table"
+            rows={r.byStock}
+            caption={`${formatCount(r.total)} vines: ${r.reasons.missing} slots marked missing, ${r.reasons.dead} dead, ${r.reasons['recorded-missing'] + r.reasons['recorded-dead']} recorded missing or dead this season, ${r.reasons.flagged} flagged for replanting.`}
+          />
           <details className="print:hidden">
             <summary className="min-h-touch cursor-pointer py-2 font-bold">Slots by row ({r.byRow.length} rows)</summary>
             <ul className="columns-1 text-sm sm:columns-2">

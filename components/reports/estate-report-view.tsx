@@ -3,11 +3,21 @@ import type { EstateReportResponse } from '@/lib/reports/api';
 import { formatCount, formatInterval, formatNumber, formatShare, formatWeightKg } from '@/lib/reports/format';
 import type { UnitSystem } from '@/lib/units';
 import { ChartFrame, CompareChart } from './charts';
-import { FigureCard, How, ReportTable, Section } from './figure';
+import { FigureCard, How, ReportTable, Section, StockTable } from './figure';
 import { ReportToolbar } from './report-toolbar';
 
 /** Every block's season on one page: the estate's incidence, each block's headline figures, totals and the nursery order. */
-export function EstateReportView({ data, organisationName, units }: { data: EstateReportResponse; organisationName: string; units: UnitSystem }) {
+export function EstateReportView({
+  data,
+  organisationName,
+  units,
+  seasonStartMonth,
+}: {
+  data: EstateReportResponse;
+  organisationName: string;
+  units: UnitSystem;
+  seasonStartMonth: number;
+}) {
   const { blocks, kinds, totals, season } = data;
   return (
     <article className="vw-report flex flex-col gap-6" data-testid="estate-report">
@@ -20,6 +30,7 @@ export function EstateReportView({ data, organisationName, units }: { data: Esta
         </p>
         <ReportToolbar
           seasons={data.seasons}
+          startMonth={seasonStartMonth}
           season={season}
           compare={null}
           exportHref={`/api/reports/observations.csv?season=${season}`}
@@ -147,24 +158,11 @@ export function EstateReportView({ data, organisationName, units }: { data: Esta
         {data.replantByStock.length === 0 ? (
           <p>No slot needs a new vine.</p>
         ) : (
-          <ReportTable testId="estate-replant-table" caption="Missing and dead slots, vines recorded missing or dead this season, and open replant flags.">
-            <thead>
-              <tr>
-                <th scope="col">Clone</th>
-                <th scope="col">Rootstock</th>
-                <th scope="col">Vines</th>
-              </tr>
-            </thead>
-            <tbody>
-              {data.replantByStock.map((s) => (
-                <tr key={`${s.clone}:${s.rootstock}`}>
-                  <td>{s.clone}</td>
-                  <td>{s.rootstock}</td>
-                  <td>{formatCount(s.vines)}</td>
-                </tr>
-              ))}
-            </tbody>
-          </ReportTable>
+          <StockTable
+            testId="estate-replant-table"
+            rows={data.replantByStock}
+            caption="Missing and dead slots, vines recorded missing or dead this season, and open replant flags."
+          />
         )}
       </Section>
     </article>

@@ -1,5 +1,6 @@
 import type { ReactNode } from 'react';
 import { cn } from '@/lib/cn';
+import { formatCount } from '@/lib/reports/format';
 
 /** How a number was computed and what it rests on, printed under it in small type. */
 export function How({ how, from, className }: { how?: string; from?: string; className?: string }) {
@@ -49,5 +50,29 @@ export function ReportTable({ caption, children, testId }: { caption: ReactNode;
         {children}
       </table>
     </div>
+  );
+}
+
+/** Vines to replant by clone and rootstock: the nursery order, for a block or the estate. */
+export function StockTable({ rows, caption, testId }: { rows: readonly { clone: string; rootstock: string; vines: number }[]; caption: ReactNode; testId: string }) {
+  return (
+    <ReportTable testId={testId} caption={caption}>
+      <thead>
+        <tr>
+          <th scope="col">Clone</th>
+          <th scope="col">Rootstock</th>
+          <th scope="col">Vines</th>
+        </tr>
+      </thead>
+      <tbody>
+        {rows.map((s) => (
+          <tr key={`${s.clone}:${s.rootstock}`}>
+            <td>{s.clone}</td>
+            <td>{s.rootstock}</td>
+            <td>{formatCount(s.vines)}</td>
+          </tr>
+        ))}
+      </tbody>
+    </ReportTable>
   );
 }

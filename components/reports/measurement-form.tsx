@@ -12,21 +12,8 @@ import { vineAddress } from '@/lib/grid/labels';
 import { formatWeightKg } from '@/lib/reports/format';
 import { seasonOf, type SeasonBounds } from '@/lib/reports/season';
 import type { UnitSystem } from '@/lib/units';
-import { MEASUREMENT_LABELS, measurementSchema, type MeasurementFormValues, type MeasurementInput } from '@/lib/validation/measurement';
+import { MEASUREMENT_LABELS, measurementSchema, type MeasurementFormValues, type MeasurementInput, type MeasurementView } from '@/lib/validation/measurement';
 
-export interface MeasurementItem {
-  id: string;
-  kind: 'yield' | 'pruning-weight';
-  row: number;
-  position: number | null;
-  vines: number;
-  weightKg: number;
-  clusters: number | null;
-  measuredOn: string;
-  note: string;
-  recordedBy: string | null;
-  recordedByName: string | null;
-}
 
 interface MeasurementsProps {
   block: { id: string; name: string; vinesPerPanel: number | null };
@@ -54,7 +41,7 @@ export function Measurements({ block, season, period, units, canRecord, canRemov
   const key = ['measurements', block.id, season];
   const list = useQuery({
     queryKey: key,
-    queryFn: () => api<{ measurements: MeasurementItem[] }>(`/api/measurements?blockId=${block.id}&season=${season}`),
+    queryFn: () => api<{ measurements: MeasurementView[] }>(`/api/measurements?blockId=${block.id}&season=${season}`),
   });
   const remove = useMutation({
     mutationFn: (id: string) => fetch(`/api/measurements/${id}`, { method: 'DELETE' }).then(async (res) => {
@@ -163,7 +150,7 @@ function MeasurementForm({ block, period, units, onSaved }: { block: Measurement
   const { errors } = form.formState;
   const kind = form.watch('kind');
   const save = useMutation({
-    mutationFn: (input: MeasurementInput) => api<{ measurement: MeasurementItem }>('/api/measurements', { method: 'POST', body: input }),
+    mutationFn: (input: MeasurementInput) => api<{ measurement: MeasurementView }>('/api/measurements', { method: 'POST', body: input }),
     onSuccess: ({ measurement }) => {
       const day = measurement.measuredOn.slice(0, 10);
       const inSeason = day >= period.from.slice(0, 10) && day < period.to.slice(0, 10);

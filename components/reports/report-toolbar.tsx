@@ -3,10 +3,13 @@
 import { usePathname, useRouter, useSearchParams } from 'next/navigation';
 import { Button, ButtonLink } from '@/components/ui/button';
 import { Select } from '@/components/ui/field';
+import { seasonLabel } from '@/lib/reports/season';
 
 interface ReportToolbarProps {
   seasons: number[];
   season: number;
+  /** 1–12, the month the organisation's seasons start in: "2025–26" rather than "2026" when not January. */
+  startMonth: number;
   /** Null hides the comparison picker (the estate report); 'none' means no comparison. */
   compare: number | 'none' | null;
   exportHref: string;
@@ -14,7 +17,7 @@ interface ReportToolbarProps {
 }
 
 /** Season and comparison pickers, print and export: screen only, never printed. */
-export function ReportToolbar({ seasons, season, compare, exportHref, links = [] }: ReportToolbarProps) {
+export function ReportToolbar({ seasons, season, startMonth, compare, exportHref, links = [] }: ReportToolbarProps) {
   const router = useRouter();
   const pathname = usePathname();
   const search = useSearchParams();
@@ -34,7 +37,7 @@ export function ReportToolbar({ seasons, season, compare, exportHref, links = []
         <Select value={season} onChange={(e) => go('season', e.target.value)} aria-describedby="season-hint">
           {choices.map((s) => (
             <option key={s} value={s}>
-              {s}
+              {seasonLabel(s, startMonth)}
             </option>
           ))}
         </Select>
@@ -49,7 +52,7 @@ export function ReportToolbar({ seasons, season, compare, exportHref, links = []
               .sort((a, b) => b - a)
               .map((s) => (
                 <option key={s} value={s}>
-                  {s}
+                  {seasonLabel(s, startMonth)}
                 </option>
               ))}
           </Select>

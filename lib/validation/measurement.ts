@@ -64,3 +64,20 @@ export type MeasurementFormValues = z.input<typeof measurementSchema>;
 export function weightKg(m: Pick<MeasurementInput, 'weight' | 'weightUnit'>): number {
   return m.weightUnit === 'lb' ? lbToKg(m.weight) : m.weight;
 }
+
+/** A stored weight as the API answers it and the forms show it. */
+export interface MeasurementView {
+  id: string;
+  blockId: string;
+  kind: MeasurementKind;
+  row: number;
+  position: number | null;
+  vines: number;
+  weightKg: number;
+  clusters: number | null;
+  measuredOn: string;
+  note: string;
+  recordedBy: string | null;
+  recordedByName: string | null;
+  createdAt: string;
+}

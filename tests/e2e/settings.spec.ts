@@ -21,6 +21,8 @@ test('a manager starts the estate’s seasons in July, and the report names the 
   await page.goto('/reports');
   await page.getByRole('link', { name: 'Creek Flat' }).click();
   await expect(page.getByTestId('season-span')).toHaveText(/^From \d{4}-07-01 up to \d{4}-07-01$/);
+  // The season picker names a two-year season by both years.
+  await expect(page.getByTestId('report-toolbar').getByLabel('Season').locator('option:checked')).toHaveText(/^\d{4}–\d{2}$/);
 });
 
 test('a scout reads when seasons start but cannot change it', async ({ page }) => {

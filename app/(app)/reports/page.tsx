@@ -15,7 +15,7 @@ export default async function ReportsPage({ searchParams }: { searchParams: Prom
   const data = await loadEstateReport(member, readReportOptions(search));
   return (
     <Suspense>
-      <EstateReportView data={data} organisationName={member.organisationName} units={member.unitSystem} />
+      <EstateReportView data={data} organisationName={member.organisationName} units={member.unitSystem} seasonStartMonth={member.seasonStartMonth} />
     </Suspense>
   );
 }

@@ -1,23 +1,8 @@
 import 'server-only';
 import type { SeasonBounds } from '@/lib/reports/season';
 import type { Db } from '@/lib/server/db';
-import type { MeasurementKind } from '@/lib/validation/measurement';
+import type { MeasurementKind, MeasurementView } from '@/lib/validation/measurement';
 
-export interface MeasurementView {
-  id: string;
-  blockId: string;
-  kind: MeasurementKind;
-  row: number;
-  position: number | null;
-  vines: number;
-  weightKg: number;
-  clusters: number | null;
-  measuredOn: string;
-  note: string;
-  recordedBy: string | null;
-  recordedByName: string | null;
-  createdAt: string;
-}
 
 export interface MeasurementInsert {
   organisation_id: string;

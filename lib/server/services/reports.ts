@@ -11,7 +11,7 @@ import { db, type Db } from '@/lib/server/db';
 import { AppError } from '@/lib/server/errors';
 import { findVineByAddress } from '@/lib/server/queries/grid';
 import { getBlock, listBlocks, type BlockRow } from '@/lib/server/queries/blocks';
-import { deleteMeasurement, getMeasurement, insertMeasurement, type MeasurementView } from '@/lib/server/queries/measurements';
+import { deleteMeasurement, getMeasurement, insertMeasurement } from '@/lib/server/queries/measurements';
 import {
   countByRowAndKind,
   countSlots,
@@ -25,7 +25,7 @@ import {
   listSeasonTasks,
   type ExportCursor,
 } from '@/lib/server/queries/reports';
-import { weightKg, type MeasurementInput } from '@/lib/validation/measurement';
+import { weightKg, type MeasurementInput, type MeasurementView } from '@/lib/validation/measurement';
 import type { ReportOptions } from '@/lib/validation/report';
 import { DEFAULT_SETTINGS } from '@/lib/viticulture';
 
