@@ -4,8 +4,9 @@ import createNextIntlPlugin from 'next-intl/plugin';
 const nextConfig = {
   // Parallel test runs (VINEWARD_SLOT) build into their own folders.
   distDir: process.env.NEXT_DIST_DIR || '.next',
-  // knex pulls optional drivers the bundler cannot resolve; load it from node_modules at run time.
-  serverExternalPackages: ['knex', 'pg', 'sharp', 'rate-limiter-flexible'],
+  // Loaded from node_modules at run time: knex pulls optional drivers the bundler cannot resolve,
+  // and exifr picks its Node build (fs, zlib) only when it is not bundled.
+  serverExternalPackages: ['knex', 'pg', 'sharp', 'rate-limiter-flexible', 'exifr'],
   poweredByHeader: false,
   reactStrictMode: true,
 };

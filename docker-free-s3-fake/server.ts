@@ -1,11 +1,14 @@
 /**
- * Local stand-in for S3: s3rver on loopback, with the app's bucket and a CORS rule so that
- * browsers can PUT to presigned URLs. Used by `npm start` and `npm test` when no real
- * object store is configured. Only credentials S3RVER/S3RVER are accepted.
+ * Local stand-in for S3: s3rver on loopback, with the app's bucket and the upload CORS rule that
+ * a real bucket gets from `npm run storage:cors`, set the same way, so browsers can PUT to
+ * presigned URLs. Used by `npm start` and `npm test` when no real object store is configured.
+ * Only credentials S3RVER/S3RVER are accepted.
  */
 import { mkdirSync } from 'node:fs';
 import { parseArgs } from 'node:util';
+import { S3Client } from '@aws-sdk/client-s3';
 import S3rver from 's3rver';
+import { applyUploadCors } from '../lib/storage-cors';
 
 const { values } = parseArgs({
   options: {
@@ -16,23 +19,25 @@ const { values } = parseArgs({
   },
 });
 
-const origins = values.origin.map((o) => `<AllowedOrigin>${o}</AllowedOrigin>`).join('');
-const cors = `<CORSConfiguration><CORSRule>${origins}
-  <AllowedMethod>GET</AllowedMethod><AllowedMethod>PUT</AllowedMethod><AllowedMethod>HEAD</AllowedMethod>
-  <AllowedHeader>*</AllowedHeader><ExposeHeader>ETag</ExposeHeader><MaxAgeSeconds>3000</MaxAgeSeconds>
-</CORSRule></CORSConfiguration>`;
-
 mkdirSync(values.dir, { recursive: true });
 const server = new S3rver({
   address: '127.0.0.1',
   port: Number(values.port),
   directory: values.dir,
   silent: true,
-  configureBuckets: [{ name: values.bucket, configs: [cors] }],
+  configureBuckets: [{ name: values.bucket, configs: [] }],
 });
 
 server.run().then(
-  ({ address, port }: { address: string; port: number }) => {
+  async ({ address, port }: { address: string; port: number }) => {
+    const client = new S3Client({
+      endpoint: `http://${address}:${port}`,
+      region: 'local',
+      forcePathStyle: true,
+      credentials: { accessKeyId: 'S3RVER', secretAccessKey: 'S3RVER' },
+    });
+    await applyUploadCors(client, values.bucket, values.origin);
+    client.destroy();
     console.log(`s3-fake listening on http://${address}:${port} (bucket ${values.bucket})`);
   },
   (err: unknown) => {

@@ -9,6 +9,7 @@ import http from 'node:http';
 import { parseArgs } from 'node:util';
 import { simpleParser } from 'mailparser';
 import { SMTPServer } from 'smtp-server';
+import { escapeHtml as escape } from '../lib/html';
 
 const { values } = parseArgs({
   options: {
@@ -56,8 +57,13 @@ const smtp = new SMTPServer({
   },
 });
 
-const escape = (s: string) =>
-  s.replace(/[&<>"]/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;' })[c]!);
+/**
+ * A mail's HTML part as the receiver would see it, in a frame that runs no script and cannot reach
+ * the inbox page; its links open in a new tab, so sign-in links still work from the inbox.
+ */
+const htmlFrame = (html: string) =>
+  `<iframe title="HTML part" sandbox="allow-popups allow-popups-to-escape-sandbox" ` +
+  `style="width:100%;height:22rem;border:1px solid #ccc" srcdoc="${escape(`<base target="_blank">${html}`)}"></iframe>`;
 
 let paused = false;
 
@@ -97,7 +103,9 @@ const web = http.createServer((req, res) => {
     .map(
       (m) =>
         `<article><h2>${escape(m.subject)}</h2><p><b>To:</b> ${escape(m.to.join(', '))} · ${m.receivedAt}</p>` +
-        `<pre>${escape(m.text).replace(/(https?:\/\/[^\s<]+)/g, '<a href="$1">$1</a>')}</pre></article>`,
+        (m.html ? htmlFrame(m.html) : '') +
+        `<details${m.html ? '' : ' open'}><summary>Text part</summary>` +
+        `<pre>${escape(m.text).replace(/(https?:\/\/[^\s<]+)/g, (url) => `<a href="${url}">${url}</a>`)}</pre></details></article>`,
     )
     .join('<hr>');
   res

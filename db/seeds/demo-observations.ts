@@ -11,6 +11,7 @@ import { createHash } from 'node:crypto';
 import { HeadObjectCommand, PutObjectCommand, S3Client } from '@aws-sdk/client-s3';
 import type { Knex } from 'knex';
 import sharp from 'sharp';
+import { escapeHtml } from '../../lib/html';
 import { photoKey, THUMB_LONG_SIDE, THUMB_QUALITY, thumbKey } from '../../lib/storage-keys';
 import {
   balancedPruningBuds,
@@ -294,8 +295,6 @@ const KIND_TITLES: Partial<Record<ObservationKind, string>> = {
   'bud-injury': 'Winter bud injury',
 };
 
-const escapeXml = (s: string) => s.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;');
-
 /** A drawing of the vine (no photograph): post, wire, trunk and canes, the kind's sign, and the address. */
 function drawing(p: Photo) {
   const { draft } = p;
@@ -337,8 +336,8 @@ function drawing(p: Photo) {
   const title = `${draft.block.name} · Row ${draft.row} · Vine ${draft.position}`;
   parts.push(
     `<rect x="24" y="24" width="${w - 48}" height="104" rx="12" fill="#ffffff" fill-opacity="0.88"/>`,
-    `<text x="48" y="70" font-family="DejaVu Sans, sans-serif" font-size="38" font-weight="bold" fill="#1d1a16">${escapeXml(title)}</text>`,
-    `<text x="48" y="110" font-family="DejaVu Sans, sans-serif" font-size="26" fill="#4a443b">${escapeXml(`${KIND_TITLES[draft.kind] ?? draft.kind} · ${p.observedAt.slice(0, 10)} · demo drawing`)}</text>`,
+    `<text x="48" y="70" font-family="DejaVu Sans, sans-serif" font-size="38" font-weight="bold" fill="#1d1a16">${escapeHtml(title)}</text>`,
+    `<text x="48" y="110" font-family="DejaVu Sans, sans-serif" font-size="26" fill="#4a443b">${escapeHtml(`${KIND_TITLES[draft.kind] ?? draft.kind} · ${p.observedAt.slice(0, 10)} · demo drawing`)}</text>`,
   );
   return Buffer.from(`<svg xmlns="http://www.w3.org/2000/svg" width="${w}" height="${h}">${parts.join('')}</svg>`);
 }

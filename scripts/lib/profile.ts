@@ -18,6 +18,9 @@ export interface Profile {
   inboxPort: number;
 }
 
+// The demo seed's S3 client runs in the script's own process, and the SDK reads this from process.env.
+process.env.AWS_SDK_JS_NODE_VERSION_SUPPORT_WARNING_DISABLED ??= 'true';
+
 /**
  * VINEWARD_SLOT=N (1–9) gives a test run its own ports, data folder and build folder, so that
  * several people (or agents) can run `npm test` side by side in one checkout.

@@ -174,7 +174,27 @@ export function track(child: ChildProcess) {
 }
 
 /** Starts a Node program of ours (TypeScript through tsx) and waits until it listens. */
-export async function startNode(name: string, script: string, args: string[], port: number, env?: NodeJS.ProcessEnv) {
+/** Resolves when a child prints a line containing `text`. */
+function waitForOutput(name: string, child: ChildProcess, text: string, timeoutMs = 30_000) {
+  return new Promise<void>((resolve, reject) => {
+    let seen = '';
+    const timer = setTimeout(() => reject(new Error(`${name}: not ready after ${timeoutMs} ms`)), timeoutMs);
+    const onData = (chunk: Buffer) => {
+      seen = (seen + chunk.toString()).slice(-4096);
+      if (!seen.includes(text)) return;
+      clearTimeout(timer);
+      child.stdout?.off('data', onData);
+      resolve();
+    };
+    child.stdout?.on('data', onData);
+    child.once('exit', (code) => {
+      clearTimeout(timer);
+      reject(new Error(`${name} exited with code ${code} before it was ready`));
+    });
+  });
+}
+
+export async function startNode(name: string, script: string, args: string[], port: number, env?: NodeJS.ProcessEnv, ready?: string) {
   if (!(await portIsFree(port))) throw new Error(`${name}: port ${port} on 127.0.0.1 is taken; stop what runs there first`);
   const child = spawn(process.execPath, ['--import', 'tsx', script, ...args], {
     cwd: root,
@@ -183,14 +203,18 @@ export async function startNode(name: string, script: string, args: string[], po
   });
   track(child);
   child.stdout?.on('data', (chunk: Buffer) => process.env.VINEWARD_VERBOSE && process.stdout.write(chunk));
+  const readyLine = ready ? waitForOutput(name, child, ready) : undefined;
+  readyLine?.catch(() => undefined); // awaited below; this only keeps an early exit from being "unhandled"
   await waitForPort(port);
+  await readyLine;
   return child;
 }
 
 export function startS3Fake(o: { port: number; dir: string; bucket: string; origins: string[] }) {
   const originArgs = o.origins.flatMap((origin) => ['--origin', origin]);
+  // It listens before the bucket's CORS rule is set: ready is its own "listening" line.
   return startNode('s3-fake', 'docker-free-s3-fake/server.ts',
-    ['--port', String(o.port), '--dir', o.dir, '--bucket', o.bucket, ...originArgs], o.port);
+    ['--port', String(o.port), '--dir', o.dir, '--bucket', o.bucket, ...originArgs], o.port, undefined, 'listening');
 }
 
 export async function startSmtpFake(o: { smtpPort: number; httpPort: number }) {
