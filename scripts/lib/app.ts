@@ -34,8 +34,15 @@ export function buildIfNeeded(env: NodeJS.ProcessEnv) {
     return;
   }
   log('Building the app (about a minute on 2 cores)…');
-  // Exactly what a deployer runs, so the tests prove `npm run build` makes a whole app (worker included).
-  run('npm', ['run', '--silent', 'build'], { env: { ...env, NEXT_TELEMETRY_DISABLED: '1' } });
+  // next build adds its build folder's types to tsconfig.json; a slot's folder must not land there.
+  const tsconfig = path.join(root, 'tsconfig.json');
+  const tsconfigBefore = readFileSync(tsconfig, 'utf8');
+  try {
+    // Exactly what a deployer runs, so the tests prove `npm run build` makes a whole app (worker included).
+    run('npm', ['run', '--silent', 'build'], { env: { ...env, NEXT_TELEMETRY_DISABLED: '1' } });
+  } finally {
+    if (readFileSync(tsconfig, 'utf8') !== tsconfigBefore) writeFileSync(tsconfig, tsconfigBefore);
+  }
   writeFileSync(stamp, print);
 }
 
