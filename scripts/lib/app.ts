@@ -1,7 +1,7 @@
 /** Builds the Next.js app when its sources changed, and runs `next start` as a child process. */
 import { spawn, type ChildProcess } from 'node:child_process';
 import { createHash } from 'node:crypto';
-import { existsSync, readdirSync, readFileSync, statSync, writeFileSync } from 'node:fs';
+import { existsSync, readdirSync, readFileSync, statSync, utimesSync, writeFileSync } from 'node:fs';
 import path from 'node:path';
 import { log, root, run, track, waitForPort } from './services';
 
@@ -37,11 +37,15 @@ export function buildIfNeeded(env: NodeJS.ProcessEnv) {
   // next build adds its build folder's types to tsconfig.json; a slot's folder must not land there.
   const tsconfig = path.join(root, 'tsconfig.json');
   const tsconfigBefore = readFileSync(tsconfig, 'utf8');
+  const { atime, mtime } = statSync(tsconfig);
   try {
     // Exactly what a deployer runs, so the tests prove `npm run build` makes a whole app (worker included).
     run('npm', ['run', '--silent', 'build'], { env: { ...env, NEXT_TELEMETRY_DISABLED: '1' } });
   } finally {
-    if (readFileSync(tsconfig, 'utf8') !== tsconfigBefore) writeFileSync(tsconfig, tsconfigBefore);
+    if (readFileSync(tsconfig, 'utf8') !== tsconfigBefore) {
+      writeFileSync(tsconfig, tsconfigBefore);
+      utimesSync(tsconfig, atime, mtime); // the build fingerprint reads mtimes: unchanged file, no rebuild
+    }
   }
   writeFileSync(stamp, print);
 }
