@@ -39,9 +39,15 @@ export class FakeServer {
   onRequest?: (path: string, body: unknown) => void | Promise<void>;
   private readonly queued = new Map<string, Outcome[]>();
 
-  /** Scripts what the next requests to `path` (or PUT for uploads) meet; then they go through. */
+  /** Scripts what the next requests to `path` (PUT for uploads, * for any) meet; then they go through. */
   next(path: string, ...outcomes: Outcome[]) {
     this.queued.set(path, [...(this.queued.get(path) ?? []), ...outcomes]);
+  }
+
+  /** Forgets what was scripted. */
+  clear() {
+    this.queued.clear();
+    this.fallback = undefined;
   }
 
   /** The same outcome for every request until cleared. */
@@ -60,7 +66,7 @@ export class FakeServer {
   }
 
   private async handle<T>(path: string, body: unknown, work: (session: string | null) => T): Promise<T> {
-    const outcome = this.queued.get(path)?.shift() ?? this.fallback ?? 'ok';
+    const outcome = this.queued.get(path)?.shift() ?? this.queued.get('*')?.shift() ?? this.fallback ?? 'ok';
     if (outcome === 'offline') throw new TypeError('Failed to fetch');
     if (outcome === 'timeout') throw new DOMException('The operation was aborted due to timeout', 'TimeoutError');
     if (outcome === 'hang') return new Promise<T>(() => {});
