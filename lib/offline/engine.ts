@@ -212,7 +212,7 @@ export function createSyncEngine(parts: SyncParts) {
     if (answer.status < 200 || answer.status >= 300) throw new Stop('server', `Storage refused the upload (${answer.status}).`);
   }
 
-  async function sendPhoto(photo: PhotoEntry, pendingObservations: Set<string>, onBytes: (n: number) => void) {
+  async function sendPhoto(photo: PhotoEntry, pendingObservations: Set<string>, ownerChanged: () => boolean, onBytes: (n: number) => void) {
     // A photo waits for its observation: the server only accepts photos of stored observations.
     if (pendingObservations.has(photo.observationId)) return;
     await outbox.patchPhoto(photo.id, { state: 'uploading' });
@@ -232,6 +232,8 @@ export function createSyncEngine(parts: SyncParts) {
         if (presign.json.status === 'pending') await put(presign.json.uploadUrl!, photo, onBytes);
         await outbox.patchPhoto(photo.id, { state: 'uploaded' });
       }
+      // The upload went under its owner's session; its confirm must too, in their next drain.
+      if (ownerChanged()) return outbox.patchPhoto(photo.id, { state: 'uploaded' });
       const confirm = await post('/api/photos/confirm', { id: photo.id });
       if (confirm.status === 200) await outbox.removePhoto(photo.id);
       else if (confirm.status === 409) await outbox.patchPhoto(photo.id, { state: 'queued', attempts: photo.attempts + 1 });
@@ -271,7 +273,7 @@ export function createSyncEngine(parts: SyncParts) {
     for (const photo of photos) {
       if (ownerChanged()) return true;
       const before = progress.bytes;
-      await sendPhoto(photo, pending, (loaded) => setStatus({ progress: { ...progress, bytes: before + loaded } }));
+      await sendPhoto(photo, pending, ownerChanged, (loaded) => setStatus({ progress: { ...progress, bytes: before + loaded } }));
       progress.bytes = before + photo.bytes;
       setStatus({ progress: { ...progress } });
     }

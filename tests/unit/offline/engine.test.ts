@@ -317,6 +317,27 @@ describe('sessions and owners', () => {
       [uuid(3), 'scout-a'],
     ]);
   });
+  it('a photo whose upload began for one person is confirmed only under their session', async () => {
+    const s = setup();
+    await s.outbox.enqueueObservation('scout-a', record(1));
+    await s.engine.start('scout-a');
+    await s.outbox.enqueuePhoto({ id: uuid(50), owner: 'scout-a', observationId: uuid(1), blob: jpeg(100), contentType: 'image/jpeg', bytes: 100, takenAt: '2026-02-10T08:00:00Z' });
+    s.server.onRequest = (path) => {
+      if (path !== PRESIGN) return;
+      s.server.onRequest = undefined;
+      s.server.session = 'scout-b';
+      void s.engine.start('scout-b');
+    };
+    await s.engine.syncNow();
+    await settle();
+    expect(s.server.sent(CONFIRM)).toHaveLength(0);
+    expect(await s.outbox.listPhotos()).toMatchObject([{ state: 'uploaded', owner: 'scout-a' }]);
+
+    s.server.session = 'scout-a';
+    await s.engine.start('scout-a');
+    expect(s.server.sent(CONFIRM).map((r) => r.session)).toEqual(['scout-a']);
+    expect(await s.outbox.listPhotos()).toEqual([]);
+  });
 });
 
 describe('photos: presign → PUT → confirm', () => {
@@ -334,7 +355,7 @@ describe('photos: presign → PUT → confirm', () => {
     s.server.onRequest = (path) => void seen.push(path);
     await s.engine.start('scout-a');
     expect(seen).toEqual([SYNC, PRESIGN, PUT, CONFIRM]);
-    expect(s.server.photos.get(uuid(50))).toEqual({ observationId: uuid(1), state: 'stored', bytes: 4096 });
+    expect(s.server.photos.get(uuid(50))).toEqual({ observationId: uuid(1), state: 'stored', bytes: 4096, sessions: ['scout-a', 'scout-a'] });
     expect(await s.outbox.listPhotos()).toEqual([]);
     expect(s.engine.getStatus().photosWaiting).toBe(0);
   });

@@ -16,9 +16,10 @@ export const settle = () => new Promise<void>((resolve) => setImmediate(resolve)
 /**
  * What the next request meets: 'ok' is the server's real answer; 'offline' fails before the
  * request leaves; 'timeout' is fetch's abort after its deadline; 'lost' lets the server do the work
- * and then drops the answer; 'hang' never answers (a tab closed mid-request).
+ * and then drops the answer; 'hang' never answers (a tab closed mid-request); 'partial' takes and
+ * answers for only the first half of a batch.
  */
-export type Outcome = 'ok' | 'offline' | 'timeout' | 'lost' | 'hang' | { status: number; json?: AnswerBody };
+export type Outcome = 'ok' | 'offline' | 'timeout' | 'lost' | 'hang' | 'partial' | { status: number; json?: AnswerBody };
 
 export const PUT = 'PUT';
 
@@ -33,7 +34,7 @@ export class FakeServer {
   /** Whose session cookie the phone's requests carry; null: signed out (401). */
   session: string | null = 'scout-a';
   readonly records = new Map<string, Stored>();
-  readonly photos = new Map<string, { observationId: string; state: 'pending' | 'uploaded' | 'stored'; bytes: number }>();
+  readonly photos = new Map<string, { observationId: string; state: 'pending' | 'uploaded' | 'stored'; bytes: number; sessions: string[] }>();
   readonly requests: { path: string; body: unknown; session: string | null }[] = [];
   /** Called as each request arrives, before it is answered. */
   onRequest?: (path: string, body: unknown) => void | Promise<void>;
@@ -57,7 +58,7 @@ export class FakeServer {
   private fallback: Outcome | undefined;
 
   readonly transport: Transport = {
-    post: (path, body) => this.handle(path, body, (session) => this.answer(path, body, session)),
+    post: (path, body) => this.handle(path, body, (session, partial) => this.answer(path, body, session, partial)),
     put: (url, blob) => this.handle(PUT, { url }, () => this.upload(url, blob)),
   };
 
@@ -65,7 +66,7 @@ export class FakeServer {
     return this.requests.filter((r) => r.path === path);
   }
 
-  private async handle<T>(path: string, body: unknown, work: (session: string | null) => T): Promise<T> {
+  private async handle<T>(path: string, body: unknown, work: (session: string | null, partial: boolean) => T): Promise<T> {
     const outcome = this.queued.get(path)?.shift() ?? this.queued.get('*')?.shift() ?? this.fallback ?? 'ok';
     if (outcome === 'offline') throw new TypeError('Failed to fetch');
     if (outcome === 'timeout') throw new DOMException('The operation was aborted due to timeout', 'TimeoutError');
@@ -75,27 +76,29 @@ export class FakeServer {
     this.requests.push({ path, body, session });
     await this.onRequest?.(path, body);
     if (typeof outcome === 'object') return { status: outcome.status, json: outcome.json } as T;
-    const answer = work(session);
+    const answer = work(session, outcome === 'partial');
     if (outcome === 'lost') throw new TypeError('Failed to fetch');
     return answer;
   }
 
-  private answer(path: string, body: unknown, session: string | null): Answer {
+  private answer(path: string, body: unknown, session: string | null, partial = false): Answer {
     if (session === null) return { status: 401, json: { error: { code: 'unauthorised', message: 'Sign in first.' } } };
     const collection = COLLECTIONS.find((c) => c.path === path);
     if (collection) {
-      const list = (body as Record<string, ObservationEntry['record'][]>)[collection.bodyKey]!;
+      const all = (body as Record<string, ObservationEntry['record'][]>)[collection.bodyKey]!;
+      const list = partial ? all.slice(0, Math.ceil(all.length / 2)) : all;
       return { status: 200, json: { results: list.map((r) => this.receive(collection.name, r, session)) } };
     }
     const { id, observationId, bytes } = body as { id: string; observationId: string; bytes: number };
     if (path === '/api/photos/presign') {
       if (!this.records.has(observationId)) return { status: 422, json: { error: { code: 'invalid-input', message: 'No such observation.' } } };
       if (this.photos.get(id)?.state === 'stored') return { status: 200, json: { status: 'stored' } };
-      this.photos.set(id, { observationId, state: 'pending', bytes });
+      this.photos.set(id, { observationId, state: 'pending', bytes, sessions: [...(this.photos.get(id)?.sessions ?? []), session] });
       return { status: 200, json: { status: 'pending', uploadUrl: `http://s3.test/photos/${id}` } };
     }
     if (path === '/api/photos/confirm') {
       const photo = this.photos.get(id);
+      photo?.sessions.push(session);
       if (photo?.state === 'stored') return { status: 200, json: { status: 'stored' } };
       if (photo?.state !== 'uploaded') return { status: 409, json: { error: { code: 'not-uploaded', message: 'The photo has not arrived yet.' } } };
       photo.state = 'stored';

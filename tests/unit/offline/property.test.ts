@@ -1,6 +1,7 @@
 /**
  * Whatever happens between the phone and the server — reloads, a closed tab mid-request, no
- * network, a server that stored a batch whose answer never came back, another person signing in —
+ * network, a server that stored a batch whose answer never came back or answered for only half of
+ * it, another person signing in (even mid-drain) —
  * every record and photo saved on the phone ends up on the server exactly once, under the session
  * of the person who saved it, and is on the phone or the server at every moment in between.
  */
@@ -17,15 +18,17 @@ type Step =
   | { kind: 'drain'; outcomes: Outcome[] }
   | { kind: 'reload' }
   | { kind: 'crash'; before: Outcome[] }
-  | { kind: 'sign-in'; owner: Owner };
+  | { kind: 'sign-in'; owner: Owner }
+  | { kind: 'sign-in-mid-drain'; owner: Owner };
 
-const outcome = fc.constantFrom<Outcome>('ok', 'ok', 'offline', 'timeout', 'lost', 'lost', { status: 503 }, { status: 502 });
+const outcome = fc.constantFrom<Outcome>('ok', 'ok', 'offline', 'timeout', 'lost', 'lost', 'partial', { status: 503 }, { status: 502 });
 const step: fc.Arbitrary<Step> = fc.oneof(
   { weight: 4, arbitrary: fc.record({ kind: fc.constant('enqueue' as const), owner: fc.constantFrom(...OWNERS), collection: fc.constantFrom('observations' as const, 'flags' as const), photo: fc.boolean() }) },
   { weight: 3, arbitrary: fc.record({ kind: fc.constant('drain' as const), outcomes: fc.array(outcome, { maxLength: 6 }) }) },
   { weight: 1, arbitrary: fc.constant({ kind: 'reload' as const }) },
   { weight: 1, arbitrary: fc.record({ kind: fc.constant('crash' as const), before: fc.array(outcome, { maxLength: 3 }) }) },
   { weight: 1, arbitrary: fc.record({ kind: fc.constant('sign-in' as const), owner: fc.constantFrom(...OWNERS) }) },
+  { weight: 1, arbitrary: fc.record({ kind: fc.constant('sign-in-mid-drain' as const), owner: fc.constantFrom(...OWNERS) }) },
 );
 
 async function run(steps: Step[]) {
@@ -33,7 +36,7 @@ async function run(steps: Step[]) {
   const server = new FakeServer();
   let person: Owner = 'scout-a';
   server.session = person;
-  let s = setup({ store, server, batchSize: 3 });
+  let s = setup({ store, server, batchSize: 2 });
   await s.engine.start(person);
   const saved = new Map<string, { owner: Owner; payload: string }>();
   const photos = new Map<string, { owner: Owner; observationId: string }>();
@@ -41,7 +44,7 @@ async function run(steps: Step[]) {
 
   async function reload() {
     s.engine.stop();
-    s = setup({ store, server, batchSize: 3 });
+    s = setup({ store, server, batchSize: 2 });
     await s.engine.start(person);
   }
 
@@ -54,10 +57,10 @@ async function run(steps: Step[]) {
     }
     expect([...server.records.keys()].every((id) => saved.has(id)), `${label}: a record the phone never saved`).toBe(true);
     const photosOnPhone = new Set((await s.outbox.listPhotos()).map((p) => p.id));
-    for (const [id, { observationId }] of photos) {
+    for (const [id, { owner, observationId }] of photos) {
       const held = server.photos.get(id);
       expect(held?.state === 'stored' || photosOnPhone.has(id), `${label}: photo ${id} lost`).toBe(true);
-      if (held) expect(held.observationId).toBe(observationId);
+      if (held) expect([held.observationId, new Set(held.sessions)], `${label}: photo ${id} as stored`).toEqual([observationId, new Set([owner])]);
     }
   }
 
@@ -84,10 +87,22 @@ async function run(steps: Step[]) {
       await settle();
       server.clear();
       await reload();
-    } else {
+    } else if (st.kind === 'sign-in') {
       person = st.owner;
       server.session = person;
       await s.engine.start(person);
+    } else {
+      // Another person signs in (on another tab) while this drain's first request is out.
+      const engine = s.engine;
+      server.onRequest = () => {
+        server.onRequest = undefined;
+        person = st.owner;
+        server.session = person;
+        void engine.start(person);
+      };
+      await engine.syncNow();
+      server.onRequest = undefined;
+      await settle();
     }
     server.clear();
     await check(label);
