@@ -65,7 +65,10 @@ describe('sign-in', () => {
     const stranger = `nobody-${Date.now()}@example.com`;
     const res = await client.postForm('/api/auth/signin/email', { email: stranger, csrfToken, json: 'true', callbackUrl: '/' });
     expect(res.status).toBe(200);
-    expect(((await res.json()) as { url: string }).url).toContain('/signin/check-email');
+    // The same "check your e-mail" step a member gets: next-auth's verify-request, which leads to our page.
+    const url = new URL(((await res.json()) as { url: string }).url);
+    expect(url.pathname).toBe('/api/auth/verify-request');
+    expect((await client.fetch(url.pathname + url.search)).headers.get('location')).toContain('/signin/check-email');
     await new Promise((r) => setTimeout(r, 500));
     const { mailsTo } = await import('../helpers/mail');
     expect(await mailsTo(stranger)).toHaveLength(0);
