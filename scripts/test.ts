@@ -47,8 +47,8 @@ async function main() {
   try {
     const env: NodeJS.ProcessEnv = {
       ...stack.env,
-      // Cheap enough for fast tests, dear enough (about 70 ms) that a sign-in that skips bcrypt shows in timing.
-      BCRYPT_COST: '9',
+      // Cheap enough for fast tests, dear enough (about 140 ms) that a sign-in that skips bcrypt shows in timing.
+      BCRYPT_COST: '10',
       // vitest.config.ts keeps the name the project asks for; Vite's note about .mts is noise here.
       VITE_CONFIG_NATIVE_IGNORE_WARNING: 'true',
       APP_URL: `http://localhost:${profile.appPort}`,

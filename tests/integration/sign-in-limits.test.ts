@@ -116,10 +116,13 @@ describe('known and unknown addresses get the same answer', () => {
       unknownMs.push(await time(stranger));
     }
     const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)]!;
+    // At the test run's cost (10, about 140 ms) bcrypt is most of a refusal, so skipping it for unknown
+    // addresses lands far below 0.6 (before the fix, at cost 8, it measured 0.68); on a busy shared
+    // machine a fair ratio still wanders by ±25 %, hence the wide band.
     const ratio = median(unknownMs) / median(knownMs);
     console.info(`sign-in refusal, median of 7: known ${median(knownMs).toFixed(1)} ms, unknown ${median(unknownMs).toFixed(1)} ms`);
-    expect(ratio, `median known ${median(knownMs).toFixed(1)} ms, unknown ${median(unknownMs).toFixed(1)} ms`).toBeGreaterThan(0.75);
-    expect(ratio).toBeLessThan(1 / 0.75);
+    expect(ratio, `median known ${median(knownMs).toFixed(1)} ms, unknown ${median(unknownMs).toFixed(1)} ms`).toBeGreaterThan(0.6);
+    expect(ratio).toBeLessThan(1 / 0.6);
   });
 
   it('answers an e-mail link request for a known address exactly as for an unknown one', async () => {
