@@ -2,8 +2,8 @@ import type { ChildProcess } from 'node:child_process';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { startNext } from '../../scripts/lib/app';
 import { stopChild } from '../../scripts/lib/services';
-import { closeTestDb, makeTeam } from '../helpers/fixtures';
-import { APP_URL } from '../helpers/http';
+import { closeTestDb, makeTeam, PASSWORD } from '../helpers/fixtures';
+import { APP_URL, Client } from '../helpers/http';
 import { limiterKeys, resetClientLimits } from '../helpers/limits';
 
 /**
@@ -84,5 +84,20 @@ describe('Content-Security-Policy', () => {
       for (const attrs of scripts) expect(attrs, `${path}: <script${attrs}>`).toContain(`nonce="${nonce}"`);
     }
     expect(nonces.size).toBe(3);
+  });
+});
+
+describe('signing out', () => {
+  it('tells the browser to drop its HTTP cache for the site, and nothing the outbox lives in', async () => {
+    const { scout } = await makeTeam();
+    const client = new Client();
+    await client.signIn(scout.email, PASSWORD);
+    const csrfToken = await client.csrf();
+    const res = await client.postForm('/api/auth/signout', { csrfToken, json: 'true' });
+    expect(res.status).toBe(200);
+    expect(client.signedIn).toBe(false);
+    // W3C Clear Site Data: "cache" is the HTTP cache (a photo's redirect may sit there a minute);
+    // "storage" would take IndexedDB and with it the unsent outbox.
+    expect(res.headers.get('clear-site-data')).toBe('"cache"');
   });
 });

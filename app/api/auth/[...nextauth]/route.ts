@@ -25,5 +25,9 @@ export async function POST(req: NextRequest, segment: Segment) {
       return errorResponse(err);
     }
   }
-  return handle(req, segment);
+  const res = await handle(req, segment);
+  // Sign-out on a shared phone: the browser drops its HTTP cache for the site (a photo's redirect is
+  // kept a minute). Not "storage": that would take IndexedDB and the unsent outbox with it.
+  if (action === 'signout') res.headers.set('Clear-Site-Data', '"cache"');
+  return res;
 }
