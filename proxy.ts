@@ -26,7 +26,7 @@ function proxyHops() {
   return Number.isInteger(hops) && hops > 0 ? hops : 0;
 }
 
-export function contentSecurityPolicy(nonce: string) {
+function contentSecurityPolicy(nonce: string) {
   const store = objectStoreOrigin();
   return [
     "default-src 'self'",
