@@ -2,6 +2,8 @@
  * Client-side sign-in against next-auth's endpoints. We post the form ourselves (rather than
  * next-auth/react's signIn) so that a 429 from the rate limiter reaches the person as its message.
  */
+import { forgetSignedInPerson } from '@/lib/shared-phone';
+
 export type SignInResult = { ok: true } | { ok: false; message: string };
 
 async function csrfToken() {
@@ -48,12 +50,18 @@ export function requestSignInLink(email: string, callbackUrl = '/') {
   return post('/api/auth/signin/email', { email, callbackUrl });
 }
 
-/** Ends the session (next-auth clears its cookie) and goes back to the sign-in page. */
+/**
+ * Ends the session (next-auth clears its cookie), then forgets this person's cached pages, API
+ * answers and local copies on the phone, keeping the outbox (lib/shared-phone.ts), and goes back
+ * to the sign-in page. Throws when the server cannot be reached: nothing is forgotten then.
+ */
 export async function signOut() {
-  await fetch('/api/auth/signout', {
+  const res = await fetch('/api/auth/signout', {
     method: 'POST',
     headers: { 'content-type': 'application/x-www-form-urlencoded' },
     body: new URLSearchParams({ csrfToken: await csrfToken(), json: 'true' }),
   });
+  if (!res.ok) throw new Error(`Sign-out answered ${res.status}`);
+  await forgetSignedInPerson();
   window.location.assign('/signin');
 }

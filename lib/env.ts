@@ -22,7 +22,8 @@ const schema = z.object({
   NEXTAUTH_SECRET: z.string().min(32, 'must be at least 32 characters of random text'),
   NEXTAUTH_URL: z.url('must be the public URL of the app, e.g. http://localhost:3000'),
   VINEWARD_DEMO: flag,
-  TRUSTED_PROXY_HOPS: z.coerce.number().int('must be a whole number').min(1, 'must be 1 or more').max(10, 'must be 10 or fewer').default(1),
+  // 0: nothing in front of the app, so no X-Forwarded-* header is believed (lib/client-address.ts).
+  TRUSTED_PROXY_HOPS: z.coerce.number().int('must be a whole number').min(0, 'must be 0 (no proxy) or more').max(10, 'must be 10 or fewer').default(0),
 });
 
 export type Env = z.infer<typeof schema>;

@@ -7,6 +7,7 @@ import { z } from 'zod';
 import { Button } from '@/components/ui/button';
 import { Field, Input, Notice } from '@/components/ui/field';
 import { describeAuthError, requestSignInLink, signInWithPassword } from '@/lib/auth-client';
+import { sameOriginPath } from '@/lib/safe-redirect';
 import { useHydrated } from '@/lib/use-hydrated';
 import { emailSchema, signInSchema } from '@/lib/validation/auth';
 
@@ -32,7 +33,7 @@ export function SignInForm({ callbackUrl, initialError }: { callbackUrl: string;
     setMessage(undefined);
     if (mode === 'password') {
       const result = await signInWithPassword(email, password ?? '', callbackUrl);
-      if (result.ok) window.location.assign(callbackUrl);
+      if (result.ok) window.location.assign(sameOriginPath(callbackUrl, window.location.origin));
       else setMessage(result.message);
     } else {
       const result = await requestSignInLink(email, callbackUrl);

@@ -25,9 +25,10 @@ describe('environment check', () => {
     );
   });
 
-  it('reads one trusted proxy unless told otherwise, and refuses a count it cannot use', () => {
-    expect(getEnv({ ...good }).TRUSTED_PROXY_HOPS).toBe(1);
+  it('trusts no proxy unless told how many there are, and refuses a count it cannot use', () => {
+    expect(getEnv({ ...good }).TRUSTED_PROXY_HOPS).toBe(0);
     expect(getEnv({ ...good, TRUSTED_PROXY_HOPS: '2' }).TRUSTED_PROXY_HOPS).toBe(2);
-    expect(() => getEnv({ ...good, TRUSTED_PROXY_HOPS: '0' })).toThrowError(/TRUSTED_PROXY_HOPS: must be 1 or more/);
+    expect(() => getEnv({ ...good, TRUSTED_PROXY_HOPS: '-1' })).toThrowError(/TRUSTED_PROXY_HOPS: must be 0 \(no proxy\) or more/);
+    expect(() => getEnv({ ...good, TRUSTED_PROXY_HOPS: '1.5' })).toThrowError(/TRUSTED_PROXY_HOPS: must be a whole number/);
   });
 });

@@ -1,19 +1,22 @@
 import type { Metadata } from 'next';
 import { redirect } from 'next/navigation';
 import { SignInForm } from '@/components/auth/sign-in-form';
+import { WaitingOnPhone } from '@/components/auth/waiting-on-phone';
+import { getEnv } from '@/lib/env';
+import { sameOriginPath } from '@/lib/safe-redirect';
 import { currentMember } from '@/lib/server/auth/guard';
 
 export const metadata: Metadata = { title: 'Sign in' };
 
-// Only same-site paths, so a crafted link cannot bounce a person to another site.
-const safePath = (value: string | undefined) => (value && value.startsWith('/') && !value.startsWith('//') ? value : '/');
-
 export default async function SignInPage({ searchParams }: { searchParams: Promise<Record<string, string | undefined>> }) {
   const params = await searchParams;
-  if (await currentMember()) redirect(safePath(params.callbackUrl));
+  // Only paths of this site, so a crafted link cannot bounce a person to another one.
+  const next = sameOriginPath(params.callbackUrl, getEnv().NEXTAUTH_URL);
+  if (await currentMember()) redirect(next);
   return (
     <>
-      <SignInForm callbackUrl={safePath(params.callbackUrl)} initialError={params.error} />
+      <WaitingOnPhone />
+      <SignInForm callbackUrl={next} initialError={params.error} />
       {process.env.VINEWARD_DEMO === '1' && (
         <p className="mt-4 text-sm text-bark-faint">
           Demo: manager@example.com, scout@example.com, pruner@example.com or advisor@example.com, password

@@ -4,8 +4,10 @@ import CredentialsProvider from 'next-auth/providers/credentials';
 import EmailProvider from 'next-auth/providers/email';
 import { getEnv } from '@/lib/env';
 import { knexAdapter } from '@/lib/server/auth/adapter';
-import { verifyPassword } from '@/lib/server/auth/passwords';
-import { clearFailedSignIns, requestAddress, recordFailedSignIn } from '@/lib/server/auth/rate-limit';
+import { normalizeLinkAddress } from '@/lib/server/auth/identifier';
+import { dummyHash, verifyPassword } from '@/lib/server/auth/passwords';
+import { accountKey, clearFailedSignIns, recordFailedSignIn, requestAddress, signInLocked } from '@/lib/server/auth/rate-limit';
+import { sameOriginPath } from '@/lib/safe-redirect';
 import { db } from '@/lib/server/db';
 import { linkMail, sendMail } from '@/lib/server/mail';
 import { getUserByEmail } from '@/lib/server/queries/users';
@@ -27,16 +29,19 @@ export function authOptions(): NextAuthOptions {
         name: 'E-mail and password',
         credentials: { email: { type: 'email' }, password: { type: 'password' } },
         async authorize(credentials, req) {
+          const key = accountKey(credentials?.email);
+          const address = requestAddress(req?.headers);
+          // The route refuses locked accounts before next-auth runs; this holds even if its reading of the body ever differs.
+          if (await signInLocked(address, key)) return null;
           const parsed = signInSchema.safeParse(credentials);
-          if (!parsed.success) return null;
-          const { email, password } = parsed.data;
-          const user = await getUserByEmail(db(), email);
-          const ok = !!user?.password_hash && (await verifyPassword(password, user.password_hash));
-          if (!ok || !user) {
-            await recordFailedSignIn(requestAddress(req?.headers), email);
+          const user = parsed.success ? await getUserByEmail(db(), parsed.data.email) : undefined;
+          // Unknown addresses are checked against a dummy hash, so they take as long as known ones.
+          const ok = await verifyPassword(parsed.success ? parsed.data.password : '', user?.password_hash || (await dummyHash()));
+          if (!ok || !user?.password_hash) {
+            await recordFailedSignIn(address, key);
             return null;
           }
-          await clearFailedSignIns(email);
+          await clearFailedSignIns(key);
           return { id: user.id, email: user.email, name: user.name };
         },
       }),
@@ -44,8 +49,12 @@ export function authOptions(): NextAuthOptions {
         server: env.SMTP_URL,
         from: env.MAIL_FROM,
         maxAge: SIGN_IN_LINK_MINUTES * 60,
+        normalizeIdentifier: normalizeLinkAddress,
         async sendVerificationRequest({ identifier, url }) {
-          await sendMail(
+          // Links go only to people who already belong to Vineward. Every address gets the same
+          // answer, and the mail goes out after it, so neither the answer nor its timing tells.
+          if (!(await getUserByEmail(db(), identifier))) return;
+          void sendMail(
             linkMail({
               to: identifier,
               subject: 'Your Vineward sign-in link',
@@ -54,19 +63,22 @@ export function authOptions(): NextAuthOptions {
               url,
               outro: `The link works once and expires in ${SIGN_IN_LINK_MINUTES} minutes. If you did not ask for it, ignore this mail.`,
             }),
-          );
+          ).catch((err: unknown) => console.error('A sign-in link could not be sent', err));
         },
       }),
     ],
     callbacks: {
-      async signIn({ user, email }) {
-        // Links go only to people who already belong to Vineward; strangers see the same
-        // "check your e-mail" page so that addresses cannot be probed.
-        if (email?.verificationRequest) {
-          const known = user.email ? await getUserByEmail(db(), user.email) : undefined;
-          return known ? true : '/signin/check-email';
+      async signIn({ user, account, email }) {
+        // Asking for a link answers alike for every address (sendVerificationRequest mails only
+        // members); using one signs in only someone who already has an account.
+        if (account?.provider === 'email' && !email?.verificationRequest) {
+          return !!user.email && !!(await getUserByEmail(db(), user.email));
         }
         return true;
+      },
+      // Only paths of this site, whatever callbackUrl a link carried (lib/safe-redirect.ts).
+      redirect({ url, baseUrl }) {
+        return new URL(sameOriginPath(url, baseUrl), baseUrl).toString();
       },
       async jwt({ token, user }) {
         if (user) token.uid = user.id;

@@ -1,7 +1,9 @@
 import NextAuth from 'next-auth';
 import type { NextRequest } from 'next/server';
+import { nextAuthBody } from '@/lib/server/auth/body';
+import { linkIdentifier } from '@/lib/server/auth/identifier';
 import { authOptions } from '@/lib/server/auth/options';
-import { assertSignInAllowed, requestAddress } from '@/lib/server/auth/rate-limit';
+import { accountKey, assertSignInAllowed, consumeLinkRequest, requestAddress } from '@/lib/server/auth/rate-limit';
 import { errorResponse } from '@/lib/server/http';
 
 type Segment = { params: Promise<{ nextauth: string[] }> };
@@ -11,16 +13,21 @@ const handle = (req: NextRequest, segment: Segment) => NextAuth(authOptions())(r
 export const GET = handle;
 
 export async function POST(req: NextRequest, segment: Segment) {
-  const { nextauth } = await segment.params;
-  // Sign-in attempts over the limit get a 429 before next-auth sees them.
-  if (nextauth.join('/') === 'callback/credentials' || nextauth.join('/') === 'signin/email') {
-    const form = await req.clone().formData().catch(() => undefined);
-    const email = String(form?.get('email') ?? '').trim().toLowerCase();
+  const action = (await segment.params).nextauth.join('/');
+  // Attempts over a limit get a 429 before next-auth sees them, counted on the e-mail next-auth will read.
+  if (action === 'callback/credentials' || action === 'signin/email') {
     try {
-      await assertSignInAllowed(requestAddress(req.headers), email);
+      const email = (await nextAuthBody(req))?.email;
+      const address = requestAddress(req.headers);
+      if (action === 'callback/credentials') await assertSignInAllowed(address, accountKey(email));
+      else await consumeLinkRequest(address, linkIdentifier(email) ?? accountKey(email));
     } catch (err) {
       return errorResponse(err);
     }
   }
-  return handle(req, segment);
+  const res = await handle(req, segment);
+  // Sign-out on a shared phone: the browser drops its HTTP cache for the site (a photo's redirect is
+  // kept a minute). Not "storage": that would take IndexedDB and the unsent outbox with it.
+  if (action === 'signout') res.headers.set('Clear-Site-Data', '"cache"');
+  return res;
 }
