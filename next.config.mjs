@@ -8,6 +8,20 @@ const nextConfig = {
   serverExternalPackages: ['knex', 'pg', 'sharp', 'rate-limiter-flexible'],
   poweredByHeader: false,
   reactStrictMode: true,
+  // proxy.ts sets these on pages; it skips /api/ (see there), so JSON answers get them here.
+  async headers() {
+    return [
+      {
+        source: '/api/:path*',
+        headers: [
+          { key: 'Content-Security-Policy', value: "default-src 'none'; frame-ancestors 'none'" },
+          { key: 'X-Frame-Options', value: 'DENY' },
+          { key: 'X-Content-Type-Options', value: 'nosniff' },
+          { key: 'Referrer-Policy', value: 'strict-origin-when-cross-origin' },
+        ],
+      },
+    ];
+  },
 };
 
 export default createNextIntlPlugin('./i18n/request.ts')(nextConfig);

@@ -42,3 +42,11 @@ export function proxy(_req: NextRequest) {
   res.headers.set('Permissions-Policy', 'camera=(self), geolocation=(self), microphone=()');
   return res;
 }
+
+/**
+ * Not on /api/: wherever a proxy runs, Next.js copies each request body into memory (up to
+ * 10 MB) and waits for its end before the route sees it, which would undo the byte limit route
+ * handlers read bodies with (lib/server/boundary.ts). API answers get their headers from
+ * next.config.mjs instead.
+ */
+export const config = { matcher: ['/((?!api/).*)'] };
