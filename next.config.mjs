@@ -8,11 +8,12 @@ const nextConfig = {
   serverExternalPackages: ['knex', 'pg', 'sharp', 'rate-limiter-flexible'],
   poweredByHeader: false,
   reactStrictMode: true,
-  // proxy.ts sets these on pages; it skips /api/ (see there), so JSON answers get them here.
+  // proxy.ts sets these on pages and /api/auth/; it skips the rest of /api/ (see there), so JSON
+  // answers get them here.
   async headers() {
     return [
       {
-        source: '/api/:path*',
+        source: '/api/:path((?!auth/).*)',
         headers: [
           { key: 'Content-Security-Policy', value: "default-src 'none'; frame-ancestors 'none'" },
           { key: 'X-Frame-Options', value: 'DENY' },

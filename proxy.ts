@@ -44,9 +44,10 @@ export function proxy(_req: NextRequest) {
 }
 
 /**
- * Not on /api/: wherever a proxy runs, Next.js copies each request body into memory (up to
- * 10 MB) and waits for its end before the route sees it, which would undo the byte limit route
- * handlers read bodies with (lib/server/boundary.ts). API answers get their headers from
- * next.config.mjs instead.
+ * Not on /api/ but for next-auth's /api/auth/: wherever a proxy runs, Next.js copies each request
+ * body into memory (up to 10 MB) and waits for its end before the route sees it, which would undo
+ * the byte limit route handlers read bodies with (lib/server/boundary.ts). API answers get their
+ * headers from next.config.mjs instead. next-auth reads its whole body itself, so there the copy's
+ * 10 MB cap is the bound that holds.
  */
-export const config = { matcher: ['/((?!api/).*)'] };
+export const config = { matcher: ['/((?!api/(?!auth/)).*)'] };

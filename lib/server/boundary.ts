@@ -79,13 +79,34 @@ export async function readLimited(req: NextRequest, maxBytes: number, tooLarge: 
     if (done) break;
     total += value.byteLength;
     if (total > maxBytes) {
-      // Stop pulling: the rest of the body is never read into memory.
-      void reader.cancel().catch(() => undefined);
+      discardRest(reader);
       throw tooLarge(total, false);
     }
     chunks.push(value);
   }
   return Buffer.concat(chunks, total);
+}
+
+// How long the rest of a refused body is read and thrown away before the connection is cut.
+const LINGER_MS = 10_000;
+
+/**
+ * Nothing more of a refused body is kept. It is read and dropped for a while, as web servers do
+ * on a lingering close, so that a client still uploading gets to read the 413 rather than a reset
+ * connection; one that keeps sending past that loses the connection.
+ */
+function discardRest(reader: ReadableStreamDefaultReader<Uint8Array>) {
+  const cut = setTimeout(() => void reader.cancel().catch(() => undefined), LINGER_MS);
+  cut.unref?.();
+  void (async () => {
+    try {
+      while (!(await reader.read()).done);
+    } catch {
+      // the client went away, or the cut above came first
+    } finally {
+      clearTimeout(cut);
+    }
+  })();
 }
 
 export async function readLimitedText(req: NextRequest, maxBytes: number, tooLarge?: (bytes: number, exact: boolean) => AppError) {

@@ -28,8 +28,6 @@ interface RouteOptions<B, P, Q> {
 }
 
 const MAX_JSON_BYTES = 1_000_000;
-// A route that reads no body still drains what came, up to this much, and refuses more.
-const NO_BODY_MAX_BYTES = 1024;
 
 export function fieldErrors(error: z.ZodError) {
   const fields: Record<string, string[]> = {};
@@ -55,7 +53,8 @@ export function errorResponse(err: unknown): NextResponse {
 
 async function readBody<B>(req: NextRequest, options: RouteOptions<B, unknown, unknown>): Promise<B> {
   if (!options.body) {
-    if (!options.accepts) await readLimited(req, NO_BODY_MAX_BYTES, () => new AppError('payload-too-large', 'This request takes no body.'));
+    // A route that reads no body takes none: a byte of one is refused rather than ignored.
+    if (!options.accepts) await readLimited(req, 0, () => new AppError('payload-too-large', 'This request takes no body.'));
     return undefined as B;
   }
   const text = await readLimitedText(req, options.maxBytes ?? MAX_JSON_BYTES);

@@ -19,7 +19,7 @@ export interface RawRequest {
   method?: string;
   path: string;
   headers?: Record<string, string>;
-  /** A fixed body (sent with Content-Length unless `chunked`). */
+  /** A fixed body, sent with its Content-Length. */
   body?: string | Buffer;
   /** Send this many bytes of `fill` in 64 KiB chunks, without Content-Length. */
   stream?: { bytes: number; fill?: string; endless?: boolean };
@@ -33,8 +33,13 @@ export function raw(req: RawRequest): Promise<RawAnswer> {
     let answered = false;
     const headers: Record<string, string> = { ...req.headers };
     if (req.body !== undefined && !req.stream) headers['content-length'] = String(Buffer.byteLength(req.body));
+    // Node frames a streamed body as chunks by itself only for some methods (not DELETE).
+    if (req.stream) headers['transfer-encoding'] = 'chunked';
+    // Keep-alive, as browsers send it: a client that asks for "Connection: close" (agent: false) gets
+    // its socket closed right after the answer, and a reset if it is still sending.
+    const agent = new http.Agent({ keepAlive: true, maxSockets: 1 });
     const request = http.request(
-      { host: url.hostname, port: url.port, path: url.pathname + url.search, method: req.method ?? 'POST', headers, agent: false },
+      { host: url.hostname, port: url.port, path: url.pathname + url.search, method: req.method ?? 'POST', headers, agent },
       (res) => {
         answered = true;
         const chunks: Buffer[] = [];
@@ -44,17 +49,20 @@ export function raw(req: RawRequest): Promise<RawAnswer> {
           const text = Buffer.concat(chunks).toString('utf8');
           resolve({ status: res.statusCode ?? 0, headers: res.headers, text, sent, json: () => JSON.parse(text) });
           request.destroy();
+          agent.destroy();
         });
       },
     );
     const timer = setTimeout(() => {
       request.destroy();
+      agent.destroy();
       reject(new Error(`No answer within ${req.timeoutMs ?? 20_000} ms to ${req.method ?? 'POST'} ${req.path} (${sent} bytes sent)`));
     }, req.timeoutMs ?? 20_000);
     // The server may close the connection once it has answered; that is not a failure here.
     request.on('error', (err) => {
       if (!answered) {
         clearTimeout(timer);
+        agent.destroy();
         reject(err);
       }
     });

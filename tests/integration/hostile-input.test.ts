@@ -267,7 +267,7 @@ const BIG = 20 * 1024 * 1024;
 
 function casesFor(key: string, row: Row): Case[] {
   const [method, route] = key.split(' ') as [Method, string];
-  const cookie = row.public ? {} : { cookie: manager.cookieHeader };
+  const cookie: Record<string, string> = row.public ? {} : { cookie: manager.cookieHeader };
   const send = (p: string, headers: Record<string, string> = {}, body?: string | Buffer, stream?: { bytes: number }) => () =>
     raw({ method, path: p, headers: { ...cookie, ...headers }, body, stream, timeoutMs: 60_000 });
   const at = fill(route, row);

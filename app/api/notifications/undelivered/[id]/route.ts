@@ -10,12 +10,12 @@ import { idParams } from '@/lib/validation/params';
 export const POST = memberRoute(
   { permission: 'manage-organisation', body: undeliveredActionSchema, params: idParams('an undelivered mail') },
   async (member, { params: { id }, body }) => {
-  const done =
-    body.action === 'resend'
-      ? await requeueUndeliveredMail(db(), member.organisationId, id)
-      : await dismissUndeliveredMail(db(), member.organisationId, id, member.userId);
-  if (!done) throw new AppError('not-found', 'There is no undelivered mail with that id in your organisation (it may have been dealt with already).');
-  if (body.action === 'resend') wakeMailWorker();
-  return { ok: true };
+    const done =
+      body.action === 'resend'
+        ? await requeueUndeliveredMail(db(), member.organisationId, id)
+        : await dismissUndeliveredMail(db(), member.organisationId, id, member.userId);
+    if (!done) throw new AppError('not-found', 'There is no undelivered mail with that id in your organisation (it may have been dealt with already).');
+    if (body.action === 'resend') wakeMailWorker();
+    return { ok: true };
   },
 );
