@@ -9,6 +9,21 @@ const nextConfig = {
   serverExternalPackages: ['knex', 'pg', 'sharp', 'rate-limiter-flexible', 'exifr'],
   poweredByHeader: false,
   reactStrictMode: true,
+  // proxy.ts sets these on pages and /api/auth/; it skips the rest of /api/ (see there), so JSON
+  // answers get them here.
+  async headers() {
+    return [
+      {
+        source: '/api/:path((?!auth/).*)',
+        headers: [
+          { key: 'Content-Security-Policy', value: "default-src 'none'; frame-ancestors 'none'" },
+          { key: 'X-Frame-Options', value: 'DENY' },
+          { key: 'X-Content-Type-Options', value: 'nosniff' },
+          { key: 'Referrer-Policy', value: 'strict-origin-when-cross-origin' },
+        ],
+      },
+    ];
+  },
 };
 
 export default createNextIntlPlugin('./i18n/request.ts')(nextConfig);

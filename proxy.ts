@@ -67,3 +67,12 @@ export function proxy(req: NextRequest) {
   res.headers.set('Permissions-Policy', 'camera=(self), geolocation=(self), microphone=()');
   return res;
 }
+
+/**
+ * Not on /api/ but for next-auth's /api/auth/: wherever a proxy runs, Next.js copies each request
+ * body into memory (up to 10 MB) and waits for its end before the route sees it, which would undo
+ * the byte limit route handlers read bodies with (lib/server/boundary.ts). API answers get their
+ * headers from next.config.mjs instead. next-auth reads its whole body itself, so there the copy's
+ * 10 MB cap is the bound that holds.
+ */
+export const config = { matcher: ['/((?!api/(?!auth/)).*)'] };

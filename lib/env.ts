@@ -19,6 +19,7 @@ const schema = z.object({
   S3_FORCE_PATH_STYLE: flag,
   SMTP_URL: z.string().regex(/^smtps?:\/\//, 'must be an smtp:// or smtps:// URL'),
   MAIL_FROM: z.string().min(3).default('Vineward <no-reply@example.com>'),
+  INVITATIONS_PER_DAY: z.coerce.number().int('must be a whole number').min(1, 'must be 1 or more').max(1000, 'must be 1000 or fewer').default(20),
   NEXTAUTH_SECRET: z.string().min(32, 'must be at least 32 characters of random text'),
   NEXTAUTH_URL: z.url('must be the public URL of the app, e.g. http://localhost:3000'),
   VINEWARD_DEMO: flag,

@@ -4,11 +4,14 @@ import 'server-only';
 export const ERROR_STATUS = {
   unauthenticated: 401,
   forbidden: 403,
+  // A change sent from another site's page (lib/server/boundary.ts).
+  'cross-site': 403,
   'not-found': 404,
   conflict: 409,
   gone: 410,
   'invalid-input': 422,
   'payload-too-large': 413,
+  'unsupported-media-type': 415,
   'rate-limited': 429,
   'bad-request': 400,
   unavailable: 503,

@@ -3,14 +3,28 @@ import { NextResponse, type NextRequest } from 'next/server';
 import { z, type ZodType } from 'zod';
 import type { Permission } from '@/lib/roles';
 import { requireMember, type Member } from '@/lib/server/auth/guard';
+import { assertContentType, assertSameOrigin, isMutation, JSON_TYPE, readLimited, readLimitedText } from '@/lib/server/boundary';
 import { AppError, errorBody } from '@/lib/server/errors';
 
 type Params = Record<string, string | string[]>;
 
-interface Context<B> {
+interface Context<B, P, Q> {
   req: NextRequest;
-  params: Params;
+  params: P;
+  query: Q;
   body: B;
+}
+
+interface RouteOptions<B, P, Q> {
+  /** The JSON body's schema; without one the route takes no body (or reads its own, see `accepts`). */
+  body?: ZodType<B>;
+  /** Media types of a body the handler reads itself (with readLimited); JSON otherwise. */
+  accepts?: readonly string[];
+  maxBytes?: number;
+  /** Path parameters: every id is a UUID (lib/validation/params.ts), so a bad one is 422, never 500. */
+  params?: ZodType<P>;
+  /** The query string as one flat object (the last value of a repeated key). */
+  query?: ZodType<Q>;
 }
 
 const MAX_JSON_BYTES = 1_000_000;
@@ -37,34 +51,57 @@ export function errorResponse(err: unknown): NextResponse {
   });
 }
 
-async function readBody<B>(req: NextRequest, schema: ZodType<B> | undefined, maxBytes: number): Promise<B> {
-  if (!schema) return undefined as B;
-  const length = Number(req.headers.get('content-length') ?? 0);
-  if (length > maxBytes) throw new AppError('payload-too-large', `The request is larger than ${maxBytes} bytes.`);
-  const text = await req.text();
-  if (text.length > maxBytes) throw new AppError('payload-too-large', `The request is larger than ${maxBytes} bytes.`);
+async function readBody<B>(req: NextRequest, options: RouteOptions<B, unknown, unknown>): Promise<B> {
+  if (!options.body) {
+    // A route that reads no body takes none: a byte of one is refused rather than ignored.
+    if (!options.accepts) await readLimited(req, 0, () => new AppError('payload-too-large', 'This request takes no body.'));
+    return undefined as B;
+  }
+  const text = await readLimitedText(req, options.maxBytes ?? MAX_JSON_BYTES);
   let json: unknown;
   try {
     json = text ? JSON.parse(text) : {};
   } catch {
     throw new AppError('bad-request', 'The request body is not valid JSON.');
   }
-  return schema.parse(json);
+  return options.body.parse(json);
+}
+
+/** The checks every route makes before its handler runs, in order: cheapest and most telling first. */
+async function prepare<B, P, Q>(
+  req: NextRequest,
+  segment: { params: Promise<Params> },
+  options: RouteOptions<B, P, Q>,
+  guard: () => Promise<unknown>,
+  fromBrowserPages: boolean,
+) {
+  const mutation = isMutation(req);
+  if (mutation) {
+    if (fromBrowserPages) assertSameOrigin(req);
+    assertContentType(req, options.accepts ?? [JSON_TYPE], !!options.body);
+  }
+  await guard();
+  const rawParams = await segment.params;
+  const params = (options.params ? options.params.parse(rawParams) : rawParams) as P;
+  const query = (options.query ? options.query.parse(Object.fromEntries(req.nextUrl.searchParams)) : undefined) as Q;
+  const body = mutation ? await readBody(req, options) : (undefined as B);
+  return { req, params, query, body };
 }
 
 /**
- * Wraps a route handler: checks the session, organisation and role, parses the JSON body with
- * zod, and turns every error into `{ error: { code, message, fields? } }` with its status.
+ * Wraps a route handler: refuses changes sent from other sites and bodies of the wrong type, checks
+ * the session, organisation and role, parses path parameters, query and JSON body with zod (the body
+ * read with a byte limit), and turns every error into `{ error: { code, message, fields? } }`.
  */
-export function memberRoute<B = undefined>(
-  options: { permission?: Permission; body?: ZodType<B>; maxBytes?: number },
-  fn: (member: Member, ctx: Context<B>) => Promise<unknown>,
+export function memberRoute<B = undefined, P = Params, Q = undefined>(
+  options: RouteOptions<B, P, Q> & { permission?: Permission },
+  fn: (member: Member, ctx: Context<B, P, Q>) => Promise<unknown>,
 ) {
   return async (req: NextRequest, segment: { params: Promise<Params> }) => {
     try {
-      const member = await requireMember(options.permission ?? 'read');
-      const body = await readBody(req, options.body, options.maxBytes ?? MAX_JSON_BYTES);
-      const result = await fn(member, { req, params: await segment.params, body });
+      let member: Member | undefined;
+      const ctx = await prepare(req, segment, options, async () => (member = await requireMember(options.permission ?? 'read')), true);
+      const result = await fn(member!, ctx);
       return result instanceof Response ? result : NextResponse.json(result);
     } catch (err) {
       return errorResponse(err);
@@ -72,15 +109,15 @@ export function memberRoute<B = undefined>(
   };
 }
 
-/** For the few routes that anyone may call (health, invitation acceptance). */
-export function publicRoute<B = undefined>(
-  options: { body?: ZodType<B>; maxBytes?: number },
-  fn: (ctx: Context<B>) => Promise<unknown>,
-) {
+/**
+ * For the few routes that anyone may call (health, invitation acceptance, unsubscribe). They carry
+ * no session, so a foreign page gains nothing by sending them; bodies are bounded all the same.
+ */
+export function publicRoute<B = undefined, P = Params, Q = undefined>(options: RouteOptions<B, P, Q>, fn: (ctx: Context<B, P, Q>) => Promise<unknown>) {
   return async (req: NextRequest, segment: { params: Promise<Params> }) => {
     try {
-      const body = await readBody(req, options.body, options.maxBytes ?? MAX_JSON_BYTES);
-      const result = await fn({ req, params: await segment.params, body });
+      const ctx = await prepare(req, segment, options, async () => undefined, false);
+      const result = await fn(ctx);
       return result instanceof Response ? result : NextResponse.json(result);
     } catch (err) {
       return errorResponse(err);

@@ -23,14 +23,27 @@ export async function sendMail(mail: Mail) {
   await transport().sendMail({ from: getEnv().MAIL_FROM, ...mail });
 }
 
-/** A plain, readable mail: our wordmark, a paragraph, one big link. */
-export function linkMail(o: { to: string; subject: string; intro: string; action: string; url: string; outro?: string }): Mail {
-  const escape = (s: string) => s.replace(/[&<>"]/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;' })[c]!);
-  const text = `${o.intro}\n\n${o.action}: ${o.url}\n\n${o.outro ?? ''}\n— Vineward`.replace(/\n{3,}/g, '\n\n');
+const escapeHtml = (s: string) => s.replace(/[&<>"]/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;' })[c]!);
+
+/**
+ * A plain, readable mail: our wordmark, a paragraph (its line breaks kept), one big link, and an
+ * optional footer. Filled by concatenation only: what people wrote (comments, names, notes) may
+ * hold `$'` or `$&`, which a string passed to String.replace would expand.
+ */
+export function linkMail(o: {
+  to: string;
+  subject: string;
+  intro: string;
+  action: string;
+  url: string;
+  outro?: string;
+  footer?: { text: string; html: string };
+}): Mail {
+  const text = [o.intro, `${o.action}: ${o.url}`, o.outro, '— Vineward', o.footer?.text].filter(Boolean).join('\n\n');
   const html = `<div style="font-family:sans-serif;max-width:32rem">
 <p style="font-size:20px;font-weight:700;color:#2f4a1f">Vineward</p>
-<p>${escape(o.intro)}</p>
-<p><a href="${escape(o.url)}" style="display:inline-block;padding:12px 20px;background:#2f4a1f;color:#fff;border-radius:8px;text-decoration:none">${escape(o.action)}</a></p>
-<p style="color:#555">${escape(o.outro ?? '')}</p></div>`;
+<p>${escapeHtml(o.intro).split('\n').join('<br>')}</p>
+<p><a href="${escapeHtml(o.url)}" style="display:inline-block;padding:12px 20px;background:#2f4a1f;color:#fff;border-radius:8px;text-decoration:none">${escapeHtml(o.action)}</a></p>
+<p style="color:#555">${escapeHtml(o.outro ?? '')}</p>${o.footer?.html ?? ''}</div>`;
   return { to: o.to, subject: o.subject, text, html };
 }

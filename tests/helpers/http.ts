@@ -19,6 +19,11 @@ export class Client {
     return this.cookies.get(name);
   }
 
+  /** The Cookie header this client sends, for requests made without fetch (tests/helpers/raw.ts). */
+  get cookieHeader() {
+    return [...this.cookies].map(([k, v]) => `${k}=${v}`).join('; ');
+  }
+
   async fetch(path: string, init: RequestInit = {}) {
     const headers = new Headers(init.headers);
     if (this.cookies.size) headers.set('cookie', [...this.cookies].map(([k, v]) => `${k}=${v}`).join('; '));

@@ -298,7 +298,7 @@ describe('blocks through the route handlers', () => {
       expect(res.status, `${method} ${path}`).toBe(403);
       expect((await res.json()).error.code).toBe('forbidden');
     }
-    const layout = await client.fetch(`/api/blocks/${block.id}/layout?mode=apply`, { method: 'POST', body: 'row,vines\n1,1\n' });
+    const layout = await client.fetch(`/api/blocks/${block.id}/layout?mode=apply`, { method: 'POST', headers: { 'content-type': 'text/csv' }, body: 'row,vines\n1,1\n' });
     expect(layout.status).toBe(403);
     expect(await slotsPerRow(block.id)).toEqual({ 1: 4, 2: 4 });
     expect(await testDb()('blocks').where({ organisation_id: team.org.id }).count<{ count: string }[]>()).toEqual([{ count: '1' }]);
@@ -319,7 +319,6 @@ describe('blocks through the route handlers', () => {
       [`/api/blocks/${theirs.id}/positions/1/1`, 'GET', undefined],
       [`/api/blocks/${theirs.id}/positions/1/1`, 'PATCH', { status: 'dead' }],
       [`/api/blocks/${theirs.id}/layout.csv`, 'GET', undefined],
-      [`/api/blocks/not-a-uuid`, 'GET', undefined],
     ];
     for (const [path, method, body] of attempts) {
       const res = await a.client.json(path, method, body);
@@ -328,10 +327,14 @@ describe('blocks through the route handlers', () => {
       expect(text).not.toContain('Their Block');
       expect(JSON.parse(text).error.code).toBe('not-found');
     }
-    const layout = await a.client.fetch(`/api/blocks/${theirs.id}/layout?mode=apply`, { method: 'POST', body: 'row,vines\n1,1\n' });
+    const layout = await a.client.fetch(`/api/blocks/${theirs.id}/layout?mode=apply`, { method: 'POST', headers: { 'content-type': 'text/csv' }, body: 'row,vines\n1,1\n' });
     expect(layout.status).toBe(404);
     const still = await testDb()('blocks').where({ id: theirs.id }).first();
     expect(still).toMatchObject({ name: 'Their Block', archived_at: null, row_count: 4 });
+    // An id that cannot be one is a bad request (422, naming it), not a missing block.
+    const bad = await a.client.fetch('/api/blocks/not-a-uuid');
+    expect(bad.status).toBe(422);
+    expect(Object.keys((await bad.json()).error.fields)).toEqual(['id']);
   });
 
   it('answers 401 to a signed-out caller', async () => {

@@ -46,11 +46,11 @@ describe('the field layout a phone keeps for offline walking', () => {
     expect(layout.findings).toEqual([[2, 4, 3, 1]]);
   });
 
-  it('answers 404 for a block of another organisation', async () => {
+  it('answers 404 for a block of another organisation and 422 for an id that is not one', async () => {
     const other = await makeTeam();
     const foreign = await makeBlock(other.org.id);
     expect((await clients.scout!.fetch(`/api/field/blocks/${foreign.id}`)).status).toBe(404);
-    expect((await clients.scout!.fetch(`/api/field/blocks/not-a-uuid`)).status).toBe(404);
+    expect((await clients.scout!.fetch(`/api/field/blocks/not-a-uuid`)).status).toBe(422);
   });
 });
 

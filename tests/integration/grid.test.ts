@@ -168,7 +168,7 @@ describe('GET /api/grid/:blockId', () => {
     const res = await stranger.fetch(`/api/grid/${block.id}`);
     expect(res.status).toBe(404);
     expect((await res.json()).error.code).toBe('not-found');
-    expect((await manager.fetch('/api/grid/not-a-block')).status).toBe(404);
+    expect((await manager.fetch('/api/grid/not-a-block')).status).toBe(422);
     expect((await new Client().fetch(`/api/grid/${block.id}`)).status).toBe(401);
   });
 });
@@ -228,7 +228,7 @@ describe('the vine panel', () => {
     expect((await stranger.fetch(`/api/vines/${mine.vine.positionId}`)).status).toBe(404);
     expect((await stranger.fetch(`/api/vines?block=${block.id}&row=1&position=1`)).status).toBe(404);
     expect((await manager.fetch(`/api/vines?block=${block.id}&row=1&position=99`)).status).toBe(404);
-    expect((await manager.fetch('/api/vines/12345')).status).toBe(404);
+    expect((await manager.fetch('/api/vines/12345')).status).toBe(422);
     const bad = await manager.fetch(`/api/vines?block=${block.id}&row=first&position=1`);
     expect(bad.status).toBe(422);
     expect(Object.keys((await bad.json()).error.fields)).toEqual(['row']);

@@ -160,10 +160,10 @@ describe('GET /api/photos/:id', () => {
     expect((await new Client().fetch(`/api/photos/${photos[0]}?size=thumb`)).status).toBe(401);
   });
 
-  it('answers 404 for a photo still pending or an id that is not one, 422 for an unknown size', async () => {
+  it('answers 404 for a photo still pending, 422 for an id that is not one or an unknown size', async () => {
     const pending = await testDb()('photos').where({ observation_id: obs.trunk, status: 'pending' }).first();
     expect((await manager.fetch(`/api/photos/${pending.id}`)).status).toBe(404);
-    expect((await manager.fetch('/api/photos/latest')).status).toBe(404);
+    expect((await manager.fetch('/api/photos/latest')).status).toBe(422);
     const res = await manager.fetch(`/api/photos/${photos[0]}?size=huge`);
     expect(res.status).toBe(422);
     expect(Object.keys((await res.json()).error.fields)).toEqual(['size']);

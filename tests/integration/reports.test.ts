@@ -274,7 +274,7 @@ describe('GET /api/reports/blocks/:blockId', () => {
     const other = await makeTeam();
     const otherBlock = await makeBlock(other.org.id);
     expect((await manager.fetch(`/api/reports/blocks/${otherBlock.id}`)).status).toBe(404);
-    expect((await manager.fetch('/api/reports/blocks/not-a-uuid')).status).toBe(404);
+    expect((await manager.fetch('/api/reports/blocks/not-a-uuid')).status).toBe(422);
     expect((await new Client().fetch(`/api/reports/blocks/${block.id}`)).status).toBe(401);
     for (const [query, field] of [
       ['clusterWeightG=-1', 'clusterWeightG'],

@@ -80,7 +80,7 @@ describe('mail that failed or may not have arrived', () => {
     const bad = await manager.json(`/api/notifications/undelivered/${id}`, 'POST', { action: 'shred' });
     expect(bad.status).toBe(422);
     expect((await bad.json()).error.fields.action).toEqual(['Must be resend or dismiss']);
-    expect((await manager.json('/api/notifications/undelivered/not-an-id', 'POST', { action: 'dismiss' })).status).toBe(404);
+    expect((await manager.json('/api/notifications/undelivered/not-an-id', 'POST', { action: 'dismiss' })).status).toBe(422);
 
     expect((await manager.json(`/api/notifications/undelivered/${id}`, 'POST', { action: 'dismiss' })).status).toBe(200);
     const row = await testDb()('mail_outbox').where({ id }).first('status', 'dismissed_by');

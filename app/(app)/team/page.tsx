@@ -1,5 +1,6 @@
 import type { Metadata } from 'next';
 import { InviteForm } from '@/components/layout/invite-form';
+import { OpenInvitations } from '@/components/layout/open-invitations';
 import { UndeliveredMail } from '@/components/layout/undelivered-mail';
 import { memberForPage } from '@/lib/server/auth/guard';
 import { db } from '@/lib/server/db';
@@ -47,13 +48,7 @@ export default async function TeamPage() {
       {invitations.length > 0 && (
         <section>
           <h2 className="mb-2 text-xl font-bold">Open invitations</h2>
-          <ul className="flex flex-col gap-1">
-            {invitations.map((i) => (
-              <li key={i.id}>
-                {i.email} as <strong>{i.role}</strong>, expires {i.expires_at.toISOString().slice(0, 10)}
-              </li>
-            ))}
-          </ul>
+          <OpenInvitations items={invitations.map((i) => ({ id: i.id, email: i.email, role: i.role, expiresOn: i.expires_at.toISOString().slice(0, 10) }))} />
         </section>
       )}
       {undelivered.length > 0 && (

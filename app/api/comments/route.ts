@@ -4,10 +4,9 @@ import { addComment, listThread } from '@/lib/server/services/comments';
 import { commentListQuerySchema, commentSchema } from '@/lib/validation/comment';
 
 /** GET /api/comments?subject=observation|vine|task&id= — the thread, oldest first. */
-export const GET = memberRoute({}, async (member, { req }) => {
-  const q = commentListQuerySchema.parse(Object.fromEntries(req.nextUrl.searchParams));
-  return { comments: await listThread(member, q.subject, q.id) };
-});
+export const GET = memberRoute({ query: commentListQuerySchema }, async (member, { query }) => ({
+  comments: await listThread(member, query.subject, query.id),
+}));
 
 /** POST /api/comments `{ subject, subjectId, body }` — "@Name" or "@e-mail" of a member mentions them. */
 export const POST = memberRoute({ permission: 'comment', body: commentSchema }, async (member, { body }) =>

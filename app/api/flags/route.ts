@@ -4,7 +4,6 @@ import { listFlags } from '@/lib/server/queries/flags';
 import { flagListQuerySchema } from '@/lib/validation/flag';
 
 /** GET /api/flags?block=&status=open|closed|all&untasked=1 — the organisation's flags, by block, row and vine. */
-export const GET = memberRoute({}, async (member, { req }) => {
-  const query = flagListQuerySchema.parse(Object.fromEntries(req.nextUrl.searchParams));
-  return { flags: await listFlags(db(), member.organisationId, query) };
-});
+export const GET = memberRoute({ query: flagListQuerySchema }, async (member, { query }) => ({
+  flags: await listFlags(db(), member.organisationId, query),
+}));

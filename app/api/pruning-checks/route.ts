@@ -3,4 +3,4 @@ import { pruningCheckReport } from '@/lib/server/services/tasks';
 import { pruningCheckQuerySchema } from '@/lib/validation/task';
 
 /** GET /api/pruning-checks?block=&from=&to= — each pruner's deviation over the checked vines. */
-export const GET = memberRoute({}, async (member, { req }) => pruningCheckReport(member, pruningCheckQuerySchema.parse(Object.fromEntries(req.nextUrl.searchParams))));
+export const GET = memberRoute({ query: pruningCheckQuerySchema }, async (member, { query }) => pruningCheckReport(member, query));

@@ -4,10 +4,11 @@ import { AppError } from '@/lib/server/errors';
 import { memberRoute } from '@/lib/server/http';
 import { getBlock } from '@/lib/server/queries/blocks';
 import { insertSpray, listSprays } from '@/lib/server/queries/sprays';
+import { blockQuery } from '@/lib/validation/params';
 import { spraySchema } from '@/lib/validation/spray';
 
-export const GET = memberRoute({}, async (member, { req }) => ({
-  sprays: await listSprays(db(), member.organisationId, { blockId: req.nextUrl.searchParams.get('blockId') ?? undefined }),
+export const GET = memberRoute({ query: blockQuery }, async (member, { query }) => ({
+  sprays: await listSprays(db(), member.organisationId, { blockId: query.blockId }),
 }));
 
 export const POST = memberRoute({ permission: 'manage-organisation', body: spraySchema }, async (member, { body }) => {

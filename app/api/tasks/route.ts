@@ -9,8 +9,7 @@ import { createTasksSchema, taskListQuerySchema } from '@/lib/validation/task';
  * GET /api/tasks?status=&assignee=me|<id>&block=&priority=&items=1 — tasks with their progress, and
  * progress per block. `assignee=me&items=1` is the phone's copy for working offline.
  */
-export const GET = memberRoute({}, async (member, { req }) => {
-  const q = taskListQuerySchema.parse(Object.fromEntries(req.nextUrl.searchParams));
+export const GET = memberRoute({ query: taskListQuerySchema }, async (member, { query: q }) => {
   const tasks = await listTasks(db(), member.organisationId, {
     status: q.status,
     assigneeId: q.assignee === 'me' ? member.userId : q.assignee,

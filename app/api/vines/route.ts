@@ -12,9 +12,7 @@ const addressSchema = z.strictObject({
 });
 
 /** GET /api/vines?block=&row=&position= — the same panel, found by the address the grid knows. */
-export const GET = memberRoute({}, async (member, { req }) => {
-  const search = req.nextUrl.searchParams;
-  const address = addressSchema.parse({ block: search.get('block') ?? undefined, row: search.get('row') ?? undefined, position: search.get('position') ?? undefined });
+export const GET = memberRoute({ query: addressSchema }, async (member, { query: address }) => {
   const vine = await findVineByAddress(db(), member.organisationId, address.block, address.row, address.position);
   if (!vine) throw new AppError('not-found', 'There is no vine at that address in your organisation.');
   return vinePanel(member, vine);

@@ -12,6 +12,8 @@ export interface InvitationRow {
   expires_at: Date;
   accepted_at: Date | null;
   accepted_by: string | null;
+  revoked_at: Date | null;
+  revoked_by: string | null;
   created_at: Date;
 }
 
@@ -52,7 +54,33 @@ export function listOpenInvitations(db: Db, organisationId: string) {
   return db<InvitationRow>('invitations')
     .where({ organisation_id: organisationId })
     .whereNull('accepted_at')
+    .whereNull('revoked_at')
     .where('expires_at', '>', db.fn.now())
     .orderBy('created_at', 'desc')
     .select('id', 'email', 'role', 'expires_at', 'created_at');
+}
+
+/**
+ * Serialises one inviter's invitations for the rest of the transaction, so two at once cannot both
+ * slip under the daily allowance.
+ */
+export async function lockInviter(db: Db, userId: string) {
+  await db.raw('select pg_advisory_xact_lock(hashtext(?))', [`invitations:${userId}`]);
+}
+
+/** How many invitations a person sent since a moment (revoked ones included), and the oldest of them. */
+export async function countInvitationsSince(db: Db, userId: string, since: Date) {
+  const row = await db('invitations')
+    .where({ invited_by: userId })
+    .where('created_at', '>', since)
+    .first<{ count: string; oldest: Date | null }>(db.raw('count(*) as count'), db.raw('min(created_at) as oldest'));
+  return { count: Number(row?.count ?? 0), oldest: row?.oldest ?? null };
+}
+
+export function getInvitationForUpdate(db: Db, organisationId: string, id: string) {
+  return db<InvitationRow>('invitations').where({ id, organisation_id: organisationId }).forUpdate().first();
+}
+
+export async function markInvitationRevoked(db: Db, id: string, userId: string) {
+  await db('invitations').where({ id }).update({ revoked_at: db.fn.now(), revoked_by: userId });
 }

@@ -54,12 +54,14 @@ interface Notice {
 function render(n: Notice): OutboxInsert {
   const settings = appLink('/settings/notifications');
   const unsubscribe = n.digest ? appLink(`/unsubscribe?token=${encodeURIComponent(unsubscribeToken(n.to.id))}`) : undefined;
-  const mail = linkMail({ to: n.to.email, subject: n.subject, intro: n.intro, action: n.action, url: appLink(n.path) });
-  const footerText = `Choose which mails you get: ${settings}${unsubscribe ? `\nStop the daily digest: ${unsubscribe}` : ''}`;
-  const footerHtml =
-    `<p style="color:#555;font-size:13px"><a href="${escape(settings)}">Choose which mails you get</a>` +
-    (unsubscribe ? ` · <a href="${escape(unsubscribe)}">Stop the daily digest</a>` : '') +
-    '</p>';
+  const footer = {
+    text: `Choose which mails you get: ${settings}${unsubscribe ? `\nStop the daily digest: ${unsubscribe}` : ''}`,
+    html:
+      `<p style="color:#555;font-size:13px"><a href="${escape(settings)}">Choose which mails you get</a>` +
+      (unsubscribe ? ` · <a href="${escape(unsubscribe)}">Stop the daily digest</a>` : '') +
+      '</p>',
+  };
+  const mail = linkMail({ to: n.to.email, subject: n.subject, intro: n.intro, action: n.action, url: appLink(n.path), footer });
   const headers: Record<string, string> = {};
   if (unsubscribe) {
     headers['List-Unsubscribe'] = `<${appLink(`/api/notifications/unsubscribe?token=${encodeURIComponent(unsubscribeToken(n.to.id))}`)}>`;
@@ -72,8 +74,8 @@ function render(n: Notice): OutboxInsert {
     kind: n.kind,
     dedupe_key: n.key,
     subject: n.subject,
-    text_body: `${mail.text}\n\n${footerText}`,
-    html_body: (mail.html ?? '').replace(escape(n.intro), escape(n.intro).replace(/\n/g, '<br>')).replace(/<\/div>$/, `${footerHtml}</div>`),
+    text_body: mail.text,
+    html_body: mail.html ?? '',
     headers,
   };
 }

@@ -1,15 +1,16 @@
 import { NextResponse } from 'next/server';
-import { isUuid, parseGridFilters } from '@/lib/grid/filters';
+import { parseGridFilters } from '@/lib/grid/filters';
 import { summariseGrid } from '@/lib/grid/summary';
 import { db } from '@/lib/server/db';
 import { AppError } from '@/lib/server/errors';
 import { memberRoute } from '@/lib/server/http';
 import { getBlock } from '@/lib/server/queries/blocks';
 import { loadGrid } from '@/lib/server/queries/grid';
+import { blockIdParams } from '@/lib/validation/params';
 
 /** GET /api/grid/:blockId?kind=a,b&from=&to=&by=&status=open|closed|all&flagged=1 — the block's row grid and its summary. */
-export const GET = memberRoute({}, async (member, { params, req }) => {
-  const block = isUuid(params.blockId) ? await getBlock(db(), member.organisationId, params.blockId) : undefined;
+export const GET = memberRoute({ params: blockIdParams }, async (member, { params, req }) => {
+  const block = await getBlock(db(), member.organisationId, params.blockId);
   if (!block) throw new AppError('not-found', 'There is no such block in your organisation.');
   const filters = parseGridFilters(req.nextUrl.searchParams);
   const started = performance.now();

@@ -1,8 +1,9 @@
 import { memberRoute } from '@/lib/server/http';
+import { idParams } from '@/lib/validation/params';
 import { removeMeasurement } from '@/lib/server/services/reports';
 
 /** DELETE /api/measurements/:id — managers remove any entry, others their own. */
-export const DELETE = memberRoute({ permission: 'edit-own-observation' }, async (member, { params }) => {
-  await removeMeasurement(member, String(params.id));
+export const DELETE = memberRoute({ permission: 'edit-own-observation', params: idParams('an entry') }, async (member, { params }) => {
+  await removeMeasurement(member, params.id);
   return new Response(null, { status: 204 });
 });

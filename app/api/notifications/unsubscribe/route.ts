@@ -1,5 +1,6 @@
 import { db } from '@/lib/server/db';
 import { AppError } from '@/lib/server/errors';
+import { JSON_TYPE, mediaType, readLimitedText } from '@/lib/server/boundary';
 import { publicRoute } from '@/lib/server/http';
 import { savePreferences } from '@/lib/server/queries/notifications';
 import { verifyUnsubscribeToken } from '@/lib/server/services/notifications';
@@ -8,13 +9,17 @@ import { unsubscribeSchema } from '@/lib/validation/notification';
 /**
  * POST /api/notifications/unsubscribe — turns the daily digest off for the person the signed token
  * names, without signing in. The token comes in the body (the page) or the query (mail clients'
- * one-click unsubscribe, which posts to the List-Unsubscribe address).
+ * one-click unsubscribe, which posts `List-Unsubscribe=One-Click` as a form to the
+ * List-Unsubscribe address, RFC 8058).
  */
-export const POST = publicRoute({}, async ({ req }) => {
-  const text = await req.text();
+const ACCEPTS = [JSON_TYPE, 'application/x-www-form-urlencoded', 'multipart/form-data'];
+const MAX_BYTES = 4096;
+
+export const POST = publicRoute({ accepts: ACCEPTS }, async ({ req }) => {
+  const text = await readLimitedText(req, MAX_BYTES);
   let fromBody: unknown;
   try {
-    fromBody = text.trim().startsWith('{') ? JSON.parse(text).token : undefined;
+    fromBody = mediaType(req) === JSON_TYPE && text.trim() ? (JSON.parse(text) as { token?: unknown } | null)?.token : undefined;
   } catch {
     throw new AppError('bad-request', 'The request body is not valid JSON.');
   }

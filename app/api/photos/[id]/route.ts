@@ -1,11 +1,11 @@
 import { NextResponse } from 'next/server';
 import { z } from 'zod';
-import { isUuid } from '@/lib/grid/filters';
 import { db } from '@/lib/server/db';
 import { AppError } from '@/lib/server/errors';
 import { memberRoute } from '@/lib/server/http';
 import { getStoredPhoto } from '@/lib/server/queries/photo-log';
 import { presignGet } from '@/lib/server/storage';
+import { idParams } from '@/lib/validation/params';
 
 const sizeSchema = z.strictObject({ size: z.enum(['thumb', 'full'], 'Must be thumb or full').default('full') });
 
@@ -13,8 +13,8 @@ const sizeSchema = z.strictObject({ size: z.enum(['thumb', 'full'], 'Must be thu
 const LINK_SECONDS = 120;
 
 /** GET /api/photos/:id?size=thumb|full — after the guard, a redirect to a short-lived link to the private object. */
-export const GET = memberRoute({}, async (member, { params, req }) => {
-  const photo = isUuid(params.id) ? await getStoredPhoto(db(), member.organisationId, params.id) : undefined;
+export const GET = memberRoute({ params: idParams('a photo') }, async (member, { params, req }) => {
+  const photo = await getStoredPhoto(db(), member.organisationId, params.id);
   if (!photo) throw new AppError('not-found', 'There is no such photo in your organisation.');
   const { size } = sizeSchema.parse({ size: req.nextUrl.searchParams.get('size') ?? undefined });
   const key = size === 'thumb' && photo.thumbKey ? photo.thumbKey : photo.objectKey;

@@ -1,7 +1,8 @@
 import { memberRoute } from '@/lib/server/http';
+import { idParams } from '@/lib/validation/params';
 import { setArchived } from '@/lib/server/services/blocks';
 
 // Archived blocks leave the lists and the field app but keep their history; restore brings them back.
-export const POST = memberRoute({ permission: 'manage-organisation' }, async (member, { params }) => ({
-  block: await setArchived(member, String(params.id), true),
+export const POST = memberRoute({ permission: 'manage-organisation', params: idParams('a block') }, async (member, { params }) => ({
+  block: await setArchived(member, params.id, true),
 }));

@@ -1,8 +1,9 @@
-import type { NextRequest } from 'next/server';
+import { readLimitedText } from '@/lib/server/boundary';
 import { AppError } from '@/lib/server/errors';
 import { memberRoute } from '@/lib/server/http';
 import { importLayout } from '@/lib/server/services/blocks';
 import { LAYOUT_LIMITS } from '@/lib/validation/block';
+import { idParams } from '@/lib/validation/params';
 
 const megabytes = (bytes: number) => `${Number((bytes / 1024 / 1024).toFixed(1))} MB`;
 
@@ -14,35 +15,17 @@ function tooLarge(bytes: number, exact: boolean) {
   );
 }
 
-/** Reads the CSV body, refusing it as soon as it passes the limit rather than after buffering it all. */
-async function readCsv(req: NextRequest) {
-  const limit = LAYOUT_LIMITS.maxCsvBytes;
-  const declared = Number(req.headers.get('content-length') ?? 0);
-  if (declared > limit) throw tooLarge(declared, true);
-  if (!req.body) return '';
-  const reader = req.body.getReader();
-  const chunks: Uint8Array[] = [];
-  let total = 0;
-  for (;;) {
-    const { done, value } = await reader.read();
-    if (done) break;
-    total += value.byteLength;
-    if (total > limit) {
-      await reader.cancel();
-      throw tooLarge(total, false);
-    }
-    chunks.push(value);
-  }
-  return Buffer.concat(chunks).toString('utf8');
-}
-
 /**
  * `POST /api/blocks/:id/layout?mode=preview` checks a layout CSV (the request body, text/csv) and
  * answers what it would change; `?mode=apply` makes the change in one transaction.
  */
-export const POST = memberRoute({ permission: 'manage-organisation' }, async (member, { params, req }) => {
-  const mode = req.nextUrl.searchParams.get('mode') ?? 'preview';
-  if (mode !== 'preview' && mode !== 'apply') throw new AppError('bad-request', 'mode must be preview or apply.');
-  const csv = await readCsv(req);
-  return { summary: await importLayout(member, String(params.id), csv, mode === 'apply') };
-});
+export const POST = memberRoute(
+  { permission: 'manage-organisation', params: idParams('a block'), accepts: ['text/csv'] },
+  async (member, { params, req }) => {
+    const mode = req.nextUrl.searchParams.get('mode') ?? 'preview';
+    if (mode !== 'preview' && mode !== 'apply') throw new AppError('bad-request', 'mode must be preview or apply.');
+    // Refused as soon as it passes the limit rather than after buffering it all.
+    const csv = await readLimitedText(req, LAYOUT_LIMITS.maxCsvBytes, tooLarge);
+    return { summary: await importLayout(member, params.id, csv, mode === 'apply') };
+  },
+);

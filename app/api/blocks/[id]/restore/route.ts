@@ -1,6 +1,7 @@
 import { memberRoute } from '@/lib/server/http';
+import { idParams } from '@/lib/validation/params';
 import { setArchived } from '@/lib/server/services/blocks';
 
-export const POST = memberRoute({ permission: 'manage-organisation' }, async (member, { params }) => ({
-  block: await setArchived(member, String(params.id), false),
+export const POST = memberRoute({ permission: 'manage-organisation', params: idParams('a block') }, async (member, { params }) => ({
+  block: await setArchived(member, params.id, false),
 }));

@@ -5,11 +5,11 @@ import { getBlock } from '@/lib/server/queries/blocks';
 import { getFieldLayout } from '@/lib/server/queries/field';
 import { listSamplingPlans } from '@/lib/server/queries/sampling-plans';
 import { listRecentSprays } from '@/lib/server/queries/sprays';
+import { blockIdParams } from '@/lib/validation/params';
 
 /** The block as the phone walks it; the service worker keeps the last answer for offline use. */
-export const GET = memberRoute({}, async (member, { params }) => {
-  const blockId = String(params.blockId);
-  const block = await getBlock(db(), member.organisationId, blockId).catch(() => undefined);
+export const GET = memberRoute({ params: blockIdParams }, async (member, { params }) => {
+  const block = await getBlock(db(), member.organisationId, params.blockId);
   if (!block) throw new AppError('not-found', 'No such block in your organisation.');
   const [layout, sprays, plans] = await Promise.all([
     getFieldLayout(db(), block.id),

@@ -1,7 +1,8 @@
 import { memberRoute } from '@/lib/server/http';
 import { numberParam, setRowVineCount } from '@/lib/server/services/blocks';
 import { rowVineCountSchema } from '@/lib/validation/block';
+import { blockRowParams } from '@/lib/validation/params';
 
-export const PATCH = memberRoute({ permission: 'manage-organisation', body: rowVineCountSchema }, async (member, { params, body }) =>
-  setRowVineCount(member, String(params.id), numberParam(params.row, 'row'), body.vineCount),
+export const PATCH = memberRoute({ permission: 'manage-organisation', body: rowVineCountSchema, params: blockRowParams }, async (member, { params, body }) =>
+  setRowVineCount(member, params.id, numberParam(params.row, 'row'), body.vineCount),
 );
