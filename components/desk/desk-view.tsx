@@ -190,7 +190,9 @@ function AdvisorOrganisations({ organisations }: { organisations: NonNullable<De
       <ul className="flex flex-col gap-3">
         {organisations.map((o) => (
           <li key={o.organisationId} data-testid="desk-organisation" className="rounded-lg border-2 border-line p-3">
-            <p className="text-lg font-bold">{o.organisationName}</p>
+            <p className="text-lg font-bold" data-testid="desk-organisation-name">
+              {o.organisationName}
+            </p>
             <p>
               <strong className="text-2xl">{formatCount(o.findings)}</strong> new {o.findings === 1 ? 'finding' : 'findings'}
               {o.actNow ? `, ${formatCount(o.actNow)} act now` : ''}
