@@ -44,7 +44,8 @@ function Reentry({ sprays }: { sprays: Desk['reentry'] }) {
 
 const SINCE: Record<DeskFindings['basis'], string> = {
   'last-look': 'since your last look',
-  'first-look': 'in the past week (your first look at this Desk)',
+  'first-look': 'in the week before your first look at this Desk',
+  'marked-seen': 'since you marked them all as seen',
   'last-comment': 'since your last comment here',
   'season-start': 'this season (you have not commented here yet)',
 };
@@ -80,7 +81,7 @@ function Findings({ findings, canMarkSeen }: { findings: DeskFindings; canMarkSe
                 {b.vines.map((v) => (
                   <li key={`${v.row}:${v.position}`}>
                     <Link href={`/grid/${b.blockId}?row=${v.row}&position=${v.position}`} className="inline-flex min-h-touch items-center gap-2 underline">
-                      <span className={v.severity === 3 ? 'rounded bg-alarm px-2 font-bold text-white' : 'rounded border-2 border-bark-faint px-2 font-bold'}>
+                      <span className={v.severity === 3 ? 'shrink-0 whitespace-nowrap rounded bg-alarm px-2 font-bold text-white' : 'shrink-0 whitespace-nowrap rounded border-2 border-bark-faint px-2 font-bold'}>
                         {SEVERITY_LABELS[v.severity]}
                       </span>
                       {vineAddress(v.row, v.position, b.vinesPerPanel)}: {kindLabel(v.kind)}
@@ -269,7 +270,7 @@ export function DeskView({ desk, name, progress, now = new Date() }: { desk: Des
         </p>
       </section>
       {walker && <FieldFirst desk={desk} />}
-      <div className="grid gap-4 lg:grid-cols-2">
+      <div className="grid items-start gap-4 lg:grid-cols-2">
         <Reentry sprays={desk.reentry} />
         {desk.advisorOrganisations && <AdvisorOrganisations organisations={desk.advisorOrganisations} />}
         {desk.findings && <Findings findings={desk.findings} canMarkSeen={manager} />}

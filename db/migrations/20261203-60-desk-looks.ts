@@ -13,8 +13,11 @@ export async function up(knex: Knex) {
     t.uuid('organisation_id').notNullable().references('organisations.id').onDelete('CASCADE');
     t.timestamp('looked_at', { useTz: true }).notNullable();
     t.timestamp('since', { useTz: true }).notNullable();
+    // What `since` is: the first look's week before, the look before, or a "mark all as seen".
+    t.text('since_basis').notNullable();
     t.primary(['user_id', 'organisation_id']);
   });
+  await knex.raw(`alter table desk_looks add constraint desk_looks_basis_check check (since_basis in ('first-look', 'last-look', 'marked-seen'))`);
   await knex.raw(`create index observations_findings_received_idx on observations (organisation_id, received_at)
     include (block_id, row_number, position, kind, severity, status, observed_at) where deleted_at is null and severity >= 1`);
   await knex.raw('create index comments_author_idx on comments (author_id, organisation_id, created_at)');

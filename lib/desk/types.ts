@@ -61,7 +61,7 @@ export interface DeskFindings {
   /** Received after this moment. */
   since: string;
   /** What the window starts at: the person's last look at the Desk, or (advisors) their last comment. */
-  basis: 'last-look' | 'first-look' | 'last-comment' | 'season-start';
+  basis: 'last-look' | 'first-look' | 'marked-seen' | 'last-comment' | 'season-start';
   blocks: DeskFindingBlock[];
 }
 

@@ -191,6 +191,8 @@ describe('new findings since the person last looked', () => {
     expect(first.findings.blocks).toHaveLength(1);
     expect(first.findings.blocks[0]).toMatchObject({ blockId: north.id, actNow: 0, actThisSeason: 1, watch: 0, findings: 1 });
     expect(first.findings.blocks[0].vines).toEqual([expect.objectContaining({ row: 1, position: 2, severity: 2 })]);
+    // A reload in the same sitting is still the first look's week.
+    expect((await desk(client)).findings).toEqual(first.findings);
 
     // The sitting ends: the last look is two hours old.
     await db('desk_looks').where({ user_id: looker.id, organisation_id: estate.id }).update({ looked_at: ago(2) });
@@ -218,7 +220,8 @@ describe('new findings since the person last looked', () => {
 
     // "Mark all as seen" empties it; what arrives after shows.
     expect((await client.fetch('/api/desk/seen', { method: 'POST' })).status).toBe(200);
-    expect((await desk(client)).findings.blocks).toEqual([]);
+    const seen = (await desk(client)).findings;
+    expect(seen).toMatchObject({ basis: 'marked-seen', blocks: [] });
     await new Promise((r) => setTimeout(r, 20));
     await observe(estate, south, 1, 5, { severity: 2, receivedAt: new Date().toISOString() });
     const third = await desk(client);
@@ -310,6 +313,8 @@ describe('the advisor’s Desk', () => {
     await observe(other.org, b1, 1, 2, { severity: 1, observedAt: `${thisYear - 1}-06-01T09:00:00Z`, receivedAt: `${thisYear - 1}-06-01T09:00:00Z` }); // last season
 
     const client = await as(advisor.email);
+    // Working in the team's organisation (without a choice, the first by name would be open).
+    expect((await client.json('/api/organisations/current', 'PUT', { organisationId: team.org.id })).status).toBe(200);
     const mine = await desk(client);
     expect(mine.untaskedFlags).toBeNull();
     expect(mine.undeliveredMail).toBeNull();

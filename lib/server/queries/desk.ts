@@ -15,6 +15,7 @@ export const DESK_FIRST_LOOK_DAYS = 7;
 export interface DeskLook {
   /** What the Desk shows as new was received after this. */
   since: Date;
+  sinceBasis: 'first-look' | 'last-look' | 'marked-seen';
   lookedAt: Date;
 }
 
@@ -25,13 +26,14 @@ export interface DeskLook {
  */
 export async function recordDeskLook(db: Db, userId: string, organisationId: string): Promise<DeskLook> {
   const { rows } = await db.raw<{ rows: DeskLook[] }>(
-    `insert into desk_looks as l (user_id, organisation_id, looked_at, since)
-     values (?, ?, now(), now() - ? * interval '1 day')
+    `insert into desk_looks as l (user_id, organisation_id, looked_at, since, since_basis)
+     values (?, ?, now(), now() - ? * interval '1 day', 'first-look')
      on conflict (user_id, organisation_id) do update set
        since = case when l.looked_at < now() - ? * interval '1 minute' then l.looked_at else l.since end,
+       since_basis = case when l.looked_at < now() - ? * interval '1 minute' then 'last-look' else l.since_basis end,
        looked_at = now()
-     returning since, looked_at as "lookedAt"`,
-    [userId, organisationId, DESK_FIRST_LOOK_DAYS, DESK_SITTING_MINUTES],
+     returning since, since_basis as "sinceBasis", looked_at as "lookedAt"`,
+    [userId, organisationId, DESK_FIRST_LOOK_DAYS, DESK_SITTING_MINUTES, DESK_SITTING_MINUTES],
   );
   return rows[0]!;
 }
@@ -39,9 +41,9 @@ export async function recordDeskLook(db: Db, userId: string, organisationId: str
 /** "Mark as seen": nothing received until now counts as new any more. */
 export async function markDeskSeen(db: Db, userId: string, organisationId: string): Promise<DeskLook> {
   const { rows } = await db.raw<{ rows: DeskLook[] }>(
-    `insert into desk_looks as l (user_id, organisation_id, looked_at, since) values (?, ?, now(), now())
-     on conflict (user_id, organisation_id) do update set since = now(), looked_at = now()
-     returning since, looked_at as "lookedAt"`,
+    `insert into desk_looks as l (user_id, organisation_id, looked_at, since, since_basis) values (?, ?, now(), now(), 'marked-seen')
+     on conflict (user_id, organisation_id) do update set since = now(), since_basis = 'marked-seen', looked_at = now()
+     returning since, since_basis as "sinceBasis", looked_at as "lookedAt"`,
     [userId, organisationId],
   );
   return rows[0]!;

@@ -42,9 +42,8 @@ const plainBlocks = (blocks: FreshFindingBlock[]) => blocks.map((b) => ({ ...b, 
 
 async function findingsFor(trx: Db, member: Member, seasonFrom: string): Promise<DeskFindings | null> {
   if (can(member.role, 'manage-tasks')) {
-    const existed = await trx('desk_looks').where({ user_id: member.userId, organisation_id: member.organisationId }).first('since');
     const look = await recordDeskLook(trx, member.userId, member.organisationId);
-    return { since: iso(look.since), basis: existed ? 'last-look' : 'first-look', blocks: plainBlocks(await listFreshFindings(trx, member.organisationId, look.since)) };
+    return { since: iso(look.since), basis: look.sinceBasis, blocks: plainBlocks(await listFreshFindings(trx, member.organisationId, look.since)) };
   }
   if (member.role === 'advisor') {
     const last = await getLastCommentAt(trx, member.userId, member.organisationId);
