@@ -271,8 +271,8 @@ export function DeskView({ desk, name, progress, now = new Date() }: { desk: Des
       </section>
       {walker && <FieldFirst desk={desk} />}
       <div className="grid items-start gap-4 lg:grid-cols-2">
-        <Reentry sprays={desk.reentry} />
         {desk.advisorOrganisations && <AdvisorOrganisations organisations={desk.advisorOrganisations} />}
+        <Reentry sprays={desk.reentry} />
         {desk.findings && <Findings findings={desk.findings} canMarkSeen={manager} />}
         {desk.untaskedFlags && <Flags blocks={desk.untaskedFlags} />}
         {desk.overdueTasks && <Overdue tasks={desk.overdueTasks} now={now} />}
