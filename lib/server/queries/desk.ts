@@ -151,18 +151,30 @@ export interface BlockCoverage {
  * record in the season but a missing-vine one, over the standing vines.
  */
 export async function listScoutingCoverage(db: Db, organisationId: string, period: { from: string; to: string }): Promise<BlockCoverage[]> {
+  // One grouped pass over the season's records for all blocks (a subquery per block would run
+  // serially: PostgreSQL does not parallelise correlated subplans; see tests/bench/desk.bench.ts).
   const { rows } = await db.raw<{ rows: BlockCoverage[] }>(
-    `select b.id as "blockId", b.name as "blockName",
-            (select count(*)::int from vine_positions vp where vp.block_id = b.id and vp.status in ('planted', 'replant')) as standing,
-            (select count(*)::int from (
-               select distinct o.row_number, o.position from observations o
-                 join block_rows br on br.block_id = o.block_id and br.row_number = o.row_number
-                where o.organisation_id = b.organisation_id and o.block_id = b.id and o.deleted_at is null
-                  and o.observed_at >= ? and o.observed_at < ? and o.kind <> 'missing-vine') s) as scouted
+    `with vines as (
+       select o.block_id, o.row_number, o.position from observations o
+        where o.organisation_id = ? and o.deleted_at is null and o.observed_at >= ? and o.observed_at < ? and o.kind <> 'missing-vine'
+        group by o.block_id, o.row_number, o.position
+     ), scouted as (
+       select v.block_id, count(*)::int as n from vines v
+        where exists (select 1 from block_rows br where br.block_id = v.block_id and br.row_number = v.row_number)
+        group by v.block_id
+     ), standing as (
+       select vp.block_id, count(*)::int as n from vine_positions vp
+         join blocks b on b.id = vp.block_id and b.organisation_id = ? and b.archived_at is null
+        where vp.status in ('planted', 'replant')
+        group by vp.block_id
+     )
+     select b.id as "blockId", b.name as "blockName", coalesce(st.n, 0) as standing, coalesce(sc.n, 0) as scouted
        from blocks b
+       left join standing st on st.block_id = b.id
+       left join scouted sc on sc.block_id = b.id
       where b.organisation_id = ? and b.archived_at is null
       order by b.name`,
-    [period.from, period.to, organisationId],
+    [organisationId, period.from, period.to, organisationId, organisationId],
   );
   return rows;
 }
