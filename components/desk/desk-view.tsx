@@ -187,7 +187,7 @@ function Mail({ mail }: { mail: NonNullable<Desk['undeliveredMail']> }) {
 
 function AdvisorOrganisations({ organisations }: { organisations: NonNullable<Desk['advisorOrganisations']> }) {
   return (
-    <DeskSection id="organisations" title="Organisations you advise">
+    <DeskSection id="organisations" title="Vineyards you advise">
       <ul className="flex flex-col gap-3">
         {organisations.map((o) => (
           <li key={o.organisationId} data-testid="desk-organisation" className="rounded-lg border-2 border-line p-3">

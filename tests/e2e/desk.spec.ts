@@ -84,6 +84,13 @@ test('a manager sees the morning page’s items and follows an overdue task to i
   await page.goto('/desk');
   await page.getByTestId('desk-findings').getByRole('link', { name: /Row 9, .*Trunk injury/ }).first().click();
   await expect(page).toHaveURL(new RegExp(`/grid/${UPPER_TERRACE}\\?row=9&position=4$`));
+
+  // And the flags not in a task to the flags list, filtered to that block.
+  await page.goto('/desk');
+  await page.getByTestId('desk-flag-block').filter({ hasText: 'Upper Terrace' }).getByRole('link').click();
+  await expect(page).toHaveURL(new RegExp(`/flags\\?block=${UPPER_TERRACE}&untasked=1$`));
+  await expect(page.getByLabel('Not in a task yet')).toBeChecked();
+  await expect(page.getByLabel('Block')).toHaveValue(UPPER_TERRACE);
 });
 
 for (const role of ['manager', 'advisor', 'scout', 'pruner'] as const) {
