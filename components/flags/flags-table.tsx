@@ -49,11 +49,11 @@ const inDays = (days: number) => new Date(Date.now() + days * 24 * 3600 * 1000).
  * The organisation's flags as a table. A manager ticks open flags that no task works yet and makes
  * them into tasks (one per block) for one person.
  */
-export function FlagsTable({ canManage }: { canManage: boolean }) {
+export function FlagsTable({ canManage, initialBlock = '', initialUntasked = false }: { canManage: boolean; initialBlock?: string; initialUntasked?: boolean }) {
   const [status, setStatus] = useState<'open' | 'closed' | 'all'>('open');
-  const [block, setBlock] = useState('');
+  const [block, setBlock] = useState(initialBlock);
   const [reason, setReason] = useState('');
-  const [untasked, setUntasked] = useState(false);
+  const [untasked, setUntasked] = useState(initialUntasked);
   const [sorting, setSorting] = useState<SortingState>([]);
   const [selection, setSelection] = useState<RowSelectionState>({});
   const list = useQuery({

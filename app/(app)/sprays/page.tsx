@@ -50,7 +50,7 @@ export default async function SpraysPage() {
                 {sprays.map((s) => {
                   const active = new Date(s.reentryAt).getTime() > now;
                   return (
-                    <tr key={s.id} className="border-b border-line">
+                    <tr key={s.id} id={`spray-${s.id}`} className="scroll-mt-4 border-b border-line target:bg-cut-tint target:outline-3 target:outline-cut">
                       <td className="py-2 pr-3">{s.blockName}</td>
                       <td className="pr-3">{s.product}</td>
                       <td className="pr-3">{when(new Date(s.appliedAt))}</td>

@@ -35,6 +35,15 @@ export function listRecentSprays(db: Db, organisationId: string, blockId: string
     .orderBy('s.applied_at', 'desc');
 }
 
+/** Every spray whose re-entry interval has not ended yet, soonest to end last: the blocks no one may enter now. */
+export function listSpraysInForce(db: Db, organisationId: string) {
+  return select(db)
+    .where('s.organisation_id', organisationId)
+    .whereNull('b.archived_at')
+    .andWhereRaw(`s.applied_at <= now() and s.applied_at + s.rei_hours * interval '1 hour' > now()`)
+    .orderByRaw(`s.applied_at + s.rei_hours * interval '1 hour' desc`);
+}
+
 export async function insertSpray(
   db: Db,
   s: { organisationId: string; blockId: string; product: string; appliedAt: string; reiHours: number; notes?: string; recordedBy: string },

@@ -120,7 +120,7 @@ function taskQuery(db: Db, organisationId: string) {
 export function listTasks(
   db: Db,
   organisationId: string,
-  f: { status: TaskStatus | 'all'; assigneeId?: string; block?: string; priority?: TaskPriority },
+  f: { status: TaskStatus | 'all'; assigneeId?: string; block?: string; priority?: TaskPriority; overdue?: boolean },
   limit = 1000,
 ): Promise<TaskView[]> {
   const q = taskQuery(db, organisationId)
@@ -130,6 +130,8 @@ export function listTasks(
   if (f.assigneeId) q.andWhere('t.assignee_id', f.assigneeId);
   if (f.block) q.andWhere('t.block_id', f.block);
   if (f.priority) q.andWhere('t.priority', f.priority);
+  // The same rule as the `overdue` column: open, and due before today in UTC.
+  if (f.overdue) q.andWhere('t.status', 'open').andWhereRaw(`t.due_on < (now() at time zone 'utc')::date`);
   return q;
 }
 
