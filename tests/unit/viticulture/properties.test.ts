@@ -63,11 +63,13 @@ describe('invariants', () => {
     );
   });
 
-  it('a thicker cane never gets fewer recommended buds', () => {
+  it('a thicker cane never gets fewer recommended buds, up to the 1/2 in bull cane (eXtension), which gets no extra', () => {
+    const bull = 12.7;
     fc.assert(
-      fc.property(fc.double({ min: 1, max: 30, noNaN: true }), fc.double({ min: 0, max: 10, noNaN: true }), (mm, extra) => {
+      fc.property(fc.double({ min: 1, max: bull, noNaN: true }), fc.double({ min: 0, max: 10, noNaN: true }), (mm, extra) => {
         const thin = recommendedBudsPerCane(mm);
-        const thick = recommendedBudsPerCane(mm + extra);
+        const thick = recommendedBudsPerCane(Math.min(bull, mm + extra));
+        expect(recommendedBudsPerCane(bull + extra + 0.01)).toEqual({ min: 12, max: 14 });
         expect(thick.min).toBeGreaterThanOrEqual(thin.min);
         expect(thick.max).toBeGreaterThanOrEqual(thin.max);
       }),
