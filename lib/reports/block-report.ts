@@ -1007,11 +1007,16 @@ function estimateInputs(input: BlockReportInput, budLoad: BudLoadSection | null,
   return { crop, labour };
 }
 
+/** The inputs the estimate uses and where each came from: counted clusters stand in for their components, a lag-phase weight for the harvest weight. */
 function cropRestsOn(inputs: CropInputs): string {
-  const parts = (Object.entries(inputs) as [string, InputValue | undefined][])
-    .filter(([, v]) => v && v.value !== null)
-    .map(([k, v]) => `${k}: ${v!.source}`);
-  return parts.join('; ');
+  const unused = new Set<string>([
+    ...(inputs.clustersPerVine?.value != null ? ['budsPerVine', 'budbreakPercent', 'clustersPerShoot'] : []),
+    ...(inputs.lagClusterWeightG?.value != null ? ['clusterWeightG'] : []),
+  ]);
+  return (Object.entries(inputs) as [string, InputValue | undefined][])
+    .filter(([k, v]) => v && v.value !== null && !unused.has(k))
+    .map(([k, v]) => `${k}: ${v!.source}`)
+    .join('; ');
 }
 
 export function buildBlockReport(input: BlockReportInput): BlockReport {
