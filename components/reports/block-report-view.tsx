@@ -6,7 +6,7 @@ import { useMemo, useState } from 'react';
 import { kindLabel, vineAddress } from '@/lib/grid/labels';
 import type { BlockReportResponse } from '@/lib/reports/api';
 import { adjustForBudInjury, type BlockReport } from '@/lib/reports/block-report';
-import { cropEstimate, labourEstimate, type InputValue } from '@/lib/reports/estimates';
+import { cropEstimate, cropRestsOn, labourEstimate, type InputValue } from '@/lib/reports/estimates';
 import { formatCount, formatInterval, formatNumber, formatPercent, formatShare, formatWeightKg } from '@/lib/reports/format';
 import { formatAreaM2, formatLengthM, formatLengthMm, type UnitSystem } from '@/lib/units';
 import { reportOptionsSchema } from '@/lib/validation/report';
@@ -62,14 +62,15 @@ export function BlockReportView({ data }: { data: BlockReportResponse }) {
   const read = Object.fromEntries((Object.keys(inputs) as Key[]).map((k) => [k, readInput(k, texts[k], inputs[k])])) as Record<Key, ReturnType<typeof readInput>>;
   const used = (k: Key): InputValue => ({ ...inputs[k], value: read[k].value, source: read[k].entered ? 'entered' : inputs[k].defaultSource });
 
-  const crop = cropEstimate(report.crop.basis, {
+  const cropInputs = {
     budsPerVine: used('budsPerVine'),
     budbreakPercent: used('budbreakPercent'),
     clustersPerShoot: used('clustersPerShoot'),
     clusterWeightG: used('clusterWeightG'),
     clustersPerVine: used('clustersPerVine'),
     lagClusterWeightG: used('lagClusterWeightG'),
-  });
+  };
+  const crop = cropEstimate(report.crop.basis, cropInputs);
   const labour = labourEstimate(report.labour.basis, { minutesPerVine: used('minutesPerVine'), hourlyCost: used('hourlyCost') });
   const adjusted = report.budInjury ? adjustForBudInjury(read.budTarget.value, report.budInjury.kill.value!) : null;
 
@@ -161,10 +162,10 @@ export function BlockReportView({ data }: { data: BlockReportResponse }) {
           <EstimateInput id="budbreakPercent" label="Budbreak" unit="%" text={texts.budbreakPercent} error={read.budbreakPercent.error} input={inputs.budbreakPercent} onChange={(t) => change('budbreakPercent', t)} />
           <EstimateInput id="clustersPerShoot" label="Clusters per shoot" text={texts.clustersPerShoot} error={read.clustersPerShoot.error} input={inputs.clustersPerShoot} onChange={(t) => change('clustersPerShoot', t)} />
           <EstimateInput id="clusterWeightG" label="Cluster weight" unit="g" text={texts.clusterWeightG} error={read.clusterWeightG.error} input={inputs.clusterWeightG} onChange={(t) => change('clusterWeightG', t)} />
-          <EstimateInput id="clustersPerVine" label="Clusters counted per vine (replaces buds × budbreak × clusters per shoot)" text={texts.clustersPerVine} error={read.clustersPerVine.error} input={inputs.clustersPerVine} onChange={(t) => change('clustersPerVine', t)} />
+          <EstimateInput id="clustersPerVine" label="Clusters counted per vine (in place of buds × budbreak × clusters a shoot)" text={texts.clustersPerVine} error={read.clustersPerVine.error} input={inputs.clustersPerVine} onChange={(t) => change('clustersPerVine', t)} />
           <EstimateInput
             id="lagClusterWeightG"
-            label={`Cluster weight at lag phase (× ${formatNumber(report.crop.basis.lagPhaseMultiplier ?? 2, 2)} for harvest)`}
+            label={`Weight of a cluster at lag phase (× ${formatNumber(report.crop.basis.lagPhaseMultiplier ?? 2, 2)} for harvest)`}
             unit="g"
             text={texts.lagClusterWeightG}
             error={read.lagClusterWeightG.error}
@@ -179,7 +180,7 @@ export function BlockReportView({ data }: { data: BlockReportResponse }) {
           <PrintedInput label="Clusters per shoot" value={read.clustersPerShoot.value} source={used('clustersPerShoot').source} />
           <PrintedInput label="Cluster weight" unit="g" value={read.clusterWeightG.value} source={used('clusterWeightG').source} />
           {read.clustersPerVine.value !== null && <PrintedInput label="Clusters per vine" value={read.clustersPerVine.value} source={used('clustersPerVine').source} />}
-          {read.lagClusterWeightG.value !== null && <PrintedInput label="Lag-phase cluster weight" unit="g" value={read.lagClusterWeightG.value} source={used('lagClusterWeightG').source} />}
+          {read.lagClusterWeightG.value !== null && <PrintedInput label="Weight of a cluster at lag phase" unit="g" value={read.lagClusterWeightG.value} source={used('lagClusterWeightG').source} />}
         </ul>
         <p className="print:hidden">
           Bearing vines: <strong>{formatCount(report.crop.basis.vines)}</strong> ({report.crop.basis.vinesSource}).
@@ -199,7 +200,7 @@ export function BlockReportView({ data }: { data: BlockReportResponse }) {
           )}
           <How how={crop.how} from={`estimateCropKg, then ${units === 'metric' ? 'cropTonnesPerHa' : 'cropShortTonsPerAcre'} over ${formatAreaM2(report.block.areaM2, units)} of planted slots. Estimates are often 30% off; within 10% is a good one.`} />
           <p className="text-sm" data-testid="crop-rests-on">
-            Rests on: {report.crop.restsOn}.
+            Rests on: {cropRestsOn(cropInputs)}.
           </p>
         </div>
         <p data-testid="crop-sampling">

@@ -51,6 +51,7 @@ import type { ReportOptions } from '@/lib/validation/report';
 import { kindLabel } from '@/lib/grid/labels';
 import {
   cropEstimate,
+  cropRestsOn,
   defaultMinutesPerVine,
   labourEstimate,
   type CropBasis,
@@ -1005,18 +1006,6 @@ function estimateInputs(input: BlockReportInput, budLoad: BudLoadSection | null,
     hourlyCost: inputValue(o.hourlyCost, s.labour.hourlyCost, 'placeholder (settings.labour.hourlyCost): enter your crew rate'),
   };
   return { crop, labour };
-}
-
-/** The inputs the estimate uses and where each came from: counted clusters stand in for their components, a lag-phase weight for the harvest weight. */
-function cropRestsOn(inputs: CropInputs): string {
-  const unused = new Set<string>([
-    ...(inputs.clustersPerVine?.value != null ? ['budsPerVine', 'budbreakPercent', 'clustersPerShoot'] : []),
-    ...(inputs.lagClusterWeightG?.value != null ? ['clusterWeightG'] : []),
-  ]);
-  return (Object.entries(inputs) as [string, InputValue | undefined][])
-    .filter(([k, v]) => v && v.value !== null && !unused.has(k))
-    .map(([k, v]) => `${k}: ${v!.source}`)
-    .join('; ');
 }
 
 export function buildBlockReport(input: BlockReportInput): BlockReport {

@@ -99,6 +99,18 @@ export function cropEstimate(basis: CropBasis, inputs: CropInputs): CropEstimate
   };
 }
 
+/** The inputs the estimate uses and where each came from: counted clusters stand in for their components, a lag-phase weight for the harvest weight. */
+export function cropRestsOn(inputs: CropInputs): string {
+  const unused = new Set<string>([
+    ...(inputs.clustersPerVine?.value != null ? ['budsPerVine', 'budbreakPercent', 'clustersPerShoot'] : []),
+    ...(inputs.lagClusterWeightG?.value != null ? ['clusterWeightG'] : []),
+  ]);
+  return (Object.entries(inputs) as [string, InputValue | undefined][])
+    .filter(([k, v]) => v && v.value !== null && !unused.has(k))
+    .map(([k, v]) => `${k}: ${v!.source}`)
+    .join('; ');
+}
+
 export interface LabourBasis {
   /** Standing vines: every slot with a vine in it gets pruned. */
   vines: number;
