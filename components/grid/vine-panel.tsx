@@ -12,6 +12,7 @@ import { Notice } from '@/components/ui/field';
 import { getJson, type VineObservation, type VinePanelResponse } from '@/lib/grid/api';
 import { encodeCell } from '@/lib/grid/cells';
 import { formatDay, kindLabel, SEVERITY_LABELS, SLOT_LABELS, vineAddress } from '@/lib/grid/labels';
+import { formatNumber } from '@/lib/reports/format';
 import { formatLengthMm } from '@/lib/units';
 import { kgToLb, PLAN_NOTE_CODES, type Severity } from '@/lib/viticulture';
 
@@ -142,6 +143,13 @@ export function VinePanel({ blockId, row, position, onClose }: VinePanelProps) {
                   {data.plan.pruningWeightKg !== null ? ` and ${formatWeightKg(data.plan.pruningWeightKg, data.units)} of prunings` : ''}. Canes kept:{' '}
                   {data.plan.plan.keep.map((i) => `#${i + 1} (${formatLengthMm(data.plan.canes[i]!.baseDiameterMm, data.units)})`).join(', ')}.
                 </p>
+                {data.plan.budLoad && (
+                  <p className={data.plan.budLoad.reading === 'over' ? 'font-bold text-alarm' : 'text-sm'} role={data.plan.budLoad.reading === 'over' ? 'alert' : undefined} data-testid="plan-bud-load">
+                    {data.plan.plan.targetBuds ?? data.plan.plan.totalBuds} buds is {formatNumber(data.plan.budLoad.budsPerFt, 1)} a foot of row; Ohio State&apos;s pruning primer gives 4–6 a foot,{' '}
+                    {data.plan.budLoad.rangePerVine.min}–{data.plan.budLoad.rangePerVine.max} a vine at this spacing
+                    {data.plan.budLoad.reading === 'over' ? ': check the prunings’ weight before pruning to it.' : '.'}
+                  </p>
+                )}
                 {data.plan.plan.notes.length > 0 && (
                   <ul className="list-disc pl-5 text-sm">
                     {data.plan.plan.notes.map((n) => (

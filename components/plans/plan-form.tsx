@@ -6,7 +6,7 @@ import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { Button } from '@/components/ui/button';
 import { Field, Input, Notice, Select } from '@/components/ui/field';
-import { detectionSampleSize, sampleSizeForProportion } from '@/lib/viticulture';
+import { DEFAULT_SETTINGS, detectionSampleSize, sampleSizeForMean, sampleSizeForProportion } from '@/lib/viticulture';
 
 interface BlockOption {
   id: string;
@@ -29,6 +29,9 @@ export function PlanForm({ blocks }: { blocks: BlockOption[] }) {
   const block = blocks.find((b) => b.id === form.watch('blockId'));
   const estimate = block ? sampleSizeForProportion(block.vineCount) : undefined;
   const detect = detectionSampleSize(0.05);
+  // A mean yield a vine needs the vines' spread, not a proportion (Wolpert & Vilas, AJEV 1992); the block report has the block's own CV.
+  const { yieldCvPercent, sampleMarginPercent } = DEFAULT_SETTINGS.crop;
+  const forYield = block ? sampleSizeForMean(yieldCvPercent, sampleMarginPercent, 0.95, block.vineCount) : undefined;
   const save = useMutation({
     mutationFn: async (values: Values) => {
       const res = await fetch('/api/sampling-plans', {
@@ -72,6 +75,14 @@ export function PlanForm({ blocks }: { blocks: BlockOption[] }) {
               <button type="button" className="underline" onClick={() => form.setValue('count', estimate)}>
                 {estimate} to estimate a share within ±5% (95% confidence)
               </button>
+            )}
+            {forYield !== undefined && (
+              <>
+                {' · '}
+                <button type="button" className="underline" onClick={() => form.setValue('count', forYield)}>
+                  {forYield} to estimate the mean yield a vine within ±{sampleMarginPercent}% (vine yields varying by {yieldCvPercent}%)
+                </button>
+              </>
             )}
             {' · '}
             <button type="button" className="underline" onClick={() => form.setValue('count', detect)}>

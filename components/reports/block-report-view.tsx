@@ -6,7 +6,7 @@ import { useMemo, useState } from 'react';
 import { kindLabel, vineAddress } from '@/lib/grid/labels';
 import type { BlockReportResponse } from '@/lib/reports/api';
 import { adjustForBudInjury, type BlockReport } from '@/lib/reports/block-report';
-import { cropEstimate, labourEstimate, type InputValue } from '@/lib/reports/estimates';
+import { cropEstimate, cropRestsOn, labourEstimate, type InputValue } from '@/lib/reports/estimates';
 import { formatCount, formatInterval, formatNumber, formatPercent, formatShare, formatWeightKg } from '@/lib/reports/format';
 import { formatAreaM2, formatLengthM, formatLengthMm, type UnitSystem } from '@/lib/units';
 import { reportOptionsSchema } from '@/lib/validation/report';
@@ -15,13 +15,15 @@ import { EstimateInput, PrintedInput } from './estimate-input';
 import { FigureCard, How, ReportTable, Section, StockTable } from './figure';
 import { ReportToolbar } from './report-toolbar';
 
-type Key = 'budsPerVine' | 'budbreakPercent' | 'clustersPerShoot' | 'clusterWeightG' | 'minutesPerVine' | 'hourlyCost' | 'budTarget';
+type Key = 'budsPerVine' | 'budbreakPercent' | 'clustersPerShoot' | 'clusterWeightG' | 'clustersPerVine' | 'lagClusterWeightG' | 'minutesPerVine' | 'hourlyCost' | 'budTarget';
+
+const NO_INPUT: InputValue = { value: null, source: '', defaultValue: null, defaultSource: '' };
 
 const RAVAZ_WORDS = { 'under-cropped': 'under-cropped (more wood than fruit)', balanced: 'balanced', 'over-cropped': 'over-cropped (more fruit than the wood can ripen)' } as const;
 const ADVICE_WORDS = {
-  'prune-normally': 'Prune to the usual target: under 20% of primary buds died.',
+  'prune-normally': 'Prune to the usual target: few primary buds died.',
   'leave-extra': 'Leave that percentage more buds, then thin shoots after budbreak.',
-  'minimal-pruning': 'Prune minimally or wait until budbreak to see what pushed.',
+  'minimal-pruning': 'More than half the primary buds died: prune minimally, or wait until after budbreak to see what pushed, then thin.',
 } as const;
 
 function initialText(input: InputValue) {
@@ -49,6 +51,8 @@ export function BlockReportView({ data }: { data: BlockReportResponse }) {
   const inputs: Record<Key, InputValue> = useMemo(
     () => ({
       ...report.crop.inputs,
+      clustersPerVine: report.crop.inputs.clustersPerVine ?? NO_INPUT,
+      lagClusterWeightG: report.crop.inputs.lagClusterWeightG ?? NO_INPUT,
       ...report.labour.inputs,
       budTarget: report.budInjury?.target ?? { value: null, source: '', defaultValue: null, defaultSource: '' },
     }),
@@ -58,7 +62,15 @@ export function BlockReportView({ data }: { data: BlockReportResponse }) {
   const read = Object.fromEntries((Object.keys(inputs) as Key[]).map((k) => [k, readInput(k, texts[k], inputs[k])])) as Record<Key, ReturnType<typeof readInput>>;
   const used = (k: Key): InputValue => ({ ...inputs[k], value: read[k].value, source: read[k].entered ? 'entered' : inputs[k].defaultSource });
 
-  const crop = cropEstimate(report.crop.basis, { budsPerVine: used('budsPerVine'), budbreakPercent: used('budbreakPercent'), clustersPerShoot: used('clustersPerShoot'), clusterWeightG: used('clusterWeightG') });
+  const cropInputs = {
+    budsPerVine: used('budsPerVine'),
+    budbreakPercent: used('budbreakPercent'),
+    clustersPerShoot: used('clustersPerShoot'),
+    clusterWeightG: used('clusterWeightG'),
+    clustersPerVine: used('clustersPerVine'),
+    lagClusterWeightG: used('lagClusterWeightG'),
+  };
+  const crop = cropEstimate(report.crop.basis, cropInputs);
   const labour = labourEstimate(report.labour.basis, { minutesPerVine: used('minutesPerVine'), hourlyCost: used('hourlyCost') });
   const adjusted = report.budInjury ? adjustForBudInjury(read.budTarget.value, report.budInjury.kill.value!) : null;
 
@@ -150,6 +162,16 @@ export function BlockReportView({ data }: { data: BlockReportResponse }) {
           <EstimateInput id="budbreakPercent" label="Budbreak" unit="%" text={texts.budbreakPercent} error={read.budbreakPercent.error} input={inputs.budbreakPercent} onChange={(t) => change('budbreakPercent', t)} />
           <EstimateInput id="clustersPerShoot" label="Clusters per shoot" text={texts.clustersPerShoot} error={read.clustersPerShoot.error} input={inputs.clustersPerShoot} onChange={(t) => change('clustersPerShoot', t)} />
           <EstimateInput id="clusterWeightG" label="Cluster weight" unit="g" text={texts.clusterWeightG} error={read.clusterWeightG.error} input={inputs.clusterWeightG} onChange={(t) => change('clusterWeightG', t)} />
+          <EstimateInput id="clustersPerVine" label="Clusters counted per vine (in place of buds × budbreak × clusters a shoot)" text={texts.clustersPerVine} error={read.clustersPerVine.error} input={inputs.clustersPerVine} onChange={(t) => change('clustersPerVine', t)} />
+          <EstimateInput
+            id="lagClusterWeightG"
+            label={`Weight of a cluster at lag phase (× ${formatNumber(report.crop.basis.lagPhaseMultiplier ?? 2, 2)} for harvest)`}
+            unit="g"
+            text={texts.lagClusterWeightG}
+            error={read.lagClusterWeightG.error}
+            input={inputs.lagClusterWeightG}
+            onChange={(t) => change('lagClusterWeightG', t)}
+          />
         </div>
         <ul className="hidden list-disc pl-5 print:block">
           <PrintedInput label="Bearing vines" value={report.crop.basis.vines} source={report.crop.basis.vinesSource} />
@@ -157,6 +179,8 @@ export function BlockReportView({ data }: { data: BlockReportResponse }) {
           <PrintedInput label="Budbreak" unit="%" value={read.budbreakPercent.value} source={used('budbreakPercent').source} />
           <PrintedInput label="Clusters per shoot" value={read.clustersPerShoot.value} source={used('clustersPerShoot').source} />
           <PrintedInput label="Cluster weight" unit="g" value={read.clusterWeightG.value} source={used('clusterWeightG').source} />
+          {read.clustersPerVine.value !== null && <PrintedInput label="Clusters per vine" value={read.clustersPerVine.value} source={used('clustersPerVine').source} />}
+          {read.lagClusterWeightG.value !== null && <PrintedInput label="Weight of a cluster at lag phase" unit="g" value={read.lagClusterWeightG.value} source={used('lagClusterWeightG').source} />}
         </ul>
         <p className="print:hidden">
           Bearing vines: <strong>{formatCount(report.crop.basis.vines)}</strong> ({report.crop.basis.vinesSource}).
@@ -175,7 +199,22 @@ export function BlockReportView({ data }: { data: BlockReportResponse }) {
             </>
           )}
           <How how={crop.how} from={`estimateCropKg, then ${units === 'metric' ? 'cropTonnesPerHa' : 'cropShortTonsPerAcre'} over ${formatAreaM2(report.block.areaM2, units)} of planted slots. Estimates are often 30% off; within 10% is a good one.`} />
+          <p className="text-sm" data-testid="crop-rests-on">
+            Rests on: {cropRestsOn(cropInputs)}.
+          </p>
         </div>
+        <p data-testid="crop-sampling">
+          To know the mean yield a vine within ±{report.crop.sampling.marginPercent}%, weigh or count <strong>{formatCount(report.crop.sampling.vines)} vines</strong> at random: vine yields vary by{' '}
+          {formatNumber(report.crop.sampling.cvPercent, 0)}% ({report.crop.sampling.cvSource}).
+        </p>
+        <How how={report.crop.sampling.how} />
+        {report.crop.target && (
+          <p data-testid="crop-target">
+            The vines&apos; size ({formatWeightKg(report.crop.target.pruningKgPerVine, units, 2)} of prunings a vine) ripens about {formatWeightKg(report.crop.target.lowKgPerVine, units, 1)}–
+            {formatWeightKg(report.crop.target.highKgPerVine, units, 1)} a vine
+            {report.crop.target.targetKgPerVine !== null ? `, ${formatWeightKg(report.crop.target.targetKgPerVine, units, 1)} at the balanced Ravaz index of 15` : ''} ({report.crop.target.how}; {report.crop.target.from}).
+          </p>
+        )}
       </Section>
 
       <Section id="labour" title="Pruning labour" intro="Standing vines × minutes per vine ÷ 60, at the crew's hourly cost. Cane pruning is the slower, costlier kind: canes are pulled from the wires and new ones tied down.">
@@ -212,7 +251,15 @@ export function BlockReportView({ data }: { data: BlockReportResponse }) {
         </div>
       </Section>
 
-      <Section id="bud-injury" title="Winter bud injury" intro="Buds cut open before pruning; under 20% dead primaries prune as usual, from 20% to 80% leave that percentage more buds, over 80% prune minimally or wait for budbreak.">
+      <Section
+        id="bud-injury"
+        title="Winter bud injury"
+        intro={
+          report.budInjury
+            ? `Buds cut open before pruning; under ${report.budInjury.limits.extraFromPercent}% dead primaries prune as usual (Cornell NNY), from there to ${report.budInjury.limits.minimalAbovePercent}% leave that percentage more buds (Cornell NNY), over ${report.budInjury.limits.minimalAbovePercent}% prune minimally or wait until after budbreak (Purdue; Michigan State).`
+            : 'Buds cut open before pruning, to adjust the bud target for winter injury.'
+        }
+      >
         {report.budInjury ? (
           <>
             <div className="grid gap-3 sm:grid-cols-3 print:grid-cols-3">
@@ -226,7 +273,7 @@ export function BlockReportView({ data }: { data: BlockReportResponse }) {
               <FigureCard
                 testId="fig-bud-adjusted"
                 label="Adjusted bud target per vine"
-                value={adjusted ? formatCount(adjusted.buds) : 'enter a target'}
+                value={!adjusted ? 'enter a target' : adjusted.buds === null ? 'prune minimally' : formatCount(adjusted.buds)}
                 how={adjusted?.how}
                 from={adjusted ? ADVICE_WORDS[adjusted.advice] : undefined}
               />
@@ -532,6 +579,15 @@ function BudLoadSection({ report }: { report: BlockReport }) {
             Formula: {l.formula.firstUnitBuds} buds for the first {l.formula.unit} of prunings + {l.formula.perAdditionalUnitBuds} per further {l.formula.unit}
             {l.formula.grapeType ? ` (${GRAPE_TYPE_WORDS[l.formula.grapeType]})` : ''}. {l.under} vines were left more than 10% under target and {l.over} more than 10% over.
           </p>
+          <p className="text-sm" data-testid="bud-density">
+            {formatNumber(l.density.kept.budsPerFt)} buds kept per foot of row ({formatNumber(l.density.kept.budsPerM)} per metre)
+            {l.density.target ? `; the target is ${formatNumber(l.density.target.budsPerFt)} per foot` : ''}. Ohio State&apos;s range is {l.density.kept.rangePerVine.min}–{l.density.kept.rangePerVine.max} buds a vine at this spacing.
+          </p>
+          {l.density.warning && (
+            <p role="alert" data-testid="bud-density-warning" className="rounded-lg border-2 border-alarm bg-panel p-3 font-bold">
+              {l.density.warning}
+            </p>
+          )}
           <ReportTable caption={`Vines with a target, by how far the buds kept were off it: ${l.how}.`}>
             <thead>
               <tr>
@@ -583,7 +639,7 @@ const GRAPE_TYPE_WORDS: Record<string, string> = {
   concord: 'Concord, 30 + 10',
   american: 'American, 30 + 10',
   niagara: 'Niagara, 25 + 10',
-  catawba: 'Catawba, 25 + 10',
+  catawba: 'Catawba, 30 + 10',
   delaware: 'Delaware, 20 + 10',
   'french-hybrid': 'French hybrids, 20 + 10',
   'hybrid-small-cluster': 'Small-cluster hybrids, 20 + 10',
@@ -613,7 +669,7 @@ function BalanceSection({ report }: { report: BlockReport }) {
             <FigureCard
               label="Vines or samples by reading"
               value={`${r.readings.balanced} balanced`}
-              from={`${r.readings['under-cropped']} under-cropped (index under ${r.range.underBelow}), ${r.readings['over-cropped']} over-cropped (over ${r.range.overAbove}): readRavaz with settings.ravaz`}
+              from={`${r.readings['under-cropped']} under-cropped (index under ${r.range.underBelow}), ${r.readings['over-cropped']} over-cropped (over ${r.range.overAbove}): range for ${r.rangeSource}`}
             />
           </div>
           <ReportTable caption={`${r.note} ravazIndex(yield per vine, pruning weight per vine) per vine or row sample.`}>

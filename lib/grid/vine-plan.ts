@@ -3,7 +3,7 @@
  * any were measured (cane-diameter records, and shade-cane records that carry a diameter), and the
  * latest pruning weight from a pruning record. The plan itself is lib/viticulture's planVine.
  */
-import { planVine, type CaneInput, type Exposure, type VinePlan, type WoodOrigin } from '@/lib/viticulture';
+import { checkBudLoad, planVine, type BudLoadCheck, type CaneInput, type Exposure, type VinePlan, type WoodOrigin } from '@/lib/viticulture';
 
 export interface MeasuredObservation {
   kind: string;
@@ -18,6 +18,8 @@ export interface VinePlanReading {
   canes: CaneInput[];
   measuredOn: string | null;
   pruningWeightKg: number | null;
+  /** The plan's buds per foot of row against Ohio State's 4–6, when the vine spacing is known. */
+  budLoad: BudLoadCheck | null;
 }
 
 const day = (iso: string) => iso.slice(0, 10);
@@ -37,7 +39,11 @@ function caneFrom(o: MeasuredObservation): CaneInput | null {
   return cane;
 }
 
-export function planFromObservations(trainingSystem: string, observations: readonly MeasuredObservation[]): VinePlanReading {
+/**
+ * `vineSpacingM`, where known, caps a spur plan at the spurs its cordon holds (a bilateral cordon
+ * fills the vine spacing) and reads the plan's buds per foot of row.
+ */
+export function planFromObservations(trainingSystem: string, observations: readonly MeasuredObservation[], vineSpacingM?: number): VinePlanReading {
   const measured = observations
     .map((o) => ({ o, cane: caneFrom(o) }))
     .filter((m): m is { o: MeasuredObservation; cane: CaneInput } => m.cane !== null);
@@ -50,7 +56,8 @@ export function planFromObservations(trainingSystem: string, observations: reado
     .filter((o) => o.kind === 'pruning-record' && num(o.data.pruningWeightKg) !== undefined)
     .sort((a, b) => b.observedAt.localeCompare(a.observedAt))[0];
   const pruningWeightKg = weighed ? (weighed.data.pruningWeightKg as number) : null;
-  const base = { canes, measuredOn: latestDay, pruningWeightKg };
+  const spacing = vineSpacingM !== undefined && Number.isFinite(vineSpacingM) && vineSpacingM > 0 ? vineSpacingM : undefined;
+  const base = { canes, measuredOn: latestDay, pruningWeightKg, budLoad: null };
 
   if (trainingSystem !== 'cane' && trainingSystem !== 'spur') {
     return { ...base, plan: null, reason: 'The block’s training system has no pruning plan.' };
@@ -61,8 +68,10 @@ export function planFromObservations(trainingSystem: string, observations: reado
       trainingSystem,
       canes,
       ...(pruningWeightKg !== null ? { pruningWeight: pruningWeightKg, weightUnit: 'kg' as const } : {}),
+      ...(spacing !== undefined && trainingSystem === 'spur' ? { cordonLengthM: spacing } : {}),
     });
-    return { ...base, plan, reason: null };
+    const budLoad = spacing === undefined ? null : checkBudLoad(plan.targetBuds ?? plan.totalBuds, spacing);
+    return { ...base, plan, reason: null, budLoad };
   } catch (err) {
     // Stored data passed the sync schema; a RangeError here means a measurement the plan cannot use.
     if (err instanceof RangeError) return { ...base, plan: null, reason: `The measurements cannot be planned from: ${err.message}` };

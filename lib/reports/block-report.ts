@@ -21,7 +21,13 @@ import {
   budInjuryAdjustment,
   budbreakPercent,
   caneReasonCode,
+  checkBudLoad,
+  coefficientOfVariationPercent,
+  cropLoadTargetKg,
   DEFAULT_SETTINGS,
+  RAVAZ_TARGETS,
+  ravazRangeFor,
+  sampleSizeForMean,
   isWeakBudbreak,
   primaryBudKillPercent,
   pruningCheckBuds,
@@ -30,6 +36,7 @@ import {
   wilsonInterval,
   type BalancedPruningFormula,
   type BudInjuryAdvice,
+  type BudLoadCheck,
   type CaneVerdict,
   type Exposure,
   type GrapeType,
@@ -44,6 +51,7 @@ import type { ReportOptions } from '@/lib/validation/report';
 import { kindLabel } from '@/lib/grid/labels';
 import {
   cropEstimate,
+  cropRestsOn,
   defaultMinutesPerVine,
   labourEstimate,
   type CropBasis,
@@ -267,6 +275,8 @@ export interface BudLoadSection {
   under: number;
   over: number;
   vines: BudLoadVine[];
+  /** Buds per foot of row against the published range, for the buds kept and for the target. */
+  density: { kept: BudLoadCheck; target: BudLoadCheck | null; warning: string | null; how: string };
   how: string;
 }
 
@@ -288,6 +298,8 @@ export interface RavazSection {
   reading: RavazReading;
   readings: Record<RavazReading, number>;
   range: { underBelow: number; overAbove: number };
+  /** Where the range comes from: the block's grape type. */
+  rangeSource: string;
   note: string;
 }
 
@@ -305,8 +317,30 @@ export interface BudInjurySection {
   primariesDead: number;
   kill: Figure;
   target: InputValue;
-  adjusted: { buds: number; advice: BudInjuryAdvice; how: string } | null;
+  adjusted: { buds: number | null; advice: BudInjuryAdvice; how: string } | null;
+  /** settings.budInjury: extra buds from this kill, minimal pruning above that. */
+  limits: { extraFromPercent: number; minimalAbovePercent: number };
   byRow: { row: number; samples: number; budsCut: number; primariesDead: number; killPercent: number }[];
+}
+
+/** Vines to sample for next season's crop estimate, from the spread of vine yields. */
+export interface CropSampling {
+  vines: number;
+  cvPercent: number;
+  cvSource: string;
+  marginPercent: number;
+  how: string;
+}
+
+/** The crop the vines' size can ripen: the Ravaz range (or target) × mean pruning weight per vine. */
+export interface CropLoadTarget {
+  pruningKgPerVine: number;
+  lowKgPerVine: number;
+  highKgPerVine: number;
+  /** At the published single target (Concord 15), else null. */
+  targetKgPerVine: number | null;
+  how: string;
+  from: string;
 }
 
 export interface ReplantSection {
@@ -340,7 +374,7 @@ export interface BlockReport {
   ravaz: RavazSection | null;
   ravazNote: string;
   harvest: HarvestSection | null;
-  crop: { basis: CropBasis; inputs: CropInputs; estimate: CropEstimate };
+  crop: { basis: CropBasis; inputs: CropInputs; estimate: CropEstimate; restsOn: string; sampling: CropSampling; target: CropLoadTarget | null };
   labour: { basis: LabourBasis; inputs: LabourInputs; estimate: LabourEstimate };
   budInjury: BudInjurySection | null;
   tasks: TaskSection;
@@ -602,6 +636,15 @@ function budLoadSection(input: BlockReportInput, s: ViticultureSettings): BudLoa
   const targets = vines.filter((v) => v.target !== null).map((v) => v.target!);
   const meanTarget = mean(targets);
   const formulaText = `${formula.firstUnitBuds} + ${formula.perAdditionalUnitBuds} per ${formula.unit}`;
+  const spacing = input.block.vineSpacingM;
+  const keptCheck = checkBudLoad(meanKept, spacing, s);
+  const targetCheck = meanTarget === null ? null : checkBudLoad(meanTarget, spacing, s);
+  const { minBudsPerFt, maxBudsPerFt } = s.budLoad;
+  const over = (c: BudLoadCheck | null) => c !== null && c.reading === 'over';
+  const warning =
+    over(targetCheck) || over(keptCheck)
+      ? `${over(targetCheck) ? `The balanced-pruning target (${formatNumber(meanTarget!)} buds a vine)` : `The buds kept (${formatNumber(meanKept)} a vine)`} come to ${formatNumber((over(targetCheck) ? targetCheck! : keptCheck).budsPerFt)} buds per foot of row, above the ${minBudsPerFt}–${maxBudsPerFt} a foot (${keptCheck.rangePerVine.min}–${keptCheck.rangePerVine.max} a vine at this spacing) that Ohio State's pruning primer gives. Check the prunings' weights and the grape type's formula before pruning to it.`
+      : null;
   return {
     vinesRecorded: vines.length,
     meanKept: {
@@ -632,6 +675,12 @@ function budLoadSection(input: BlockReportInput, s: ViticultureSettings): BudLoa
     under: withTarget.filter((v) => v.deviationPercent! < -fineWithinPercent).length,
     over: withTarget.filter((v) => v.deviationPercent! > fineWithinPercent).length,
     vines,
+    density: {
+      kept: keptCheck,
+      target: targetCheck,
+      warning,
+      how: `${call('checkBudLoad', Number(meanKept.toFixed(1)), spacing)}: buds per vine ÷ vine spacing, against settings.budLoad ${minBudsPerFt}–${maxBudsPerFt} buds per foot (Ohio State, "2023 Grape Pruning Primer")`,
+    },
     how: `budDeviationPercent(kept, target); bands from settings.pruningRecord (common practice, no source)`,
   };
 }
@@ -662,6 +711,9 @@ function units(rows: { row: number; position: number | null; kg: number; vines: 
  * vines and row samples with row samples of the same row.
  */
 function ravazFor(input: BlockReportInput, vintage: number, s: ViticultureSettings): RavazSection | null {
+  const { grapeType } = formulaFor(input.options, s);
+  const range = ravazRangeFor(grapeType, s);
+  const read = (index: number) => readRavaz(index, { ravaz: range });
   const yields = units(
     input.measurements.filter((m) => m.kind === 'yield' && m.season === vintage).map((m) => ({ row: m.row, position: m.position, kg: m.weightKg, vines: m.vines })),
   );
@@ -680,7 +732,7 @@ function ravazFor(input: BlockReportInput, vintage: number, s: ViticultureSettin
     const yieldKgPerVine = y.kg / y.vines;
     const pruningKgPerVine = p.kg / p.vines;
     const index = ravazIndex(yieldKgPerVine, pruningKgPerVine);
-    paired.push({ row: y.row, position: y.position, vines: y.vines, yieldKgPerVine, pruningKgPerVine, index, reading: readRavaz(index, s) });
+    paired.push({ row: y.row, position: y.position, vines: y.vines, yieldKgPerVine, pruningKgPerVine, index, reading: read(index) });
   }
   if (!paired.length) return null;
   paired.sort((a, b) => a.row - b.row || (a.position ?? 0) - (b.position ?? 0));
@@ -698,14 +750,21 @@ function ravazFor(input: BlockReportInput, vintage: number, s: ViticultureSettin
       label: `Ravaz index, ${vintage} vintage`,
       value: index,
       text: formatNumber(index),
-      how: `${call('ravazIndex', meanYield, meanPruning)} → readRavaz: ${readRavaz(index, s)}`,
+      how: `${call('ravazIndex', meanYield, meanPruning)} → readRavaz against ${range.underBelow}–${range.overAbove}: ${read(index)}`,
       from: `mean yield and mean pruning weight per vine over ${formatCount(vines)} vines weighed at the ${vintage} harvest and at the ${vintage + 1} winter pruning (${formatCount(paired.length)} vines or row samples)`,
     },
-    reading: readRavaz(index, s),
+    reading: read(index),
     readings,
-    range: { ...s.ravaz },
+    range,
+    rangeSource: ravazSource(grapeType),
     note: `Yields of the ${vintage} harvest over the one-year wood weighed at the ${vintage + 1} winter pruning.`,
   };
+}
+
+function ravazSource(grapeType: GrapeType | null): string {
+  return grapeType === 'concord' || grapeType === 'american'
+    ? 'Concord-type grapes: 10–20, balanced near 15 (T. Bates, Cornell LERGP, "Vine Size: Magic Number 15")'
+    : `${grapeType ?? 'the block'}: settings.ravaz (vinifera 5–10 by default, Wines & Vines, June 2017: "can range from 5 to 10")`;
 }
 
 function harvestSection(input: BlockReportInput, units: UnitSystem): HarvestSection | null {
@@ -776,6 +835,7 @@ function budInjurySection(input: BlockReportInput, budLoad: BudLoadSection | nul
     },
     target,
     adjusted: adjustForBudInjury(target.value, kill, s),
+    limits: { ...s.budInjury },
     byRow: [...byRowMap.values()]
       .sort((a, b) => a.row - b.row)
       .map((r) => ({ ...r, killPercent: primaryBudKillPercent(r.budsCut, r.primariesDead) })),
@@ -785,7 +845,10 @@ function budInjurySection(input: BlockReportInput, budLoad: BudLoadSection | nul
 /** Next winter's bud target after winter injury; also run in the browser as the target is edited. */
 export function adjustForBudInjury(targetBuds: number | null, killPercent: number, settings: ViticultureSettings = DEFAULT_SETTINGS) {
   if (targetBuds === null) return null;
-  return { ...budInjuryAdjustment(targetBuds, killPercent, settings), how: call('budInjuryAdjustment', targetBuds, killPercent) };
+  return {
+    ...budInjuryAdjustment(targetBuds, killPercent, settings),
+    how: `${call('budInjuryAdjustment', targetBuds, killPercent)}; no extra buds under ${settings.budInjury.extraFromPercent}% (Cornell NNY 2014), minimal pruning above ${settings.budInjury.minimalAbovePercent}% (Purdue; MSU)`,
+  };
 }
 
 function replantSection(input: BlockReportInput): ReplantSection {
@@ -822,8 +885,94 @@ function taskSection(tasks: TaskRow[] | null): TaskSection {
   };
 }
 
+/**
+ * Budbreak for the crop estimate: every record that counted buds retained and pushed, each vine's
+ * latest, whatever its kind. Counts made only on weak vines would pull the estimate down, so when
+ * every counted vine is under the weak limit the counts are not taken as the block's budbreak.
+ */
+function cropBudbreak(input: BlockReportInput, s: ViticultureSettings, entered: number | undefined): InputValue {
+  const latest = new Map<string, MeasuredObservation>();
+  for (const o of input.measured) {
+    if (num(o.data.budsRetained) === undefined || num(o.data.budsPushed) === undefined) continue;
+    const key = vineKey(o.row, o.position);
+    const seen = latest.get(key);
+    if (!seen || seen.observedAt <= o.observedAt) latest.set(key, o);
+  }
+  const counts = [...latest.values()]
+    .map((o) => ({ retained: num(o.data.budsRetained)!, pushed: num(o.data.budsPushed)! }))
+    .filter((c) => c.retained > 0 && c.pushed <= c.retained);
+  if (!counts.length) return inputValue(entered, null, 'no budbreak counts this season: enter the budbreak expected');
+  const retained = counts.reduce((a, c) => a + c.retained, 0);
+  const pushed = counts.reduce((a, c) => a + c.pushed, 0);
+  const weak = counts.filter((c) => isWeakBudbreak(c.retained, c.pushed, s)).length;
+  if (weak === counts.length) {
+    return inputValue(
+      entered,
+      null,
+      `all ${formatCount(counts.length)} vines counted pushed under ${s.budbreak.weakBelowPercent}% (weak-budbreak records only): a count of weak vines alone would understate the block; enter the budbreak of a random sample`,
+    );
+  }
+  const pooled = budbreakPercent(retained, pushed);
+  return inputValue(entered, Number(pooled.toFixed(1)), `${call('budbreakPercent', retained, pushed)} over every budbreak count of ${input.season}: ${formatCount(counts.length)} vines, ${formatCount(weak)} of them weak`);
+}
+
+/** Vines to weigh for a crop estimate, from the CV of vine yields: last season's, else this season's, else the default. */
+function cropSampling(input: BlockReportInput, s: ViticultureSettings, bearing: number): CropSampling {
+  const perVine = (season: number) =>
+    input.measurements.filter((m) => m.kind === 'yield' && m.season === season && m.position !== null && m.vines > 0).map((m) => m.weightKg / m.vines);
+  // Fewer than five vines say little about the spread; the default is safer then.
+  const MIN_VINES = 5;
+  let cvPercent = s.crop.yieldCvPercent;
+  let cvSource = `default (settings.crop.yieldCvPercent, ${s.crop.yieldCvPercent}%: from memory; weigh at least ${MIN_VINES} single vines for the block's own)`;
+  for (const season of [input.season - 1, input.season]) {
+    const yields = perVine(season);
+    if (yields.length >= MIN_VINES && yields.some((y) => y > 0)) {
+      cvPercent = coefficientOfVariationPercent(yields);
+      cvSource = `${call('coefficientOfVariationPercent', `${yields.length} vine yields of ${season}`)}`;
+      break;
+    }
+  }
+  const marginPercent = s.crop.sampleMarginPercent;
+  const vines = sampleSizeForMean(cvPercent, marginPercent, 0.95, bearing > 0 ? bearing : undefined);
+  return {
+    vines,
+    cvPercent,
+    cvSource,
+    marginPercent,
+    how: `${call('sampleSizeForMean', Number(cvPercent.toFixed(1)), marginPercent, 0.95, bearing)}: (1.96 × CV ÷ ${marginPercent})², Wolpert & Vilas (AJEV, 1992)`,
+  };
+}
+
+/** The crop the block's vines can ripen this season, from this season's pruning weights and the Ravaz range of the grape type. */
+function cropLoadTarget(input: BlockReportInput, s: ViticultureSettings): CropLoadTarget | null {
+  const weights = pruningWeights(input, input.season);
+  let kg = 0;
+  let vines = 0;
+  for (const w of weights.vine.values()) {
+    kg += w;
+    vines++;
+  }
+  for (const r of weights.row.values()) {
+    kg += r.kg;
+    vines += r.vines;
+  }
+  if (vines === 0 || kg <= 0) return null;
+  const pruningKgPerVine = kg / vines;
+  const { grapeType } = formulaFor(input.options, s);
+  const range = ravazRangeFor(grapeType, s);
+  const target = grapeType === 'concord' || grapeType === 'american' ? RAVAZ_TARGETS.concord : null;
+  return {
+    pruningKgPerVine,
+    lowKgPerVine: cropLoadTargetKg(pruningKgPerVine, Math.max(range.underBelow, Number.EPSILON)),
+    highKgPerVine: cropLoadTargetKg(pruningKgPerVine, range.overAbove),
+    targetKgPerVine: target === null ? null : cropLoadTargetKg(pruningKgPerVine, target),
+    how: `cropLoadTargetKg(${formatNumber(pruningKgPerVine, 3)}, Ravaz ${range.underBelow}–${range.overAbove}${target === null ? '' : `, target ${target}`})`,
+    from: `mean pruning weight of ${formatCount(vines)} vines weighed at the ${input.season} winter pruning; Ravaz range for ${ravazSource(grapeType)}`,
+  };
+}
+
 /** The default estimate inputs of a block, from its records where they exist, else from settings. */
-function estimateInputs(input: BlockReportInput, budLoad: BudLoadSection | null, budbreak: BudbreakSection | null, s: ViticultureSettings) {
+function estimateInputs(input: BlockReportInput, budLoad: BudLoadSection | null, s: ViticultureSettings) {
   const o = input.options;
   const previousHarvest = input.measurements.filter((m) => m.kind === 'yield' && m.season === input.season - 1 && m.clusters !== null && m.clusters > 0);
   const previousClusters = previousHarvest.reduce((a, m) => a + m.clusters!, 0);
@@ -832,14 +981,18 @@ function estimateInputs(input: BlockReportInput, budLoad: BudLoadSection | null,
     budsPerVine: budLoad
       ? inputValue(o.budsPerVine, Number(budLoad.meanKept.value!.toFixed(1)), `mean buds kept on ${formatCount(budLoad.vinesRecorded)} pruning records`)
       : inputValue(o.budsPerVine, null, 'no pruning records this season: enter the buds kept per vine'),
-    budbreakPercent: budbreak
-      ? inputValue(o.budbreakPercent, Number(budbreak.pooled.value!.toFixed(1)), `budbreak over ${formatCount(budbreak.vinesChecked)} vines checked`)
-      : inputValue(o.budbreakPercent, null, 'no budbreak checks this season: enter the budbreak expected'),
+    budbreakPercent: cropBudbreak(input, s, o.budbreakPercent),
     clustersPerShoot: inputValue(o.clustersPerShoot, s.crop.clustersPerShoot, 'default (settings.crop.clustersPerShoot, from memory)'),
     clusterWeightG:
       previousClusterG !== null
-        ? inputValue(o.clusterWeightG, Math.round(previousClusterG), `mean cluster weight of the ${input.season - 1} harvest samples`)
+        ? inputValue(o.clusterWeightG, Math.round(previousClusterG), `mean cluster weight of the ${input.season - 1} harvest samples (${formatCount(previousHarvest.reduce((a, m) => a + m.vines, 0))} vines, ${formatCount(previousClusters)} clusters)`)
         : inputValue(o.clusterWeightG, s.crop.clusterWeightG, 'default (settings.crop.clusterWeightG, from memory)'),
+    clustersPerVine: inputValue(o.clustersPerVine, null, 'not counted: built from buds × budbreak × clusters per shoot'),
+    lagClusterWeightG: inputValue(
+      o.lagClusterWeightG,
+      null,
+      `not weighed: enter clusters weighed at lag phase to use × ${s.crop.lagPhaseMultiplier} (settings.crop.lagPhaseMultiplier; University of Maryland Extension, "cluster weights will double from lag phase to harvest")`,
+    ),
   };
   const system = input.block.trainingSystem;
   const labour: LabourInputs = {
@@ -865,8 +1018,9 @@ export function buildBlockReport(input: BlockReportInput): BlockReport {
   const incidence = incidenceSection(input);
   const budbreak = budbreakSection(input, s);
   const budLoad = budLoadSection(input, s);
-  const inputs = estimateInputs(input, budLoad, budbreak, s);
+  const inputs = estimateInputs(input, budLoad, s);
   const cropBasis: CropBasis = {
+    lagPhaseMultiplier: s.crop.lagPhaseMultiplier,
     vines: bearing,
     vinesSource: `${formatCount(slots.planted)} planted slots + ${formatCount(slots.bearingReplants)} replants planted in ${input.season - s.crop.bearingAfterSeasons} or before (settings.crop.bearingAfterSeasons)`,
     areaM2,
@@ -903,7 +1057,14 @@ export function buildBlockReport(input: BlockReportInput): BlockReport {
         ? `The ${input.season} vintage needs the prunings weighed at the ${input.season + 1} winter pruning; shown is the ${input.season - 1} vintage.`
         : `No vine or row sample has both a yield (${input.season - 1} or ${input.season} harvest) and the next winter's pruning weight. Enter weights under "Yields and pruning weights".`,
     harvest: harvestSection(input, input.units),
-    crop: { basis: cropBasis, inputs: inputs.crop, estimate: cropEstimate(cropBasis, inputs.crop) },
+    crop: {
+      basis: cropBasis,
+      inputs: inputs.crop,
+      estimate: cropEstimate(cropBasis, inputs.crop),
+      restsOn: cropRestsOn(inputs.crop),
+      sampling: cropSampling(input, s, bearing),
+      target: cropLoadTarget(input, s),
+    },
     labour: { basis: labourBasis, inputs: inputs.labour, estimate: labourEstimate(labourBasis, inputs.labour, s) },
     budInjury: budInjurySection(input, budLoad, s),
     tasks: taskSection(input.tasks),

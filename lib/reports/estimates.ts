@@ -8,6 +8,7 @@ import {
   cropTonnesPerHa,
   estimateCropKg,
   estimatePruningLabour,
+  harvestClusterWeightG,
   haToAc,
   SQ_M_PER_HA,
   type ViticultureSettings,
@@ -38,6 +39,8 @@ export interface CropBasis {
   vines: number;
   vinesSource: string;
   areaM2: number;
+  /** Harvest over lag-phase cluster weight (settings.crop.lagPhaseMultiplier). */
+  lagPhaseMultiplier?: number;
 }
 
 export interface CropInputs {
@@ -45,6 +48,10 @@ export interface CropInputs {
   budbreakPercent: InputValue;
   clustersPerShoot: InputValue;
   clusterWeightG: InputValue;
+  /** Clusters counted per vine: when given, it stands for buds × budbreak × clusters per shoot. */
+  clustersPerVine?: InputValue;
+  /** Cluster weight at lag phase: when given, the harvest weight is it × the lag-phase multiplier. */
+  lagClusterWeightG?: InputValue;
 }
 
 export interface CropEstimate {
@@ -58,27 +65,50 @@ export interface CropEstimate {
 }
 
 export function cropEstimate(basis: CropBasis, inputs: CropInputs): CropEstimate {
-  const missing = (Object.entries(inputs) as [keyof CropInputs, InputValue][]).filter(([, v]) => v.value === null).map(([k]) => k);
+  const direct = inputs.clustersPerVine?.value ?? null;
+  const lag = inputs.lagClusterWeightG?.value ?? null;
+  const needed: [string, InputValue | undefined][] =
+    direct !== null ? [] : [['budsPerVine', inputs.budsPerVine], ['budbreakPercent', inputs.budbreakPercent], ['clustersPerShoot', inputs.clustersPerShoot]];
+  if (lag === null) needed.push(['clusterWeightG', inputs.clusterWeightG]);
+  const missing = needed.filter(([, v]) => v?.value === null || v?.value === undefined).map(([k]) => k);
   if (missing.length) {
     return { kg: null, kgPerVine: null, tonnesPerHa: null, shortTonsPerAcre: null, missing, how: 'estimateCropKg needs every input' };
   }
-  const input = {
-    vines: basis.vines,
-    budsPerVine: inputs.budsPerVine.value!,
-    budbreakFraction: inputs.budbreakPercent.value! / 100,
-    clustersPerShoot: inputs.clustersPerShoot.value!,
-    clusterWeightG: inputs.clusterWeightG.value!,
-  };
+  const multiplier = basis.lagPhaseMultiplier ?? DEFAULT_SETTINGS.crop.lagPhaseMultiplier;
+  const clusterWeightG = lag !== null ? harvestClusterWeightG(lag, { crop: { lagPhaseMultiplier: multiplier } }) : inputs.clusterWeightG.value!;
+  const input =
+    direct !== null
+      ? { vines: basis.vines, clustersPerVine: direct, clusterWeightG }
+      : {
+          vines: basis.vines,
+          budsPerVine: inputs.budsPerVine.value!,
+          budbreakFraction: inputs.budbreakPercent.value! / 100,
+          clustersPerShoot: inputs.clustersPerShoot.value!,
+          clusterWeightG,
+        };
   const kg = estimateCropKg(input);
   const areaHa = basis.areaM2 / SQ_M_PER_HA;
+  const lagHow = lag !== null ? `; clusterWeightG = ${call('harvestClusterWeightG', lag)} = ${lag} g × ${multiplier}` : '';
   return {
     kg,
     kgPerVine: basis.vines > 0 ? kg / basis.vines : null,
     tonnesPerHa: areaHa > 0 ? cropTonnesPerHa(kg, areaHa) : null,
     shortTonsPerAcre: areaHa > 0 ? cropShortTonsPerAcre(kg, haToAc(areaHa)) : null,
     missing: [],
-    how: call('estimateCropKg', input),
+    how: call('estimateCropKg', input) + lagHow,
   };
+}
+
+/** The inputs the estimate uses and where each came from: counted clusters stand in for their components, a lag-phase weight for the harvest weight. */
+export function cropRestsOn(inputs: CropInputs): string {
+  const unused = new Set<string>([
+    ...(inputs.clustersPerVine?.value != null ? ['budsPerVine', 'budbreakPercent', 'clustersPerShoot'] : []),
+    ...(inputs.lagClusterWeightG?.value != null ? ['clusterWeightG'] : []),
+  ]);
+  return (Object.entries(inputs) as [string, InputValue | undefined][])
+    .filter(([k, v]) => v && v.value !== null && !unused.has(k))
+    .map(([k, v]) => `${k}: ${v!.source}`)
+    .join('; ');
 }
 
 export interface LabourBasis {

@@ -17,6 +17,8 @@ export const reportOptionsSchema = z.strictObject({
   budbreakPercent: number('Must be a percentage').pipe(z.number().min(0, 'Cannot be negative').max(100, 'At most 100%')).optional(),
   clustersPerShoot: number('Must be a number').pipe(z.number().min(0, 'Cannot be negative').max(10, 'At most 10 clusters a shoot')).optional(),
   clusterWeightG: number('Must be a weight in grams').pipe(z.number().min(0, 'Cannot be negative').max(3000, 'At most 3000 g')).optional(),
+  clustersPerVine: number('Must be a number of clusters').pipe(z.number().min(0, 'Cannot be negative').max(2000, 'At most 2000 clusters a vine')).optional(),
+  lagClusterWeightG: number('Must be a weight in grams').pipe(z.number().min(0, 'Cannot be negative').max(3000, 'At most 3000 g')).optional(),
   minutesPerVine: number('Must be a number of minutes').pipe(z.number().min(0, 'Cannot be negative').max(120, 'At most 120 minutes a vine')).optional(),
   hourlyCost: number('Must be an amount').pipe(z.number().min(0, 'Cannot be negative').max(100_000)).optional(),
   grapeType: z.enum(GRAPE_TYPES as [string, ...string[]], 'Must be one of the grape types of the balanced-pruning table').optional(),
@@ -28,7 +30,7 @@ export type ReportOptions = z.infer<typeof reportOptionsSchema>;
 export const REPORT_OPTION_KEYS = Object.keys(reportOptionsSchema.shape) as (keyof ReportOptions)[];
 
 /** The inputs a person can change on the page without asking the server again. */
-export const ESTIMATE_KEYS = ['budsPerVine', 'budbreakPercent', 'clustersPerShoot', 'clusterWeightG', 'minutesPerVine', 'hourlyCost'] as const;
+export const ESTIMATE_KEYS = ['budsPerVine', 'budbreakPercent', 'clustersPerShoot', 'clusterWeightG', 'clustersPerVine', 'lagClusterWeightG', 'minutesPerVine', 'hourlyCost'] as const;
 export type EstimateKey = (typeof ESTIMATE_KEYS)[number];
 
 export function searchToOptionsRaw(search: URLSearchParams): Record<string, string> {

@@ -23,19 +23,22 @@ export function primaryBudKillPercent(budsCut: number, primariesDead: number): n
 export type BudInjuryAdvice = 'prune-normally' | 'leave-extra' | 'minimal-pruning';
 
 export interface BudInjuryAdjustment {
-  buds: number;
+  /** Buds to leave; null when the advice is minimal pruning, which is not a bud count. */
+  buds: number | null;
   advice: BudInjuryAdvice;
 }
 
 /**
- * The linear rule of Cornell's Northern New York grape programme ("Evaluating bud injury and adjusting
- * pruning", NNY Grape Update, 28 Feb 2014): under 20% primary bud kill leave no extra buds; from 20%
- * to 80% leave that percentage more (35% kill on a 40-bud target → 54). The target is raised by the
- * kill, not divided by the surviving share: 40 / 0.65 would give 62, which is a different rule.
- *
- * Above 80% the advice is minimal (or delayed) pruning, and `buds` is the 80% figure: the least to
- * leave if the vine is pruned anyway, since the rule publishes no band beyond it. Bands are settings
- * (`budInjury`); buds are rounded to whole buds, half up.
+ * Next winter's bud target after primary-bud kill, in three bands (settings.budInjury):
+ * - under `extraFromPercent` (20%): prune normally ("if <20% of buds are injured, you don't need to
+ *   leave extra buds", Cornell NNY Grape Update, 28 Feb 2014);
+ * - from there up to `minimalAbovePercent` (50%): Cornell's linear rule, "leave an additional amount
+ *   of buds equal to the bud injury" (35% kill on a 40-bud target → 54). The target is raised by the
+ *   kill, not divided by the surviving share (40 / 0.65 would give 62, a different rule);
+ * - above it: minimal pruning, or pruning delayed until after budbreak, with no bud count (Purdue,
+ *   Facts for Fancy Fruit: ">50% bud damage- Minimally prune"; MSU table-grape guide: "greater than
+ *   50% ... delay pruning until after bud break"). `buds` is null: no published rule gives one.
+ * Buds are rounded to whole buds, half up.
  */
 export function budInjuryAdjustment(
   targetBuds: number,
@@ -46,9 +49,8 @@ export function budInjuryAdjustment(
   requirePercent('primaryBudKillPercent', primaryBudKillPercent);
   const { extraFromPercent, minimalAbovePercent } = resolveSettings(settings).budInjury;
   if (primaryBudKillPercent < extraFromPercent) return { buds: roundHalfUp(targetBuds), advice: 'prune-normally' };
-  const extraPercent = Math.min(primaryBudKillPercent, minimalAbovePercent);
-  const buds = roundHalfUp((targetBuds * (100 + extraPercent)) / 100);
-  return { buds, advice: primaryBudKillPercent > minimalAbovePercent ? 'minimal-pruning' : 'leave-extra' };
+  if (primaryBudKillPercent > minimalAbovePercent) return { buds: null, advice: 'minimal-pruning' };
+  return { buds: roundHalfUp((targetBuds * (100 + primaryBudKillPercent)) / 100), advice: 'leave-extra' };
 }
 
 // Multiplying before dividing keeps whole-number cases exact, so 30 × 135 / 100 is 40.5 and rounds up.

@@ -41,7 +41,9 @@ export type CaneReasonCode = (typeof CANE_REASON_CODES)[number];
 
 // A major fault rules the cane out on its own; minor ones make it a second choice, and enough of
 // them together (settings.canes.minorFaultsToRemove) rule it out too.
-const MAJOR_FAULTS: ReadonlySet<CaneReasonCode> = new Set(['injured', 'trunk-shoot', 'very-thin']);
+// A bull cane is a major fault: eXtension calls bull canes "poorly fruitful or unfruitful, less
+// cold-hardy than normal-sized canes" and "poor selections ... to keep for spurs or fruiting canes".
+const MAJOR_FAULTS: ReadonlySet<CaneReasonCode> = new Set(['injured', 'trunk-shoot', 'very-thin', 'bull-cane']);
 
 export interface CaneFinding {
   code: CaneReasonCode;
@@ -57,8 +59,8 @@ export function caneReasonCode(reason: string): CaneReasonCode | undefined {
 /**
  * Fruit-cane suitability. Faults and where their limits come from (all limits are settings):
  * - injured, or arising from the trunk (a trunk shoot is for trunk renewal, not fruit): remove;
- * - base diameter under `veryThinBelowMm`: remove; under `thinBelowMm` (1/4 in) or over
- *   `bullAboveMm` (1/2 in, a bull cane): minor;
+ * - base diameter under `veryThinBelowMm`: remove; over `bullAboveMm` (1/2 in, a bull cane): remove,
+ *   a poor selection however vigorous (eXtension); under `thinBelowMm` (5/16 in, Westover): minor;
  * - shade cane, from a longest internode over `shadeInternodeAboveMm` or growth in shade: minor.
  *   Long internodes come from shade or excess vigour, and their buds are less fruitful (Mid Valley Ag
  *   Services, Lodi, 2008; grovida.us on sun-exposed canes);
@@ -120,14 +122,17 @@ export function judge(findings: CaneFinding[], s: ViticultureSettings): CaneAsse
 
 /**
  * Buds to leave on a fruit cane, by its base diameter: a thicker cane grew on a more vigorous shoot
- * and can ripen more fruit. Three bands, split at `normalFromMm` (5/16 in) and `thickFromMm`
- * (7/16 in) around the 3/8 in pencil-thick cane: thin 8–10, normal 12–14, thick 16–18 buds by
- * default (see DEFAULT_SETTINGS.budsPerCane for the sources).
+ * and can ripen more fruit, up to the bull cane. Bands split at `canes.thinBelowMm` (5/16 in, the
+ * same limit assessCane calls thin) and `budsPerCane.thickFromMm` (7/16 in): thin 8–10, normal
+ * 12–14, thick 16–18 buds by default. A bull cane (over `canes.bullAboveMm`) gets no extra buds:
+ * it is poorly fruitful and should not be kept (eXtension), so if it is kept it gets the normal band.
  */
 export function recommendedBudsPerCane(baseDiameterMm: number, settings?: SettingsOverride): BudRange {
   requirePositive('baseDiameterMm', baseDiameterMm);
-  const { normalFromMm, thickFromMm, thin, normal, thick } = resolveSettings(settings).budsPerCane;
-  const band = baseDiameterMm >= thickFromMm ? thick : baseDiameterMm >= normalFromMm ? normal : thin;
+  const s = resolveSettings(settings);
+  const { thickFromMm, thin, normal, thick } = s.budsPerCane;
+  const band =
+    baseDiameterMm > s.canes.bullAboveMm ? normal : baseDiameterMm >= thickFromMm ? thick : baseDiameterMm >= s.canes.thinBelowMm ? normal : thin;
   return { min: band.min, max: band.max };
 }
 

@@ -29,9 +29,11 @@ export {
   type BudInjuryAdjustment,
   type BudInjuryAdvice,
 } from './budbreak';
-export { normalQuantile, zForConfidence, wilsonInterval, type ProportionInterval } from './stats';
+export { normalQuantile, zForConfidence, wilsonInterval, coefficientOfVariationPercent, type ProportionInterval } from './stats';
+export { checkBudLoad, type BudLoadCheck } from './budload';
 export {
   sampleSizeForProportion,
+  sampleSizeForMean,
   detectionSampleSize,
   samplingPlan,
   type BlockLayout,
@@ -41,6 +43,10 @@ export {
 export {
   SHORT_TON_KG,
   RAVAZ_PRESETS,
+  RAVAZ_TARGETS,
+  cropLoadTargetKg,
+  harvestClusterWeightG,
+  ravazRangeFor,
   estimateCropKg,
   estimateCrop,
   cropShortTonsPerAcre,

@@ -1,5 +1,5 @@
 // A pruning plan for one vine: which canes to keep, how many buds on each, and the renewal spurs.
-import { requireOneOf } from './check';
+import { requireOneOf, requirePositive } from './check';
 import { assessCane, recommendedBudsPerCane, type CaneInput, type CaneVerdict } from './canes';
 import { balancedPruningBuds, type BalancedPruningFormula, type WeightUnit } from './pruning';
 import { resolveSettings, type BudRange, type SettingsOverride, type ViticultureSettings } from './settings';
@@ -15,6 +15,11 @@ export interface VinePlanInput {
   weightUnit?: WeightUnit;
   /** Default: settings.pruning.formula (vinifera 20 + 20 unless the block says otherwise). */
   formula?: BalancedPruningFormula;
+  /**
+   * Length of cordon the vine's spurs sit on, where known (a bilateral cordon fills the vine
+   * spacing). Spur plans keep no more than one spur per `plan.minSpurSpacingMm` of it.
+   */
+  cordonLengthM?: number;
   settings?: SettingsOverride;
 }
 
@@ -38,6 +43,7 @@ export const PLAN_NOTE_CODES = [
   'second-choice-canes',
   'below-target',
   'above-target',
+  'cordon-full',
 ] as const;
 export type PlanNoteCode = (typeof PLAN_NOTE_CODES)[number];
 
@@ -57,11 +63,16 @@ const VERDICT_RANK: Record<CaneVerdict, number> = { 'fruit-cane': 0, 'if-nothing
  *   ranges allow, extra buds going to the best canes first.
  * - Spur system: every kept cane becomes a fruiting spur of `budsPerSpur` (2) buds, and spurs renew
  *   themselves, so there are no separate renewal spurs. Without a target keep `spursPerVine`; with one,
- *   keep target / budsPerSpur spurs, lengthening spurs up to `maxBudsPerSpur` if canes run short.
+ *   keep ⌊target / budsPerSpur⌋ spurs (so an odd target is met, 41 as 19 two-bud spurs and one of
+ *   three, never overshot to 42), lengthening spurs up to `maxBudsPerSpur` if canes run short. With
+ *   `cordonLengthM`, spurs are capped at one per `minSpurSpacingMm` of cordon and lengthened instead.
  */
 export function planVine(input: VinePlanInput): VinePlan {
   requireOneOf('trainingSystem', input.trainingSystem, ['cane', 'spur']);
+  if (input.cordonLengthM !== undefined) requirePositive('cordonLengthM', input.cordonLengthM);
   const s = resolveSettings(input.settings);
+  const cordonSpurs =
+    input.cordonLengthM === undefined ? Infinity : Math.max(1, Math.floor((input.cordonLengthM * 1000) / s.plan.minSpurSpacingMm + 1e-9));
   const targetBuds =
     input.pruningWeight === undefined
       ? null
@@ -78,13 +89,18 @@ export function planVine(input: VinePlanInput): VinePlan {
     );
 
   const plan =
-    input.trainingSystem === 'cane' ? planCanes(ranked.map((c) => c.cane), targetBuds, s) : planSpurs(ranked.length, targetBuds, s);
+    input.trainingSystem === 'cane'
+      ? planCanes(ranked.map((c) => c.cane), targetBuds, s)
+      : planSpurs(Math.min(ranked.length, cordonSpurs), targetBuds, s);
   const kept = ranked.slice(0, plan.budsPerCane.length);
   const totalBuds = plan.budsPerCane.reduce((a, b) => a + b, 0) + plan.renewalSpurs * s.plan.budsPerRenewalSpur;
 
   const notes: string[] = [];
+  const cordonFull = input.trainingSystem === 'spur' && ranked.length > cordonSpurs && plan.wanted > cordonSpurs;
   if (ranked.length === 0) notes.push('no-usable-canes: every cane was judged one to remove');
-  else if (kept.length < plan.wanted) {
+  else if (cordonFull) {
+    notes.push(`cordon-full: ${cordonSpurs} spurs fit ${input.cordonLengthM} m of cordon at one per ${s.plan.minSpurSpacingMm} mm; ${plan.wanted} wanted`);
+  } else if (kept.length < plan.wanted) {
     notes.push(`fewer-canes-than-wanted: ${kept.length} usable for ${plan.wanted} wanted`);
   }
   if (kept.some((c) => c.rank > 0)) notes.push('second-choice-canes: a cane kept only because nothing better was there');
@@ -144,7 +160,7 @@ function planSpurs(usable: number, target: number | null, s: ViticultureSettings
     const k = Math.min(spursPerVine, usable);
     return { budsPerCane: Array<number>(k).fill(budsPerSpur), renewalSpurs: 0, wanted: spursPerVine };
   }
-  const wanted = Math.max(1, Math.round(target / budsPerSpur));
+  const wanted = Math.max(1, Math.floor(target / budsPerSpur));
   const k = Math.min(wanted, usable);
   const budsPerCane = spread(target, Array<BudRange>(k).fill({ min: budsPerSpur, max: maxBudsPerSpur }));
   return { budsPerCane, renewalSpurs: 0, wanted };

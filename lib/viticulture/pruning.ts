@@ -34,9 +34,10 @@ export const BALANCED_PRUNING_FORMULAS: Readonly<Record<GrapeType, BalancedPruni
   concord: perPound(30, 10),
   // From memory (classic Cornell / Penn State table); not found in a source.
   niagara: perPound(25, 10),
-  // From memory. Missouri State Fruit Experiment Station (2009) reports "about 45 buds" at 2.55 lb,
-  // which fits 30 + 10 rather than 25 + 10; use 'concord' if that is the local practice.
-  catawba: perPound(25, 10),
+  // Missouri State Fruit Experiment Station, "Grape pruning begins" (8 Nov 2012): "Using the 30 + 10
+  // pruning formula recommended for Catwaba [sic]"; their 2009 post's "about 45 buds" at 2.55 lb
+  // (45.5 under 30 + 10, 40.5 under 25 + 10) agrees. The 25 + 10 once here was from memory.
+  catawba: perPound(30, 10),
   // From memory.
   delaware: perPound(20, 10),
   // Ohio State 2023 primer gives "French Hybrids 20 + 10"; the small/large-cluster split is from memory.

@@ -1,5 +1,5 @@
 // How many vines a scout should look at, and which ones.
-import { requireCount, requireFraction, requireOpenFraction } from './check';
+import { requireCount, requireFraction, requireOpenFraction, requirePositive } from './check';
 import { zForConfidence } from './stats';
 
 /**
@@ -16,6 +16,26 @@ export function sampleSizeForProportion(populationVines: number, marginOfError =
   const pq = 0.25;
   const s = (chiSquare * populationVines * pq) / (marginOfError ** 2 * (populationVines - 1) + chiSquare * pq);
   return Math.min(populationVines, Math.round(s));
+}
+
+/**
+ * Vines to weigh or count to estimate a block's mean yield per vine within ±`marginPercent` of the
+ * mean at `confidence`, from the coefficient of variation of vine yields (Wolpert & Vilas, "Estimating
+ * vineyard yields: introduction to a simple, two-step method", AJEV Technical Brief, 1992):
+ *   n = (z · CV / E)²,  rounded up; CV and E in percent of the mean.
+ * CV 30% at ±10% and 95% gives (1.96 × 30 / 10)² = 34.6 → 35 vines. With `populationVines` the
+ * finite-population correction n / (1 + (n − 1) / N) is applied. A proportion (Krejcie & Morgan) is
+ * the wrong statistic for a mean yield: it asks for 260 of 800 vines whatever the vines' spread.
+ */
+export function sampleSizeForMean(cvPercent: number, marginPercent = 10, confidence = 0.95, populationVines?: number): number {
+  requirePositive('cvPercent', cvPercent);
+  requirePositive('marginPercent', marginPercent);
+  const z = zForConfidence(confidence);
+  const n0 = ((z * cvPercent) / marginPercent) ** 2;
+  if (populationVines === undefined) return Math.max(2, Math.ceil(n0 - 1e-9));
+  requireCount('populationVines', populationVines);
+  const n = n0 / (1 + (n0 - 1) / populationVines);
+  return Math.min(populationVines, Math.max(2, Math.ceil(n - 1e-9)));
 }
 
 /**

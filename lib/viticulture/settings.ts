@@ -11,9 +11,12 @@ export interface ViticultureSettings {
   readonly canes: {
     /** Below this base diameter a cane is not worth keeping at all. */
     readonly veryThinBelowMm: number;
-    /** Below this a cane is thin: usable only if nothing better. */
+    /**
+     * Below this a cane is thin: usable only if nothing better, and given the thin bud band. One
+     * limit for both judgements (assessCane and recommendedBudsPerCane).
+     */
     readonly thinBelowMm: number;
-    /** Above this a cane is a bull cane: over-vigorous, usually less fruitful. */
+    /** Above this a cane is a bull cane: over-vigorous, poorly fruitful, a poor choice to keep. */
     readonly bullAboveMm: number;
     /** The thickness canes are ranked against when a plan picks the best ones. */
     readonly idealMm: number;
@@ -23,9 +26,7 @@ export interface ViticultureSettings {
     readonly minorFaultsToRemove: number;
   };
   readonly budsPerCane: {
-    /** From this base diameter a cane counts as normal rather than thin. */
-    readonly normalFromMm: number;
-    /** From this base diameter a cane counts as thick (vigorous). */
+    /** From this base diameter up to canes.bullAboveMm a cane counts as thick (vigorous, not a bull cane). */
     readonly thickFromMm: number;
     readonly thin: BudRange;
     readonly normal: BudRange;
@@ -44,6 +45,14 @@ export interface ViticultureSettings {
     readonly budsPerSpur: number;
     /** Most buds a fruiting spur may keep while chasing a bud target. */
     readonly maxBudsPerSpur: number;
+    /** Least room along a cordon for one spur: caps the spur count where the cordon length is known. */
+    readonly minSpurSpacingMm: number;
+  };
+  readonly budLoad: {
+    /** Buds per foot of row (vine spacing) a balanced vine usually carries: the low end. */
+    readonly minBudsPerFt: number;
+    /** The high end; a target above it is flagged. */
+    readonly maxBudsPerFt: number;
   };
   readonly pruning: {
     /** Used when a pruning weight comes without a formula (a block sets its grape type here). */
@@ -90,6 +99,12 @@ export interface ViticultureSettings {
     readonly clustersPerShoot: number;
     /** Cluster weight at harvest in grams, until the block's own weights are known. */
     readonly clusterWeightG: number;
+    /** Harvest cluster weight over lag-phase cluster weight. */
+    readonly lagPhaseMultiplier: number;
+    /** Coefficient of variation of yield per vine, in percent, until the block's own yields give one. */
+    readonly yieldCvPercent: number;
+    /** Margin of a crop estimate's mean yield per vine, in percent of the mean, that sizes its sample. */
+    readonly sampleMarginPercent: number;
     /** A replant is counted as bearing from this many seasons after its planting year. */
     readonly bearingAfterSeasons: number;
   };
@@ -111,23 +126,25 @@ export const DEFAULT_SETTINGS: ViticultureSettings = deepFreeze<ViticultureSetti
   canes: {
     // 3/16 in. Common practice, no source.
     veryThinBelowMm: 4.8,
-    // 1/4 in: grovida.us "Pruning Mature Vines" ("1/4 inch or more") and the Yuma Sun garden
-    // column, 2022 ("diameter of 1/4-1/2 inch").
-    thinBelowMm: 6.35,
-    // 1/2 in, the upper end of the Yuma Sun 2022 range.
+    // 5/16 in: F. Westover, Wines & Vines, May 2016 ("The ideal range of acceptable, fruitful wood
+    // for spurs and canes is between 5/16 and a half inch in diameter"). Garden sources allow
+    // 1/4 in (grovida.us "1/4 inch or more"; Yuma Sun 2022 "1/4-1/2 inch"): a block may set 6.35.
+    thinBelowMm: 7.9375,
+    // 1/2 in: eXtension, "What are 'bull' canes and how do I handle them?" (bull canes have "large
+    // diameter (greater than ½ inch)"); also the top of Westover's range.
     bullAboveMm: 12.7,
     // 3/8 in, the middle of that published 1/4–1/2 in range ("about pencil thickness").
     idealMm: 9.525,
-    // Common practice, no source. WineSkills UK puts the ideal internode near 60 mm and the Oxford
-    // Companion to Wine (2006) gives 50–150 mm for cuttings; American table grapes run near 6 in
-    // (grovida.us), so blocks of those should raise this.
-    shadeInternodeAboveMm: 100,
+    // 6 in. eXtension's bull-cane page gives "very long internodes (5-6 inches or more)" as the sign of
+    // an over-vigorous shoot; the Oxford Companion to Wine (2006) puts cuttings at 50–150 mm and
+    // grovida.us leaves "about 6 inches" apart on table grapes. Longer than 6 in is the shade or
+    // excess-vigour sign; 4–6 in (102–152 mm) is an ordinary cane.
+    shadeInternodeAboveMm: 152.4,
     // Common practice, no source.
     minorFaultsToRemove: 2,
   },
   budsPerCane: {
-    // 5/16 and 7/16 in: one sixteenth either side of 3/8 in. Common practice, no source.
-    normalFromMm: 7.9375,
+    // 7/16 in: one sixteenth above 3/8 in. Common practice, no source. Thin is canes.thinBelowMm.
     thickFromMm: 11.1125,
     // Common practice, no source; poorly ripened canes may carry only 6–8 nodes (grovida.us).
     thin: { min: 8, max: 10 },
@@ -154,6 +171,15 @@ export const DEFAULT_SETTINGS: ViticultureSettings = deepFreeze<ViticultureSetti
     budsPerSpur: 2,
     // Common practice, no source; OSU B919 allows spurs of 2 to 6 nodes.
     maxBudsPerSpur: 4,
+    // 3 in: A. Klodd, University of Minnesota Extension (Grapevine Magazine, Nov 2022): "one spur every
+    // 3-5 inches" along the cordon; the close end, so only a crowded plan is cut back.
+    minSpurSpacingMm: 76.2,
+  },
+  budLoad: {
+    // Ohio State, "2023 Grape Pruning Primer" (M. Smith): "approximately 4-6 buds per foot of vine
+    // spacing (e.g., if the vine spacing is 5-8', retain 20-50 buds per vine)".
+    minBudsPerFt: 4,
+    maxBudsPerFt: 6,
   },
   pruning: {
     // Ohio State 2023 primer, "Vinifera 20 + 20".
@@ -167,9 +193,13 @@ export const DEFAULT_SETTINGS: ViticultureSettings = deepFreeze<ViticultureSetti
   },
   budInjury: {
     // Cornell Northern New York Grape Update, "Evaluating bud injury and adjusting pruning"
-    // (28 Feb 2014): under 20% no extra buds, 20–80% leave that percentage more.
+    // (28 Feb 2014): "if <20% of buds are injured, you don't need to leave extra buds".
     extraFromPercent: 20,
-    minimalAbovePercent: 80,
+    // Purdue, Facts for Fancy Fruit, "Double pruning grapevines": ">50% bud damage- Minimally prune";
+    // the table-grape guide (grovida.us, MSU): "greater than 50% ... delay pruning until after bud
+    // break". Cornell's linear rule runs to 80%; past half the buds dead the two agree it is no longer
+    // a matter of counting.
+    minimalAbovePercent: 50,
   },
   ravaz: {
     // Wines & Vines, June 2017: "the optimum Ravaz Index ... can range from 5 to 10" (vinifera).
@@ -197,6 +227,15 @@ export const DEFAULT_SETTINGS: ViticultureSettings = deepFreeze<ViticultureSetti
     // From memory: wine-grape clusters run from about 50 g to over 250 g by variety and season, so
     // every block should enter its own; 100 g is a middling wine-grape cluster.
     clusterWeightG: 100,
+    // J. Fiola, University of Maryland Extension, "Crop Estimation": "cluster weights will double from
+    // lag phase to harvest", adding that "this multiplier is not a fixed number": set the block's own.
+    lagPhaseMultiplier: 2,
+    // From memory (Wolpert & Vilas, AJEV Technical Brief, 1992: their worked figures were not read): vine
+    // yields commonly vary with a CV near 30%. The Strickland (1932) uniformity trial at Rutherglen had
+    // a CV of 43.4% (agridat documentation), so measure the block's own when you can.
+    yieldCvPercent: 30,
+    // ±10%: BC Wine Grape Council best-practice guide, "a good estimate will not vary by more than 10%".
+    sampleMarginPercent: 10,
     // Common practice, no source: a replant carries its first real crop in its third leaf.
     bearingAfterSeasons: 2,
   },
@@ -261,7 +300,12 @@ function validateSettings(s: ViticultureSettings): void {
   validateFormula(s.pruning.formula);
   ascending('canes', ['veryThinBelowMm', 'thinBelowMm', 'bullAboveMm'], s.canes);
   ascending('canes', ['thinBelowMm', 'idealMm', 'bullAboveMm'], s.canes);
-  ascending('budsPerCane', ['normalFromMm', 'thickFromMm'], s.budsPerCane);
+  if (s.budsPerCane.thickFromMm < s.canes.thinBelowMm || s.budsPerCane.thickFromMm > s.canes.bullAboveMm) {
+    throw new RangeError('settings: canes.thinBelowMm <= budsPerCane.thickFromMm <= canes.bullAboveMm must hold');
+  }
+  ascending('budLoad', ['minBudsPerFt', 'maxBudsPerFt'], s.budLoad);
+  if (s.crop.lagPhaseMultiplier < 1) throw new RangeError('settings.crop.lagPhaseMultiplier must be at least 1: clusters do not shrink to harvest');
+  if (s.crop.sampleMarginPercent <= 0) throw new RangeError('settings.crop.sampleMarginPercent must be greater than 0');
   ascending('plan', ['canesPerVine', 'maxCanesPerVine'], s.plan);
   ascending('plan', ['budsPerSpur', 'maxBudsPerSpur'], s.plan);
   ascending('budbreak', ['failedBelowPercent', 'poorBelowPercent', 'weakBelowPercent'], s.budbreak);

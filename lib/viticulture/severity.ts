@@ -80,8 +80,8 @@ const RULES: { [K in ObservationKind]: Rule<K> } = {
     return INJURY_STEP[d.severity];
   },
   'missing-vine': (d) => VINE_STATE_SEVERITY[requireOneOf('state', d.state, VINE_STATES)],
-  // Cornell NNY 2014 bands (settings.budInjury): prune normally 0, leave extra buds 2, minimal or
-  // delayed pruning 3.
+  // settings.budInjury bands: prune normally 0 (under 20%, Cornell NNY 2014), leave extra buds 2,
+  // minimal or delayed pruning 3 (over 50%, Purdue Facts for Fancy Fruit; MSU).
   'bud-injury': (d, s) => {
     const advice = budInjuryAdjustment(0, primaryBudKillPercent(d.budsCut, d.primariesDead), s).advice;
     return advice === 'prune-normally' ? 0 : advice === 'leave-extra' ? 2 : 3;

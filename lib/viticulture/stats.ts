@@ -84,3 +84,18 @@ export function wilsonInterval(successes: number, trials: number, confidence = 0
   const upper = successes === trials ? 1 : Math.max(estimate, Math.min(1, centre + halfWidth));
   return { estimate, lower, upper };
 }
+
+/**
+ * Sample coefficient of variation in percent: the standard deviation with n − 1 over the mean × 100.
+ * Needs at least two values and a mean above 0.
+ */
+export function coefficientOfVariationPercent(values: readonly number[]): number {
+  if (values.length < 2) throw new RangeError('values must hold at least 2 numbers to give a coefficient of variation');
+  for (const v of values) {
+    if (typeof v !== 'number' || !Number.isFinite(v) || v < 0) throw new RangeError(`values must be finite numbers of 0 or more, got ${String(v)}`);
+  }
+  const mean = values.reduce((a, b) => a + b, 0) / values.length;
+  if (mean <= 0) throw new RangeError('values must have a mean greater than 0');
+  const variance = values.reduce((a, v) => a + (v - mean) ** 2, 0) / (values.length - 1);
+  return (Math.sqrt(variance) / mean) * 100;
+}

@@ -66,6 +66,21 @@ test('a manager opens the demo block’s report, changes the crop inputs, sees t
   const number = (text: string) => Number(text.replace(/[^\d.]/g, ''));
   expect(number(after) / number(before)).toBeCloseTo((2 * 130) / (1.5 * weight), 1);
 
+  // The report says what the estimate rests on and how many vines next season's sample needs
+  // (Wolpert & Vilas: from the CV of vine yields), and reads the bud load per foot of row.
+  await expect(page.getByTestId('crop-rests-on')).toContainText('budsPerVine: mean buds kept on');
+  await expect(page.getByTestId('crop-sampling')).toContainText(/weigh or count \d+ vines/);
+  await expect(page.getByTestId('bud-density')).toContainText(/buds kept per foot of row/);
+  // Counted clusters replace buds × budbreak × clusters per shoot; a lag-phase weight is doubled (UMD).
+  await page.getByLabel('Clusters counted per vine').fill('40');
+  await page.getByLabel('Weight of a cluster at lag phase').fill('65');
+  await expect(estimate).toContainText('clustersPerVine: 40');
+  await expect(estimate).toContainText('harvestClusterWeightG(65) = 65 g × 2');
+  await expect(page.getByTestId('crop-rests-on')).toHaveText('Rests on: clustersPerVine: entered; lagClusterWeightG: entered.');
+  await page.getByLabel('Clusters counted per vine').fill('');
+  await page.getByLabel('Weight of a cluster at lag phase').fill('');
+  await expect(total).toHaveText(after);
+
   // On paper: no navigation, toolbar or input boxes; the inputs used are printed instead; charts
   // and tables stay inside the page at A4 and at US Letter width.
   await page.emulateMedia({ media: 'print' });

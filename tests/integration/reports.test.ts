@@ -192,6 +192,32 @@ describe('GET /api/reports/blocks/:blockId', () => {
     expect(r.harvest.clusterWeightG.value).toBeCloseTo(6000 / 50, 12);
   });
 
+  it('reads the Ravaz index against the grape type asked for: 8 is balanced vinifera but under-cropped Concord (Bates, "Vine Size: Magic Number 15")', async () => {
+    const { report: r } = await report('&grapeType=concord');
+    expect(r.ravaz.index.value).toBeCloseTo(8, 12);
+    expect(r.ravaz).toMatchObject({ reading: 'under-cropped', range: { underBelow: 10, overAbove: 20 } });
+    expect(r.ravaz.rangeSource).toMatch(/Magic Number 15/);
+    // The Concord formula and range go together: 30 + 10 for the bud targets.
+    expect(r.budLoad.formula).toMatchObject({ firstUnitBuds: 30, perAdditionalUnitBuds: 10, grapeType: 'concord' });
+  });
+
+  it('checks the bud load per foot of row, sizes the yield sample from vine yields, and takes counted clusters and lag-phase weights', async () => {
+    const { report: r } = await report('&clustersPerVine=40&lagClusterWeightG=55');
+    // 27.3 buds kept on 1.2 m (3.94 ft) of row: 6.9 a foot, over Ohio State's 4–6 (16–24 a vine at this spacing).
+    expect(r.budLoad.density.kept.budsPerFt).toBeCloseTo(27.33333 / (1.2 / 0.3048), 4);
+    expect(r.budLoad.density.kept.rangePerVine).toEqual({ min: 16, max: 24 });
+    expect(r.budLoad.density.warning).toMatch(/above the 4–6 a foot/);
+    // One single-vine yield only: the default CV of 30% at ±10%, corrected for 28 bearing vines: 34.57 / (1 + 33.57 / 28) = 15.7 → 16.
+    expect(r.crop.sampling).toMatchObject({ cvPercent: 30, marginPercent: 10, vines: 16 });
+    // 28 vines × 40 clusters × 55 g × 2 (University of Maryland Extension).
+    expect(r.crop.estimate.kg).toBeCloseTo((28 * 40 * 110) / 1000, 9);
+    expect(r.crop.inputs.clustersPerVine).toMatchObject({ value: 40, source: 'entered' });
+    expect(r.crop.restsOn).toBe('clustersPerVine: entered; lagClusterWeightG: entered');
+    // Without them, the budbreak rests on every count of the season: 6 live vines' latest checks, weak or not.
+    const { report: plain } = await report();
+    expect(plain.crop.restsOn).toMatch(/budbreakPercent: budbreakPercent\(158, 109\) over every budbreak count of 2024: 6 vines, 3 of them weak/);
+  });
+
   it('estimates the crop and the pruning labour from the block, with the inputs shown and their sources', async () => {
     const { report: r } = await report();
     // 27 planted + the replant of 2021 (bearing by 2024); the 2023 replant is too young; 1 missing.
@@ -278,6 +304,8 @@ describe('GET /api/reports/blocks/:blockId', () => {
     expect((await new Client().fetch(`/api/reports/blocks/${block.id}`)).status).toBe(401);
     for (const [query, field] of [
       ['clusterWeightG=-1', 'clusterWeightG'],
+      ['clustersPerVine=-3', 'clustersPerVine'],
+      ['lagClusterWeightG=heavy', 'lagClusterWeightG'],
       ['season=twenty', 'season'],
       ['grapeType=muscat', 'grapeType'],
       ['budTarget=1.5', 'budTarget'],

@@ -178,4 +178,17 @@ describe('a vine’s pruning plan from its records', () => {
     expect(planFromObservations('other', [cane(9, '2026-01-20T09:00:00Z')]).plan).toBeNull();
     expect(planFromObservations('spur', [cane(9, '2026-01-20T09:00:00Z')]).plan).toEqual(planVine({ trainingSystem: 'spur', canes: [{ baseDiameterMm: 9 }] }));
   });
+
+  it('reads the plan per foot of row and caps spurs by the cordon when the vine spacing is known (Ohio State primer: 4–6 buds a foot)', () => {
+    const canes = Array.from({ length: 30 }, (_, i) => cane(9.5, `2026-01-20T09:${String(i).padStart(2, '0')}:00Z`));
+    // 4 lb of prunings (1.814 kg) under 20 + 20: 80 buds, at 5 ft (1.524 m) spacing 16 a foot.
+    const heavy = [...canes, { kind: 'pruning-record', data: { canesKept: 2, budsPerCane: 13, renewalSpurs: 2, pruningWeightKg: 4 * 0.45359237 }, observedAt: '2026-01-21T09:00:00Z' }];
+    const reading = planFromObservations('spur', heavy, 1.524);
+    expect(reading.plan!.targetBuds).toBe(80);
+    expect(reading.budLoad).toMatchObject({ reading: 'over', rangePerVine: { min: 20, max: 30 } });
+    expect(reading.budLoad!.budsPerFt).toBeCloseTo(16, 9);
+    // 1524 mm of cordon at one spur per 3 in (76.2 mm, UMN Extension): 20 spurs.
+    expect(reading.plan!.keep).toHaveLength(20);
+    expect(planFromObservations('spur', heavy).budLoad).toBeNull();
+  });
 });

@@ -61,7 +61,7 @@ function input(over: Partial<BlockReportInput> = {}): BlockReportInput {
       obs(1, 2, 'pruning-record', { canesKept: 2, budsPerCane: 10, renewalSpurs: 1 }, '2024-01-20'),
       obs(2, 1, 'pruning-record', { canesKept: 3, budsPerCane: 10, renewalSpurs: 0 }, '2024-01-20'),
       obs(1, 1, 'cane-diameter', { diameterMm: 9.5, exposure: 'sun', colourGood: true }, '2024-01-20'),
-      obs(1, 2, 'cane-diameter', { diameterMm: 8, longestInternodeMm: 130 }, '2024-01-20'),
+      obs(1, 2, 'cane-diameter', { diameterMm: 8, longestInternodeMm: 200 }, '2024-01-20'),
       obs(2, 2, 'shade-cane', { longestInternodeMm: 150, exposure: 'shade', colourGood: false, diameterMm: 7 }, '2024-11-20'),
       obs(1, 4, 'bud-injury', { budsCut: 20, primariesDead: 5 }, '2024-01-05'),
       obs(2, 4, 'bud-injury', { budsCut: 30, primariesDead: 10 }, '2024-01-05'),
@@ -175,9 +175,97 @@ describe('block report assembly', () => {
     expect(report.crop.basis.vines).toBe(8);
     expect(report.crop.inputs.budsPerVine.value).toBe(26.7);
     expect(report.crop.inputs.budbreakPercent.value).toBe(80);
-    expect(report.crop.inputs.clusterWeightG).toMatchObject({ value: 120, source: 'mean cluster weight of the 2023 harvest samples' });
+    expect(report.crop.inputs.clusterWeightG).toMatchObject({ value: 120, source: expect.stringMatching(/^mean cluster weight of the 2023 harvest samples \(\d+ vines, \d+ clusters\)$/) });
     expect(report.crop.estimate.kg).toBeCloseTo((8 * 26.7 * 0.8 * 1.5 * 120) / 1000, 9);
     expect(report.crop.estimate.tonnesPerHa).toBeCloseTo(report.crop.estimate.kg! / 1000 / (10 * 2.5 * 1.2 / 10000), 9);
+  });
+
+  it('reads Ravaz against the grape type: Concord vines at 15 are balanced, not over-cropped (Bates, Cornell LERGP, "Vine Size: Magic Number 15")', () => {
+    // A Concord-like vine and row: 15 kg on 1 kg of prunings, 60 kg on 4 kg over four vines.
+    const measurements = [
+      { kind: 'yield' as const, season: 2024, row: 1, position: 1, vines: 1, weightKg: 15, clusters: null },
+      { kind: 'pruning-weight' as const, season: 2025, row: 1, position: 1, vines: 1, weightKg: 1, clusters: null },
+    ];
+    const vinifera = buildBlockReport(input({ measurements }));
+    expect(vinifera.ravaz).toMatchObject({ reading: 'over-cropped', range: { underBelow: 5, overAbove: 10 } });
+    const concord = buildBlockReport(input({ measurements, options: { grapeType: 'concord' } }));
+    expect(concord.ravaz).toMatchObject({ reading: 'balanced', range: { underBelow: 10, overAbove: 20 } });
+    expect(concord.ravaz!.rangeSource).toMatch(/Magic Number 15/);
+    expect(concord.ravaz!.units[0]!.reading).toBe('balanced');
+  });
+
+  it('warns when the bud target crowds the row: 20 + 20 at 4 lb is 80 buds, 16 a foot at 5 ft spacing (Ohio State primer: 4–6)', () => {
+    const block = { ...input().block, vineSpacingM: 5 * 0.3048 };
+    const heavy = buildBlockReport(
+      input({ block, kindRows: [], measured: [obs(1, 1, 'pruning-record', { canesKept: 2, budsPerCane: 12, renewalSpurs: 2, pruningWeightKg: 4 * LB })], measurements: [] }),
+    );
+    const d = heavy.budLoad!.density;
+    expect(heavy.budLoad!.meanTarget!.value).toBe(80);
+    expect(d.target!.budsPerFt).toBeCloseTo(16, 9);
+    expect(d.target!.reading).toBe('over');
+    expect(d.kept.rangePerVine).toEqual({ min: 20, max: 30 });
+    expect(d.warning).toMatch(/16 buds per foot of row, above the 4–6 a foot \(20–30 a vine/);
+    // 28 buds kept on the same spacing: 5.6 a foot, inside the range.
+    expect(d.kept.reading).toBe('within');
+    // 1 lb of prunings under 20 + 20 is 20 buds: 4 a foot, the low end, no warning.
+    const light = buildBlockReport(
+      input({ block, kindRows: [], measured: [obs(1, 1, 'pruning-record', { canesKept: 2, budsPerCane: 8, renewalSpurs: 2, pruningWeightKg: LB })], measurements: [] }),
+    );
+    expect(light.budLoad!.meanTarget!.value).toBe(20);
+    expect(light.budLoad!.density.target!.reading).toBe('within');
+    expect(light.budLoad!.density.warning).toBeNull();
+  });
+
+  it('takes the crop estimate’s budbreak from every budbreak count, and not from weak vines alone', () => {
+    // The fixture's counts include vines that pushed well: the pooled 80% stands, with its vine count.
+    expect(report.crop.inputs.budbreakPercent.source).toMatch(/budbreakPercent\(100, 80\) over every budbreak count of 2024: 4 vines, 2 of them weak/);
+    const weakOnly = buildBlockReport(
+      input({ measured: [obs(1, 1, 'weak-budbreak', { budsRetained: 20, budsPushed: 8 }), obs(1, 2, 'weak-budbreak', { budsRetained: 20, budsPushed: 10 })] }),
+    );
+    // 40% and 50%, both under 75%: a sample of weak vines only is not the block's budbreak.
+    expect(weakOnly.crop.inputs.budbreakPercent.value).toBeNull();
+    expect(weakOnly.crop.inputs.budbreakPercent.source).toMatch(/all 2 vines counted pushed under 75%/);
+    expect(weakOnly.budbreak!.pooled.value).toBe(45);
+  });
+
+  it('says what the crop estimate rests on, and sizes next season’s sample from the CV of vine yields (Wolpert & Vilas 1992)', () => {
+    expect(report.crop.restsOn).toMatch(/budsPerVine: mean buds kept on 3 pruning records/);
+    expect(report.crop.restsOn).toMatch(/4 vines/);
+    // Under five single-vine yields in 2023 and 2024: the default CV of 30% at ±10% → (1.96 × 30 / 10)² = 34.6,
+    // corrected for the 8 bearing vines: 34.57 / (1 + 33.57 / 8) = 6.65 → 7.
+    expect(report.crop.sampling).toMatchObject({ cvPercent: 30, marginPercent: 10, vines: 7 });
+    const yields = [4, 5, 6, 5, 5].map((kg, i) => ({ kind: 'yield' as const, season: 2023, row: 1, position: i + 1, vines: 1, weightKg: kg, clusters: null }));
+    const own = buildBlockReport(input({ slots: { planted: 1000, replant: 0, missing: 0, dead: 0, bearingReplants: 0 }, measurements: yields }));
+    // 4, 5, 6, 5, 5 kg: sd 0.7071 over mean 5 = 14.14%; (1.96 × 14.14 / 10)² = 7.68, FPC over 1000 → 7.63 → 8.
+    expect(own.crop.sampling.cvPercent).toBeCloseTo(14.142, 3);
+    expect(own.crop.sampling.vines).toBe(8);
+  });
+
+  it('gives the crop the vines can ripen from the Ravaz range × pruning weight, with Concord’s 15 as a single target', () => {
+    const concord = buildBlockReport(input({ options: { grapeType: 'concord' } }));
+    const t = concord.crop.target!;
+    // 2024 prunings: vine 1/2 at 0.5 kg and row 2's 3.2 kg over 4 vines → 3.7 / 5 = 0.74 kg a vine.
+    expect(t.pruningKgPerVine).toBeCloseTo(0.74, 12);
+    expect(t.lowKgPerVine).toBeCloseTo(7.4, 12);
+    expect(t.highKgPerVine).toBeCloseTo(14.8, 12);
+    expect(t.targetKgPerVine).toBeCloseTo(11.1, 12);
+    expect(report.crop.target!.targetKgPerVine).toBeNull();
+    expect(report.crop.target!.highKgPerVine).toBeCloseTo(7.4, 12);
+  });
+
+  it('takes clusters counted per vine and a lag-phase cluster weight × 2 (University of Maryland Extension)', () => {
+    const counted = buildBlockReport(input({ options: { clustersPerVine: 30, lagClusterWeightG: 60 } }));
+    expect(counted.crop.estimate.kg).toBeCloseTo((8 * 30 * 120) / 1000, 9);
+    expect(counted.crop.estimate.how).toMatch(/clustersPerVine/);
+    const missing = buildBlockReport(input({ measured: [], options: { clustersPerVine: 30 } }));
+    expect(missing.crop.estimate.missing).toEqual([]);
+  });
+
+  it('advises minimal pruning, with no bud count, past half the primary buds dead (Purdue; MSU)', () => {
+    const dead = buildBlockReport(input({ measured: [...input().measured, obs(1, 3, 'bud-injury', { budsCut: 100, primariesDead: 90 }, '2024-01-06')] }));
+    expect(dead.budInjury!.kill.value).toBeGreaterThan(50);
+    expect(dead.budInjury!.adjusted).toMatchObject({ buds: null, advice: 'minimal-pruning' });
+    expect(dead.budInjury!.limits).toEqual({ extraFromPercent: 20, minimalAbovePercent: 50 });
   });
 
   it('uses entered inputs over the defaults and says so', () => {

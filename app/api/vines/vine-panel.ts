@@ -32,7 +32,7 @@ export async function vinePanel(member: Member, vine: VineRow) {
       summary: describeData(o.kind, o.data, member.unitSystem),
       photos: photos.filter((p) => p.observationId === o.id).map(({ observationId: _, ...p }) => p),
     })),
-    plan: planFromObservations(vine.trainingSystem, readings),
+    plan: planFromObservations(vine.trainingSystem, readings, vine.vineSpacingM),
     flags,
     comments,
     units: member.unitSystem,

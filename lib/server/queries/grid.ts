@@ -301,6 +301,8 @@ export interface VineRow {
   blockId: string;
   blockName: string;
   trainingSystem: string;
+  /** Metres between vines in the row: a bilateral cordon fills it, and bud load is read per length of it. */
+  vineSpacingM: number;
   vinesPerPanel: number | null;
   positionOrigin: string | null;
   row: number;
@@ -324,6 +326,8 @@ function vineQuery(db: Db, organisationId: string) {
       position: 'vp.position',
       status: 'vp.status',
       replantYear: 'vp.replant_year',
+      // A numeric column comes back as a string without the cast; knex's typed column map takes only names.
+      vineSpacingM: db.raw('b.vine_spacing_m::float8') as unknown as string,
     });
 }
 

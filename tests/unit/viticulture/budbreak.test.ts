@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { DEFAULT_SETTINGS, budInjuryAdjustment, budbreakPercent, isWeakBudbreak, primaryBudKillPercent } from '@/lib/viticulture';
+import { budInjuryAdjustment, budbreakPercent, isWeakBudbreak, primaryBudKillPercent } from '@/lib/viticulture';
 
 describe('budbreakPercent', () => {
   // Shoots from count nodes / count nodes retained × 100: the formula is from memory; the measure is
@@ -21,10 +21,9 @@ describe('budbreakPercent', () => {
 
 describe('isWeakBudbreak', () => {
   // No published threshold exists (check-values §5), so only the behaviour around the setting is tested.
-  it('is weak just under settings.budbreak.weakBelowPercent and not at it', () => {
-    const threshold = DEFAULT_SETTINGS.budbreak.weakBelowPercent;
-    expect(isWeakBudbreak(100, threshold - 1)).toBe(true);
-    expect(isWeakBudbreak(100, threshold)).toBe(false);
+  it('is weak under 75% and not at it (settings.budbreak.weakBelowPercent: common practice, no source)', () => {
+    expect(isWeakBudbreak(100, 74)).toBe(true);
+    expect(isWeakBudbreak(100, 75)).toBe(false);
   });
 
   it('follows a block\'s own threshold', () => {
@@ -54,7 +53,7 @@ describe('primaryBudKillPercent', () => {
   });
 });
 
-describe('budInjuryAdjustment (Cornell Northern New York Grape Update, "Evaluating bud injury and adjusting pruning", 2014)', () => {
+describe('budInjuryAdjustment (Cornell NNY Grape Update 2014 up to 50%; Purdue Facts for Fancy Fruit and the MSU table-grape guide above)', () => {
   it('leaves 35% more buds at 35% injury: a 40-bud target becomes 54', () => {
     expect(budInjuryAdjustment(40, 35)).toEqual({ buds: 54, advice: 'leave-extra' });
   });
@@ -68,14 +67,15 @@ describe('budInjuryAdjustment (Cornell Northern New York Grape Update, "Evaluati
     expect(budInjuryAdjustment(40, 19.9)).toEqual({ buds: 40, advice: 'prune-normally' });
   });
 
-  it('starts leaving extra at exactly 20% and still does at exactly 80%', () => {
+  it('starts leaving extra at exactly 20% and still does at exactly 50%', () => {
     expect(budInjuryAdjustment(40, 20)).toEqual({ buds: 48, advice: 'leave-extra' });
-    expect(budInjuryAdjustment(40, 80)).toEqual({ buds: 72, advice: 'leave-extra' });
+    expect(budInjuryAdjustment(40, 50)).toEqual({ buds: 60, advice: 'leave-extra' });
   });
 
-  it('advises minimal or delayed pruning above 80%, giving the 80% figure as the least to leave', () => {
-    expect(budInjuryAdjustment(40, 80.1)).toEqual({ buds: 72, advice: 'minimal-pruning' });
-    expect(budInjuryAdjustment(40, 100)).toEqual({ buds: 72, advice: 'minimal-pruning' });
+  it('advises minimal or delayed pruning above 50%, with no bud count (Purdue: ">50% bud damage- Minimally prune"; MSU: "greater than 50% ... delay pruning until after bud break")', () => {
+    expect(budInjuryAdjustment(40, 50.1)).toEqual({ buds: null, advice: 'minimal-pruning' });
+    expect(budInjuryAdjustment(40, 67)).toEqual({ buds: null, advice: 'minimal-pruning' });
+    expect(budInjuryAdjustment(40, 100)).toEqual({ buds: null, advice: 'minimal-pruning' });
   });
 
   it('rounds to whole buds, half up', () => {
@@ -87,7 +87,8 @@ describe('budInjuryAdjustment (Cornell Northern New York Grape Update, "Evaluati
 
   it('moves its bands with the settings', () => {
     expect(budInjuryAdjustment(40, 15, { budInjury: { extraFromPercent: 15 } }).advice).toBe('leave-extra');
-    expect(budInjuryAdjustment(40, 60, { budInjury: { minimalAbovePercent: 50 } })).toEqual({ buds: 60, advice: 'minimal-pruning' });
+    // A block that follows Cornell's linear rule all the way to its 80% sets it.
+    expect(budInjuryAdjustment(40, 60, { budInjury: { minimalAbovePercent: 80 } })).toEqual({ buds: 64, advice: 'leave-extra' });
   });
 
   it('rejects a negative target and a kill outside 0–100%', () => {

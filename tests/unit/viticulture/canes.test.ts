@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import { CANE_REASON_CODES, DEFAULT_SETTINGS, assessCane, caneReasonCode, inToMm, recommendedBudsPerCane } from '@/lib/viticulture';
+import { CANE_REASON_CODES, assessCane, caneReasonCode, inToMm, recommendedBudsPerCane } from '@/lib/viticulture';
 
-const { canes: limits, budsPerCane: bands } = DEFAULT_SETTINGS;
+// Every limit below is a literal from its source, never read back from DEFAULT_SETTINGS.
 // A pencil-thick (3/8 in) sun cane with WineSkills UK's ideal internode of about 60 mm.
 const good = { baseDiameterMm: inToMm(3 / 8), longestInternodeMm: 60, exposure: 'sun', colourGood: true, flat: false, origin: 'two-year-wood', injured: false } as const;
 
@@ -19,37 +19,39 @@ describe('assessCane', () => {
     expect(result).toEqual({ verdict: 'if-nothing-better', reasons: ['shade-cane: longest internode 140 mm exceeds 100 mm'] });
   });
 
-  it('judges internodes against the setting, not a fixed number (common practice, no source)', () => {
-    const limit = limits.shadeInternodeAboveMm;
-    expect(assessCane({ ...good, longestInternodeMm: limit }).verdict).toBe('fruit-cane');
-    expect(assessCane({ ...good, longestInternodeMm: limit + 1 }).verdict).toBe('if-nothing-better');
-    // American table grapes have leaves about 6 in (152 mm) apart (grovida.us): such a block raises the limit.
-    expect(assessCane({ ...good, longestInternodeMm: 150 }, { canes: { shadeInternodeAboveMm: 160 } }).verdict).toBe('fruit-cane');
+  it('takes ordinary 4–6 in internodes (102–152 mm) as a good cane and about 8 in (203 mm) as a shade cane (eXtension bull-cane page: "very long internodes (5-6 inches or more)")', () => {
+    expect(assessCane({ ...good, longestInternodeMm: 110 }).verdict).toBe('fruit-cane');
+    expect(assessCane({ ...good, longestInternodeMm: inToMm(4) }).verdict).toBe('fruit-cane');
+    expect(assessCane({ ...good, longestInternodeMm: inToMm(6) }).verdict).toBe('fruit-cane');
+    expect(assessCane({ ...good, longestInternodeMm: 153 }).verdict).toBe('if-nothing-better');
+    expect(assessCane({ ...good, longestInternodeMm: inToMm(8) }).reasons).toEqual(['shade-cane: longest internode 203.2 mm exceeds 152.4 mm']);
   });
 
   it('counts growth in shade as the same shade-cane fault, once, however many signs there are', () => {
-    const result = assessCane({ ...good, exposure: 'shade', longestInternodeMm: 140 });
+    const result = assessCane({ ...good, exposure: 'shade', longestInternodeMm: 200 });
     expect(result.verdict).toBe('if-nothing-better');
-    expect(result.reasons).toEqual(['shade-cane: longest internode 140 mm exceeds 100 mm; grew in shade']);
+    expect(result.reasons).toEqual(['shade-cane: longest internode 200 mm exceeds 152.4 mm; grew in shade']);
     expect(assessCane({ ...good, exposure: 'partial' }).verdict).toBe('fruit-cane');
   });
 
-  it('makes a cane under 1/4 in thin (grovida.us "1/4 inch or more"; Yuma Sun 2022 "1/4-1/2 inch")', () => {
-    expect(limits.thinBelowMm).toBeCloseTo(inToMm(1 / 4), 12);
-    expect(assessCane({ ...good, baseDiameterMm: 6.0 })).toEqual({ verdict: 'if-nothing-better', reasons: ['thin: base diameter 6 mm is under 6.35 mm'] });
-    expect(assessCane({ ...good, baseDiameterMm: 6.35 }).verdict).toBe('fruit-cane');
+  it('makes a cane under 5/16 in thin (F. Westover, Wines & Vines, May 2016: fruitful wood "between 5/16 and a half inch")', () => {
+    expect(assessCane({ ...good, baseDiameterMm: 7.9 })).toEqual({ verdict: 'if-nothing-better', reasons: ['thin: base diameter 7.9 mm is under 7.94 mm'] });
+    expect(assessCane({ ...good, baseDiameterMm: inToMm(5 / 16) }).verdict).toBe('fruit-cane');
+    // A block following the garden sources' 1/4 in (grovida.us, Yuma Sun 2022) sets it.
+    expect(assessCane({ ...good, baseDiameterMm: 7 }, { canes: { thinBelowMm: inToMm(1 / 4) } }).verdict).toBe('fruit-cane');
   });
 
-  it('makes a cane over 1/2 in a bull cane (upper end of the Yuma Sun 2022 range)', () => {
-    expect(limits.bullAboveMm).toBeCloseTo(inToMm(1 / 2), 12);
-    expect(assessCane({ ...good, baseDiameterMm: 12.7 }).verdict).toBe('fruit-cane');
-    expect(assessCane({ ...good, baseDiameterMm: 14 })).toEqual({ verdict: 'if-nothing-better', reasons: ['bull-cane: base diameter 14 mm exceeds 12.7 mm'] });
+  it('removes a bull cane over 1/2 in: "poor selections ... for spurs or fruiting canes" (eXtension, "What are bull canes")', () => {
+    expect(assessCane({ ...good, baseDiameterMm: inToMm(1 / 2) }).verdict).toBe('fruit-cane');
+    expect(assessCane({ ...good, baseDiameterMm: 14 })).toEqual({ verdict: 'remove', reasons: ['bull-cane: base diameter 14 mm exceeds 12.7 mm'] });
+    expect(assessCane({ ...good, baseDiameterMm: 14 }, { canes: { bullAboveMm: 16 } }).verdict).toBe('fruit-cane');
   });
 
-  it('removes a very thin cane outright (below the setting; common practice, no source)', () => {
-    const result = assessCane({ ...good, baseDiameterMm: limits.veryThinBelowMm - 0.5 });
+  it('removes a very thin cane outright, under 3/16 in (4.8 mm; common practice, no source)', () => {
+    const result = assessCane({ ...good, baseDiameterMm: 4.7 });
     expect(result.verdict).toBe('remove');
     expect(caneReasonCode(result.reasons[0])).toBe('very-thin');
+    expect(assessCane({ ...good, baseDiameterMm: 4.8 }).reasons.map(caneReasonCode)).toEqual(['thin']);
   });
 
   it('removes an injured cane and a trunk shoot whatever else is right with them', () => {
@@ -68,15 +70,15 @@ describe('assessCane', () => {
     }
   });
 
-  it('removes a cane once its minor faults reach settings.canes.minorFaultsToRemove', () => {
+  it('removes a cane with two minor faults (settings.canes.minorFaultsToRemove; common practice, no source)', () => {
     const twoFaults = { ...good, flat: true, colourGood: false };
-    expect(limits.minorFaultsToRemove).toBe(2);
+    expect(assessCane({ ...good, flat: true }).verdict).toBe('if-nothing-better');
     expect(assessCane(twoFaults).verdict).toBe('remove');
     expect(assessCane(twoFaults, { canes: { minorFaultsToRemove: 3 } }).verdict).toBe('if-nothing-better');
   });
 
   it('lists disqualifying faults before minor ones, each reason opening with a known code', () => {
-    const result = assessCane({ baseDiameterMm: 14, longestInternodeMm: 150, exposure: 'shade', colourGood: false, flat: true, origin: 'older-wood', injured: true });
+    const result = assessCane({ baseDiameterMm: 14, longestInternodeMm: 200, exposure: 'shade', colourGood: false, flat: true, origin: 'older-wood', injured: true });
     const codes = result.reasons.map(caneReasonCode);
     expect(codes).toEqual(['injured', 'bull-cane', 'shade-cane', 'poor-colour', 'flat', 'older-wood']);
     expect(codes.every((code) => code !== undefined && CANE_REASON_CODES.includes(code))).toBe(true);
@@ -100,15 +102,25 @@ describe('recommendedBudsPerCane', () => {
     expect(recommendedBudsPerCane(inToMm(3 / 8))).toEqual({ min: 12, max: 14 });
   });
 
-  it('gives more, 16–18, to a thicker, more vigorous cane (common practice, no source)', () => {
+  it('gives more, 16–18, to a thick cane from 7/16 in up to the 1/2 in bull-cane limit (product brief; common practice, no source)', () => {
     expect(recommendedBudsPerCane(12)).toEqual({ min: 16, max: 18 });
-    expect(recommendedBudsPerCane(bands.thickFromMm)).toEqual(bands.thick);
+    expect(recommendedBudsPerCane(11.2)).toEqual({ min: 16, max: 18 }); // just over 7/16 in (11.11 mm)
+    expect(recommendedBudsPerCane(inToMm(1 / 2))).toEqual({ min: 16, max: 18 });
   });
 
-  it('gives fewer to a thin cane', () => {
-    const thin = recommendedBudsPerCane(7);
-    expect(thin).toEqual(bands.thin);
-    expect(thin.max).toBeLessThan(bands.normal.min);
+  it('gives a bull cane no extra buds: bull canes are "poorly fruitful or unfruitful" (eXtension)', () => {
+    expect(recommendedBudsPerCane(14)).toEqual({ min: 12, max: 14 });
+  });
+
+  it('gives 8–10 to a thin cane, with the same 5/16 in limit assessCane calls thin (Westover, Wines & Vines, May 2016)', () => {
+    expect(recommendedBudsPerCane(7)).toEqual({ min: 8, max: 10 });
+    expect(recommendedBudsPerCane(7.9)).toEqual({ min: 8, max: 10 });
+    expect(recommendedBudsPerCane(inToMm(5 / 16))).toEqual({ min: 12, max: 14 });
+    // One limit: a cane the verdict calls thin is never given the normal band.
+    for (const d of [5, 6.35, 7, 7.9, 7.93]) {
+      expect(caneReasonCode(assessCane({ ...good, baseDiameterMm: d }).reasons[0] ?? '')).toBe('thin');
+      expect(recommendedBudsPerCane(d)).toEqual({ min: 8, max: 10 });
+    }
   });
 
   it('stays within the 10–20 nodes of a cane and the 5–15 buds of the Oxford Companion for the normal band (OSU B919; Robinson 2006)', () => {
@@ -118,7 +130,8 @@ describe('recommendedBudsPerCane', () => {
   });
 
   it('moves its breakpoints with the settings', () => {
-    expect(recommendedBudsPerCane(9.5, { budsPerCane: { thickFromMm: 9 } })).toEqual(bands.thick);
+    expect(recommendedBudsPerCane(9.5, { budsPerCane: { thickFromMm: 9 } })).toEqual({ min: 16, max: 18 });
+    expect(recommendedBudsPerCane(7, { canes: { thinBelowMm: 6.35 } })).toEqual({ min: 12, max: 14 });
     expect(recommendedBudsPerCane(9.5, { budsPerCane: { normal: { min: 10, max: 12 } } })).toEqual({ min: 10, max: 12 });
   });
 

@@ -1,7 +1,11 @@
 import { describe, expect, it } from 'vitest';
 import {
   RAVAZ_PRESETS,
+  RAVAZ_TARGETS,
   SHORT_TON_KG,
+  cropLoadTargetKg,
+  harvestClusterWeightG,
+  ravazRangeFor,
   cropShortTonsPerAcre,
   cropTonnesPerHa,
   estimateCrop,
@@ -111,5 +115,40 @@ describe('estimatePruningLabour', () => {
 
   it('rejects negative inputs', () => {
     expect(() => estimatePruningLabour({ vines: 10, minutesPerVine: -1, hourlyCost: 10 })).toThrow(/minutesPerVine/);
+  });
+});
+
+describe('Ravaz by grape type, crop-load target, lag phase and counted clusters', () => {
+  it('reads a Concord vine at Ravaz 15 as balanced, not over-cropped (T. Bates, Cornell LERGP, "Vine Size: Magic Number 15")', () => {
+    expect(ravazRangeFor('concord')).toEqual({ underBelow: 10, overAbove: 20 });
+    expect(readRavaz(15, { ravaz: ravazRangeFor('concord') })).toBe('balanced');
+    expect(readRavaz(15, { ravaz: ravazRangeFor('vinifera') })).toBe('over-cropped');
+    // Ohio State's "American" row is Concord-type.
+    expect(ravazRangeFor('american')).toEqual({ underBelow: 10, overAbove: 20 });
+    // Types with no published range read against settings.ravaz (Wines & Vines 2017: 5–10).
+    expect(ravazRangeFor('niagara')).toEqual({ underBelow: 5, overAbove: 10 });
+    expect(ravazRangeFor(null, { ravaz: { underBelow: 6, overAbove: 9 } })).toEqual({ underBelow: 6, overAbove: 9 });
+  });
+
+  it('sets the crop a vine can ripen at Ravaz target × pruning weight: 15 × 1.5 kg = 22.5 kg for Concord (Bates)', () => {
+    expect(RAVAZ_TARGETS.concord).toBe(15);
+    expect(cropLoadTargetKg(1.5, 15)).toBeCloseTo(22.5, 12);
+    // The Oakville spur-pruned vine: 1.30 kg of prunings at its published Ravaz 7.5 carries 9.75 kg, the published 9.8 kg to one decimal (AJEV Table 4).
+    expect(Math.round(cropLoadTargetKg(1.3, 7.5) * 10) / 10).toBeCloseTo(9.8, 12);
+    expect(() => cropLoadTargetKg(1, 0)).toThrow(/ravazTarget/);
+  });
+
+  it('doubles lag-phase cluster weight for harvest (J. Fiola, University of Maryland Extension: "cluster weights will double")', () => {
+    expect(harvestClusterWeightG(60)).toBe(120);
+    // "this multiplier is not a fixed number": a block's own history sets it.
+    expect(harvestClusterWeightG(60, { crop: { lagPhaseMultiplier: 1.8 } })).toBeCloseTo(108, 12);
+    expect(() => harvestClusterWeightG(-1)).toThrow(/lagPhaseClusterWeightG/);
+  });
+
+  it('takes clusters counted per vine directly, as Dami\'s PY = ANV × NC × CW (OSU, "How to Estimate Grape Yields")', () => {
+    // 767 vines × 40 clusters × 0.25 lb / 2000 = 3.835 tons, as in the first test.
+    const kg = estimateCropKg({ vines: 767, clustersPerVine: 40, clusterWeightG: lbToKg(0.25) * 1000 });
+    expect(cropShortTonsPerAcre(kg, 1)).toBeCloseTo(3.835, 10);
+    expect(() => estimateCropKg({ vines: 10, clustersPerVine: -1, clusterWeightG: 100 })).toThrow(/clustersPerVine/);
   });
 });

@@ -96,7 +96,7 @@ describe('planVine, spur pruning', () => {
   it('cuts kept canes to two-bud spurs with no separate renewal spurs (Oxford Companion, "spur pruning": "only two buds")', () => {
     const canes = Array.from({ length: 20 }, () => normal());
     const plan = planVine({ trainingSystem: 'spur', canes });
-    expect(plan.keep).toHaveLength(DEFAULT_SETTINGS.plan.spursPerVine);
+    expect(plan.keep).toHaveLength(12); // settings.plan.spursPerVine: common practice, no source
     expect(new Set(plan.budsPerCane)).toEqual(new Set([2]));
     expect(plan).toMatchObject({ renewalSpurs: 0, budsPerRenewalSpur: 0, totalBuds: 24 });
   });
@@ -107,6 +107,29 @@ describe('planVine, spur pruning', () => {
     expect(plan.targetBuds).toBe(40);
     expect(plan.keep).toHaveLength(20);
     expect(plan.totalBuds).toBe(40);
+  });
+
+  it('meets an odd target exactly: 41 buds is 19 two-bud spurs and one of three, not 21 spurs and 42 buds', () => {
+    const canes = Array.from({ length: 30 }, () => normal());
+    // 20 + 20 at 2.05 lb: 20 + 20 × 1.05 = 41.
+    const plan = planVine({ trainingSystem: 'spur', canes, pruningWeight: 2.05, formula: F.vinifera });
+    expect(plan.targetBuds).toBe(41);
+    expect(plan.totalBuds).toBe(41);
+    expect(plan.keep).toHaveLength(20);
+    expect(plan.notes).toEqual([]);
+  });
+
+  it('keeps no more spurs than fit the cordon at one every 3 in (A. Klodd, UMN Extension: "one spur every 3-5 inches")', () => {
+    const canes = Array.from({ length: 30 }, () => normal());
+    // 1.2 m of cordon = 1200 / 76.2 = 15.7 → 15 spurs; 40 buds then need spurs of 2–3 buds.
+    const plan = planVine({ trainingSystem: 'spur', canes, pruningWeight: 2, formula: F.concord, cordonLengthM: 1.2 });
+    expect(plan.keep).toHaveLength(15);
+    expect(plan.totalBuds).toBe(40);
+    expect(Math.max(...plan.budsPerCane)).toBe(3);
+    expect(plan.notes.map(code)).toEqual(['cordon-full']);
+    // Without a cordon length nothing caps it.
+    expect(planVine({ trainingSystem: 'spur', canes, pruningWeight: 2, formula: F.concord }).keep).toHaveLength(20);
+    expect(() => planVine({ trainingSystem: 'spur', canes, cordonLengthM: 0 })).toThrow(/cordonLengthM/);
   });
 
   it('lengthens spurs up to settings.plan.maxBudsPerSpur when canes run short', () => {

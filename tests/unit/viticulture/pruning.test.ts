@@ -14,11 +14,17 @@ describe('balanced pruning formulas', () => {
     expect(F.concord).toEqual({ firstUnitBuds: 30, perAdditionalUnitBuds: 10, unit: 'lb' });
   });
 
-  it('gives the remembered cultivar rows (from memory: Niagara and Catawba 25 + 10, Delaware 20 + 10, large-cluster hybrids 10 + 10)', () => {
-    expect([F.niagara, F.catawba, F.delaware, F['hybrid-small-cluster'], F['hybrid-large-cluster']].map((f) => [
+  it('gives Catawba 30 + 10: "Using the 30 + 10 pruning formula recommended for Catwaba" (Missouri State Fruit Experiment Station, "Grape pruning begins", 8 Nov 2012)', () => {
+    expect(F.catawba).toEqual({ firstUnitBuds: 30, perAdditionalUnitBuds: 10, unit: 'lb' });
+    // Their 2009 post: a 2.55 lb average vine "translates to about 45 buds" (30 + 10 gives 45.5; 25 + 10 would give 40.5).
+    expect(balancedPruningBuds(2.55, F.catawba)).toBe(45);
+  });
+
+  it('gives the remembered cultivar rows (from memory: Niagara 25 + 10, Delaware 20 + 10, large-cluster hybrids 10 + 10)', () => {
+    expect([F.niagara, F.delaware, F['hybrid-small-cluster'], F['hybrid-large-cluster']].map((f) => [
       f.firstUnitBuds,
       f.perAdditionalUnitBuds,
-    ])).toEqual([[25, 10], [25, 10], [20, 10], [20, 10], [10, 10]]);
+    ])).toEqual([[25, 10], [20, 10], [20, 10], [10, 10]]);
   });
 
   it('lists every grape type once and cannot be changed at run time', () => {

@@ -1,5 +1,45 @@
 import { describe, expect, it } from 'vitest';
-import { detectionSampleSize, sampleSizeForProportion, samplingPlan, type VineAddress } from '@/lib/viticulture';
+import { coefficientOfVariationPercent, detectionSampleSize, sampleSizeForMean, sampleSizeForProportion, samplingPlan, type VineAddress } from '@/lib/viticulture';
+
+describe('sampleSizeForMean (Wolpert & Vilas, "Estimating vineyard yields", AJEV Technical Brief, 1992)', () => {
+  it('samples 35 vines for a mean yield within ±10% when vine yields vary with a CV of 30%: (1.96 × 30 / 10)² = 34.6', () => {
+    expect(sampleSizeForMean(30, 10)).toBe(35);
+  });
+
+  it('grows with the spread and shrinks with the margin allowed', () => {
+    // Strickland's 1932 Rutherglen uniformity trial had a CV of 43.4% (agridat documentation): (1.96 × 43.4 / 10)² = 72.4.
+    expect(sampleSizeForMean(43.4, 10)).toBe(73);
+    // ±5% needs four times the vines: (1.96 × 30 / 5)² = 138.3.
+    expect(sampleSizeForMean(30, 5)).toBe(139);
+  });
+
+  it('applies the finite-population correction for a small block, and never asks for more vines than it has', () => {
+    // 34.57 / (1 + 33.57 / 100) = 25.9 → 26.
+    expect(sampleSizeForMean(30, 10, 0.95, 100)).toBe(26);
+    expect(sampleSizeForMean(200, 1, 0.95, 40)).toBeLessThanOrEqual(40);
+  });
+
+  it('is not the proportion formula: 800 vines need 260 for a proportion but 34 for a CV-30% mean', () => {
+    expect(sampleSizeForProportion(800)).toBe(260);
+    expect(sampleSizeForMean(30, 10, 0.95, 800)).toBe(34);
+  });
+
+  it('rejects a zero CV or margin', () => {
+    expect(() => sampleSizeForMean(0)).toThrow(/cvPercent/);
+    expect(() => sampleSizeForMean(30, 0)).toThrow(/marginPercent/);
+  });
+});
+
+describe('coefficientOfVariationPercent', () => {
+  it('is the sample standard deviation (n − 1) over the mean: 2, 4, 4, 4, 5, 5, 7, 9 → 2.138 / 5 = 42.76%', () => {
+    expect(coefficientOfVariationPercent([2, 4, 4, 4, 5, 5, 7, 9])).toBeCloseTo(42.762, 3);
+  });
+
+  it('needs two values and a positive mean', () => {
+    expect(() => coefficientOfVariationPercent([3])).toThrow(RangeError);
+    expect(() => coefficientOfVariationPercent([0, 0])).toThrow(/mean/);
+  });
+});
 
 describe('sampleSizeForProportion', () => {
   it('samples 260 of about 800 vines for a 5% error (WSU, M. Olmstead, "Yield Estimation", 2006)', () => {
