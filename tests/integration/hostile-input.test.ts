@@ -98,6 +98,8 @@ const ROWS: Record<string, Row> = {
   },
   'GET /api/comments': { path: () => `/api/comments?subject=observation&id=${randomUUID()}`, idQuery: ['id'] },
   'POST /api/comments': { body: 'json', foreign: () => '/api/comments' },
+  'GET /api/desk': {},
+  'POST /api/desk/seen': { body: 'none' },
   'GET /api/field/blocks/[blockId]': { foreign: (t) => `/api/field/blocks/${t.block}` },
   'GET /api/field/blocks/[blockId]/vine': { foreign: (t) => `/api/field/blocks/${t.block}/vine?row=1&position=1` },
   'GET /api/flags': { idQuery: ['block'] },
