@@ -1,0 +1,5 @@
+import { memberRoute } from '@/lib/server/http';
+import { loadDoneRows } from '@/lib/server/services/row-work';
+
+/** Rows done end to end this season, per pass: the phone keeps the last copy for use without signal. */
+export const GET = memberRoute({}, async (member, { params }) => loadDoneRows(member, String(params.blockId)));
