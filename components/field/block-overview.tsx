@@ -2,10 +2,11 @@
 
 import { useTranslations } from 'next-intl';
 import { ReiWarning } from '@/components/field/rei-warning';
+import { RowWorkPanel } from '@/components/field/row-work-panel';
 import { Notice } from '@/components/ui/field';
 import { useFieldLayout } from '@/lib/offline/use-field-layout';
 
-export function BlockOverview({ blockId }: { blockId: string }) {
+export function BlockOverview({ blockId, owner, recordsWork = false }: { blockId: string; owner?: string; recordsWork?: boolean }) {
   const t = useTranslations('field');
   const { data, isPending, isError } = useFieldLayout(blockId);
   if (isPending) return <p>{t('loading')}</p>;
@@ -36,6 +37,7 @@ export function BlockOverview({ blockId }: { blockId: string }) {
           </ul>
         </section>
       )}
+      {recordsWork && owner && <RowWorkPanel owner={owner} blockId={blockId} rows={data.rows} />}
       <section>
         <h2 className="mb-2 text-xl font-bold">{t('rows')}</h2>
         <ul className="grid grid-cols-4 gap-2">

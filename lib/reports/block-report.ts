@@ -58,6 +58,7 @@ import {
 } from './estimates';
 import { call, formatCount, formatNumber, formatPercent, formatShare, formatWeightKg } from './format';
 import { seasonBounds } from './season';
+import type { RecordedLabour } from '@/lib/work/recorded';
 
 // Query rows --------------------------------------------------------------------------------------
 
@@ -174,6 +175,8 @@ export interface BlockReportInput {
   replant: ReplantSlot[];
   /** Null when the tasks table is not there (an older database). */
   tasks: TaskRow[] | null;
+  /** Row work the crews recorded this season; absent when not loaded. */
+  recordedLabour?: RecordedLabour | null;
   options: ReportOptions;
   settings?: ViticultureSettings;
 }
@@ -341,7 +344,7 @@ export interface BlockReport {
   ravazNote: string;
   harvest: HarvestSection | null;
   crop: { basis: CropBasis; inputs: CropInputs; estimate: CropEstimate };
-  labour: { basis: LabourBasis; inputs: LabourInputs; estimate: LabourEstimate };
+  labour: { basis: LabourBasis; inputs: LabourInputs; estimate: LabourEstimate; recorded: RecordedLabour | null };
   budInjury: BudInjurySection | null;
   tasks: TaskSection;
   replant: ReplantSection;
@@ -904,7 +907,7 @@ export function buildBlockReport(input: BlockReportInput): BlockReport {
         : `No vine or row sample has both a yield (${input.season - 1} or ${input.season} harvest) and the next winter's pruning weight. Enter weights under "Yields and pruning weights".`,
     harvest: harvestSection(input, input.units),
     crop: { basis: cropBasis, inputs: inputs.crop, estimate: cropEstimate(cropBasis, inputs.crop) },
-    labour: { basis: labourBasis, inputs: inputs.labour, estimate: labourEstimate(labourBasis, inputs.labour, s) },
+    labour: { basis: labourBasis, inputs: inputs.labour, estimate: labourEstimate(labourBasis, inputs.labour, s), recorded: input.recordedLabour ?? null },
     budInjury: budInjurySection(input, budLoad, s),
     tasks: taskSection(input.tasks),
     replant: replantSection(input),

@@ -33,7 +33,7 @@ export const rowWorkRecordSchema = z
     }
     if (Date.parse(r.finishedAt) > Date.now() + 24 * 3600 * 1000) ctx.addIssue({ code: 'custom', message: 'Cannot be in the future', path: ['finishedAt'] });
     // A whole crew cannot log more hours than it has people for the day (with margin for a late finish).
-    if (r.personHours > r.crewSize * 24) ctx.addIssue({ code: 'custom', message: `At most ${r.crewSize * 24} person-hours for a crew of ${r.crewSize}`, path: ['personHours'] });
+    if (r.crewSize >= 1 && r.personHours > r.crewSize * 24) ctx.addIssue({ code: 'custom', message: `At most ${r.crewSize * 24} person-hours for a crew of ${r.crewSize}`, path: ['personHours'] });
   });
 
 export type RowWorkRecord = z.infer<typeof rowWorkRecordSchema>;
@@ -52,8 +52,8 @@ export const progressQuerySchema = z.strictObject({
 
 const rate = z.union([z.literal('').transform(() => null), z.coerce.number('Must be a number').min(0, 'Cannot be negative').max(100000, 'At most 100000')]);
 
-/** The manager's pay-basis form. */
-export const payBasisSchema = z.strictObject({
+/** The manager's pay-basis form (a plain object: the form data carries the framework's own fields too). */
+export const payBasisSchema = z.object({
   basis: z.enum(PAY_BASES, 'Choose hourly or piece rate'),
   hourlyRate: rate,
   pieceRatePerVine: rate,

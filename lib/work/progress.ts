@@ -63,6 +63,8 @@ export interface PassProgress {
 export type RowState = 'done' | 'partly' | 'none';
 
 export interface PassDetail extends PassProgress {
+  /** Person-hours for the whole pass at the pace so far, else the estimate. */
+  projectedHours: number | null;
   /** The state of each row in `block.rows` order. */
   rowStates: RowState[];
   leads: { userId: string | null; name: string | null; vines: number; personHours: number; vinesPerPersonHour: number | null }[];
@@ -107,6 +109,7 @@ export function buildBlockProgress(facts: ProgressFacts): BlockProgress {
       projectedFinish: projectFinish({ vinesDone, vineCount: block.vineCount, workDays: days }),
       costToDate: round(workCost(pay, { personHours, vines: vinesDone })),
       projectedCost: round(projectedWorkCost(pay, { vineCount: block.vineCount, projectedHours })),
+      projectedHours: round(projectedHours),
       rowStates: block.rows.map((n) => {
         const r = byRow.get(n);
         return r?.whole ? 'done' : r ? 'partly' : 'none';
@@ -127,6 +130,6 @@ export function buildBlockProgress(facts: ProgressFacts): BlockProgress {
 
 /** The contract's shape: only the fields DESIGN.md names. */
 export function toContract(p: PassDetail): PassProgress {
-  const { rowStates: _r, leads: _l, workDays: _w, lastWorked: _d, ...contract } = p;
+  const { rowStates: _r, leads: _l, workDays: _w, lastWorked: _d, projectedHours: _h, ...contract } = p;
   return contract;
 }

@@ -21,6 +21,7 @@ import { hashPayload, rejected, settleOnce, validateRecords, type SyncResult, ty
 import { rowWorkRecordSchema, type RowWorkRecord } from '@/lib/validation/row-work';
 import { buildBlockProgress, toContract, type BlockProgress, type PassProgress } from '@/lib/work/progress';
 import type { PayBasis } from '@/lib/work/cost';
+import { recordedLabour } from '@/lib/work/recorded';
 
 const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 
@@ -103,6 +104,11 @@ export async function syncRowWork(member: Member, records: unknown[]): Promise<S
   return results;
 }
 
+export async function loadPayBasis(organisationId: string): Promise<PayBasis> {
+  const { seasonStartMonth: _s, ...pay } = await getPayBasis(db(), organisationId);
+  return pay;
+}
+
 export interface EstateProgress {
   season: number;
   seasonStartMonth: number;
@@ -142,6 +148,12 @@ export async function loadBlockProgress(member: Member, blockId: string, season 
   const block = progress.blocks[0];
   if (!block) throw new AppError('not-found', 'There is no such block in your organisation.');
   return { ...progress, block };
+}
+
+/** The season's recorded row work of one block, for the season report's labour section. */
+export async function loadRecordedLabour(organisationId: string, blockId: string, season: number) {
+  const progress = await progressOf(organisationId, season, [blockId]);
+  return progress.blocks[0] ? recordedLabour(progress.blocks[0]) : null;
 }
 
 /** GET /api/blocks/{id}/progress, exactly the fields of the contract. */
