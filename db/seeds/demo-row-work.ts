@@ -34,11 +34,9 @@ interface Plan {
   lastRowTo?: number;
 }
 
-const rosa = DEMO_USERS.find((u) => u.role === 'pruner')!.id;
-const [maren, tavi] = DEMO_CREW_LEADS.map((c) => c.id) as [string, string];
-
 // Cane-pruned blocks estimate 1.75 min a vine (about 34 vines a person-hour), spur-pruned 1 min (60).
-const PLANS: Plan[] = [
+// A function, not a constant: demo.ts imports this file before its own DEMO_USERS exists.
+const plans = (rosa: string, maren: string, tavi: string): Plan[] => [
   { block: 'Upper Terrace', lead: rosa, pass: 'pruning', rows: [1, 20], pace: 38, crew: 4, startDaysAgo: 20, rowsPerDay: 2, lastRowTo: 30 },
   { block: 'Upper Terrace', lead: rosa, pass: 'brush-removal', rows: [1, 16], pace: 120, crew: 2, startDaysAgo: 18, rowsPerDay: 2 },
   { block: 'Upper Terrace', lead: rosa, pass: 'tying', rows: [1, 12], pace: 70, crew: 3, startDaysAgo: 16, rowsPerDay: 2 },
@@ -63,10 +61,12 @@ export async function seedDemoRowWork(knex: Knex, organisationId: string) {
     .ignore();
   await knex('organisations').where({ id: organisationId, hourly_rate: null, piece_rate_per_vine: null }).update({ pay_basis: 'hourly', hourly_rate: 28 });
 
+  const rosa = DEMO_USERS.find((u) => u.role === 'pruner')!.id;
+  const [maren, tavi] = DEMO_CREW_LEADS.map((c) => c.id) as [string, string];
   const today = new Date();
   today.setUTCHours(0, 0, 0, 0);
   const records = [];
-  for (const plan of PLANS) {
+  for (const plan of plans(rosa, maren, tavi)) {
     const block = DEMO_BLOCKS.find((b) => b.name === plan.block)!;
     for (let row = plan.rows[0]; row <= plan.rows[1]; row++) {
       const i = row - plan.rows[0];
