@@ -45,9 +45,10 @@ export function BlockOverview({ blockId, owner, recordsWork = false }: { blockId
             <li key={r.row}>
               <a
                 href={walk(`row=${r.row}&position=1`)}
-                aria-label={t('walkRow', { row: r.row })}
                 className="flex min-h-16 flex-col items-center justify-center rounded-xl border-2 border-line bg-panel no-underline hover:border-rootstock"
               >
+                {/* The name read aloud starts with the visible text's words, so voice control finds it (WCAG 2.5.3). */}
+                <span className="sr-only">{t('walkRowPrefix')} </span>
                 <span className="text-xl font-extrabold">{r.row}</span>
                 <span className="text-xs text-bark-soft">{t('rowVines', { count: r.vineCount })}</span>
               </a>

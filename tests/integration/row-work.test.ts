@@ -213,6 +213,17 @@ describe('GET /api/blocks/{id}/progress', () => {
     expect(pass(await progress(as.manager), 'pruning')).toMatchObject({ costToDate: null, projectedCost: null });
   });
 
+  it('shows the recorded hours and cost beside the estimate in the season report’s labour section', async () => {
+    await testDb()('organisations').where({ id: team.org.id }).update({ pay_basis: 'hourly', hourly_rate: 20, piece_rate_per_vine: null });
+    const res = await as.advisor.fetch(`/api/reports/blocks/${progressBlock.id}?season=2026`);
+    expect(res.status, await res.clone().text()).toBe(200);
+    const { report } = await res.json();
+    // Pruning 15 h × 20 on 28 vines; every pass 15 + 1 (tying) = 16 h × 20.
+    expect(report.labour.recorded).toEqual({ pruningHours: 15, pruningCost: 300, pruningVines: 28, allHours: 16, allCost: 320 });
+    // The estimate beside it: 38 standing vines × 1.75 min ÷ 60.
+    expect(report.labour.estimate.hours).toBeCloseTo((38 * 1.75) / 60, 9);
+  });
+
   it('reads last season on its own', async () => {
     expect(pass(await progress(as.manager, '2025'), 'pruning')).toMatchObject({ rowsDone: 1, vinesDone: 10, personHours: 4 });
   });
