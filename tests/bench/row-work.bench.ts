@@ -20,7 +20,7 @@ async function rowWorkQueries() {
   return import('@/lib/server/queries/row-work');
 }
 
-async function fillEstate(ctx: BenchContext) {
+export async function fillEstate(ctx: BenchContext) {
   const { db } = ctx;
   const started = Date.now();
   await db('organisations').insert({ id: ORG, name: 'Bench work estate', pay_basis: 'hourly', hourly_rate: 30 }).onConflict('id').ignore();

@@ -74,7 +74,8 @@ export async function listProgressBlocks(db: Db, organisationId: string, blockId
   const found = await db.raw<{ rows: { id: string; name: string; training_system: ProgressBlock['trainingSystem']; rows: number[]; standing: number }[] }>(
     `select b.id, b.name, b.training_system,
             (select array_agg(r.row_number order by r.row_number) from block_rows r where r.block_id = b.id) as rows,
-            (select count(*)::int from vine_positions p where p.block_id = b.id and p.status in ('planted', 'replant')) as standing
+            ((select coalesce(sum(r.vine_count), 0) from block_rows r where r.block_id = b.id)
+              - (select count(*) from vine_positions p where p.block_id = b.id and p.status in ('missing', 'dead')))::int as standing
        from blocks b
       where b.organisation_id = ? and ${blockIds ? 'b.id = any(?::uuid[])' : 'b.archived_at is null'}
       order by lower(b.name)`,
@@ -90,8 +91,9 @@ export interface Period {
 
 /**
  * Coverage per block, pass and row, and per crew lead, in one statement. The runs of a row merge
- * into one multirange, so overlapping runs count each vine once; a row covered end to end counts
- * its standing vines without looking at its slots one by one.
+ * into one multirange, so overlapping runs count each vine once. Every position of a row is a slot
+ * (1 … vine_count), so the standing vines covered are the positions the multirange holds less the
+ * gaps (missing and dead slots) inside it, read once per row from their partial index.
  */
 export async function countCoverage(db: Db, organisationId: string, blockIds: string[], period: Period) {
   const result = await db.raw<{
@@ -109,19 +111,19 @@ export async function countCoverage(db: Db, organisationId: string, blockIds: st
               range_agg(span) as covered, sum(person_hours)::float8 as hours
          from runs
         group by grouping sets ((block_id, pass, row_number), (block_id, pass, row_number, recorded_by))
-     ), standing as (
-       select block_id, row_number, count(*) filter (where status in ('planted', 'replant'))::int as n
-         from vine_positions where block_id = any(?::uuid[]) group by block_id, row_number
+     ), gaps as (
+       select block_id, row_number, array_agg(position) as positions
+         from vine_positions
+        where block_id = any(?::uuid[]) and status in ('missing', 'dead')
+        group by block_id, row_number
      )
      select g.block_id, g.pass, g.row_number, g.recorded_by, g.by_lead, u.name, g.hours,
             g.covered @> int4range(1, r.vine_count, '[]') as whole,
-            case when g.covered @> int4range(1, r.vine_count, '[]') then coalesce(s.n, 0)
-                 else (select count(*)::int from vine_positions p
-                        where p.block_id = g.block_id and p.row_number = g.row_number
-                          and p.status in ('planted', 'replant') and g.covered @> p.position) end as vines
+            ((select coalesce(sum(upper(x) - lower(x)), 0) from unnest(g.covered) x)
+              - (select count(*) from unnest(gaps.positions) p where g.covered @> p))::int as vines
        from grouped g
        join block_rows r on r.block_id = g.block_id and r.row_number = g.row_number
-       left join standing s on s.block_id = g.block_id and s.row_number = g.row_number
+       left join gaps on gaps.block_id = g.block_id and gaps.row_number = g.row_number
        left join users u on u.id = g.recorded_by`,
     [organisationId, blockIds, period.from, period.to, blockIds],
   );
