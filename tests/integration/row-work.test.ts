@@ -204,6 +204,13 @@ describe('GET /api/blocks/{id}/progress', () => {
     expect(pass(body, 'shoot-thinning')).toMatchObject({ rowsDone: 0, vinesDone: 0, personHours: 0, vinesPerPersonHour: null, projectedFinish: null, costToDate: 0, projectedCost: null });
   });
 
+  it('counts no vine in a missing slot, whether the run covers the whole row or only part of it', async () => {
+    const r = (o: Record<string, unknown>) => work({ blockId: progressBlock.id, pass: 'pre-pruning', startedAt: undefined, finishedAt: at('04'), ...o });
+    await results(as.manager, [r({ row: 4 }), r({ row: 3, fromPosition: 9, toPosition: 10 }), r({ row: 4, fromPosition: 7 })]);
+    // Row 4: 10 slots less the 2 missing ones, once though covered twice; row 3: vines 9 and 10.
+    expect(pass(await progress(as.manager), 'pre-pruning')).toMatchObject({ rowsDone: 1, vinesDone: 10, vineCount: 38, personHours: 18 });
+  });
+
   it('prices the same work at a piece rate per vine', async () => {
     await testDb()('organisations').where({ id: team.org.id }).update({ pay_basis: 'piece-rate', hourly_rate: null, piece_rate_per_vine: 0.5 });
     const body = await progress(as.manager);
@@ -218,8 +225,8 @@ describe('GET /api/blocks/{id}/progress', () => {
     const res = await as.advisor.fetch(`/api/reports/blocks/${progressBlock.id}?season=2026`);
     expect(res.status, await res.clone().text()).toBe(200);
     const { report } = await res.json();
-    // Pruning 15 h × 20 on 28 vines; every pass 15 + 1 (tying) = 16 h × 20.
-    expect(report.labour.recorded).toEqual({ pruningHours: 15, pruningCost: 300, pruningVines: 28, allHours: 16, allCost: 320 });
+    // Pruning 15 h × 20 on 28 vines; every pass 15 + 1 (tying) + 18 (pre-pruning) = 34 h × 20.
+    expect(report.labour.recorded).toEqual({ pruningHours: 15, pruningCost: 300, pruningVines: 28, allHours: 34, allCost: 680 });
     // The estimate beside it: 38 standing vines × 1.75 min ÷ 60.
     expect(report.labour.estimate.hours).toBeCloseTo((38 * 1.75) / 60, 9);
   });
@@ -255,8 +262,9 @@ describe('GET /api/blocks/{id}/progress', () => {
     expect(res.status).toBe(200);
     expect(res.headers.get('content-type')).toContain('text/csv');
     const parsed = Papa.parse<Record<string, string>>((await res.text()).trim(), { header: true });
-    expect(parsed.data).toHaveLength(6);
-    expect(parsed.data.map((d) => Number(d.person_hours)).reduce((a, b) => a + b, 0)).toBe(16);
+    // Six pruning and tying records of 2026 and three of pre-pruning; last season's stays out.
+    expect(parsed.data).toHaveLength(9);
+    expect(parsed.data.map((d) => Number(d.person_hours)).reduce((a, b) => a + b, 0)).toBe(34);
     expect(parsed.data).toContainEqual(expect.objectContaining({ season: '2026', pass: 'pruning', row: '1', person_hours: '8', recorded_by: team.pruner.name }));
   });
 });
