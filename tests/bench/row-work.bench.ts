@@ -1,4 +1,5 @@
 import { createRequire } from 'node:module';
+import { loadavg } from 'node:os';
 import bcrypt from 'bcryptjs';
 import { seasonBounds, seasonOf } from '@/lib/reports/season';
 import { buildBlockProgress } from '@/lib/work/progress';
@@ -105,5 +106,5 @@ export default async function rowWorkBench(ctx: BenchContext) {
     if (res.status !== 200) throw new Error(`work page answered ${res.status}`);
     if (i >= 2) page.push(performance.now() - t);
   }
-  ctx.report(`estate work page (server render), 9 blocks of 150 × 150: ${ms(page)} (target p95 < 800 ms) over 10 requests`);
+  ctx.report(`estate work page (server render), 9 blocks of 150 × 150: ${ms(page)} (target p95 < 800 ms) over 10 requests; load average ${loadavg()[0]!.toFixed(1)} while measuring`);
 }

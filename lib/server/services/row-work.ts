@@ -118,9 +118,8 @@ export interface EstateProgress {
 
 async function progressOf(organisationId: string, season: number, blockIds?: string[]): Promise<EstateProgress> {
   const database = db();
-  const { seasonStartMonth, ...pay } = await getPayBasis(database, organisationId);
+  const [{ seasonStartMonth, ...pay }, blocks] = await Promise.all([getPayBasis(database, organisationId), listProgressBlocks(database, organisationId, blockIds)]);
   const period = seasonBounds(season, seasonStartMonth);
-  const blocks = await listProgressBlocks(database, organisationId, blockIds);
   const ids = blocks.map((b) => b.id);
   const [coverage, days] = ids.length
     ? await Promise.all([countCoverage(database, organisationId, ids, period), listWorkDays(database, organisationId, ids, period)])
