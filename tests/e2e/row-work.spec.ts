@@ -106,4 +106,11 @@ test('the manager sees every block, the strip per pass and the projected finish 
   await page.setViewportSize({ width: 360, height: 740 });
   await expectNoSideScroll(page);
   await expect(page.getByRole('img', { name: /^Pruning:/ })).toBeVisible();
+  await page.setViewportSize({ width: 1280, height: 900 });
+  await expectNoSideScroll(page);
+  await page.goto('/work');
+  await expectNoSideScroll(page);
+  await page.setViewportSize({ width: 360, height: 740 });
+  // The table scrolls inside its own box; the page does not.
+  await expectNoSideScroll(page);
 });
