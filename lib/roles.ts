@@ -17,6 +17,8 @@ export const PERMISSIONS = {
   'complete-task': ['manager', 'pruner'],
   // Not in the DESIGN table: the flags-and-tasks issue has a crew lead (pruner) or a manager check pruning.
   'check-pruning': ['manager', 'pruner'],
+  // DESIGN table: "record row work (pruning, brush, tying)".
+  'record-row-work': ['manager', 'pruner'],
   comment: ['manager', 'scout', 'pruner', 'advisor'],
   read: ['manager', 'scout', 'pruner', 'advisor'],
 } as const satisfies Record<string, readonly Role[]>;

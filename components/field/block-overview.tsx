@@ -2,10 +2,11 @@
 
 import { useTranslations } from 'next-intl';
 import { ReiWarning } from '@/components/field/rei-warning';
+import { RowWorkPanel } from '@/components/field/row-work-panel';
 import { Notice } from '@/components/ui/field';
 import { useFieldLayout } from '@/lib/offline/use-field-layout';
 
-export function BlockOverview({ blockId }: { blockId: string }) {
+export function BlockOverview({ blockId, owner, recordsWork = false }: { blockId: string; owner?: string; recordsWork?: boolean }) {
   const t = useTranslations('field');
   const { data, isPending, isError } = useFieldLayout(blockId);
   if (isPending) return <p>{t('loading')}</p>;
@@ -36,6 +37,7 @@ export function BlockOverview({ blockId }: { blockId: string }) {
           </ul>
         </section>
       )}
+      {recordsWork && owner && <RowWorkPanel owner={owner} blockId={blockId} rows={data.rows} />}
       <section>
         <h2 className="mb-2 text-xl font-bold">{t('rows')}</h2>
         <ul className="grid grid-cols-4 gap-2">
@@ -43,9 +45,10 @@ export function BlockOverview({ blockId }: { blockId: string }) {
             <li key={r.row}>
               <a
                 href={walk(`row=${r.row}&position=1`)}
-                aria-label={t('walkRow', { row: r.row })}
                 className="flex min-h-16 flex-col items-center justify-center rounded-xl border-2 border-line bg-panel no-underline hover:border-rootstock"
               >
+                {/* The name read aloud starts with the visible text's words, so voice control finds it (WCAG 2.5.3). */}
+                <span className="sr-only">{t('walkRowPrefix')} </span>
                 <span className="text-xl font-extrabold">{r.row}</span>
                 <span className="text-xs text-bark-soft">{t('rowVines', { count: r.vineCount })}</span>
               </a>

@@ -20,6 +20,7 @@ import {
 import { syncNow } from '@/lib/offline/sync';
 import type { FlagReason } from '@/lib/validation/flag';
 import type { ObservationKind } from '@/lib/viticulture';
+import type { RowWorkPass } from '@/lib/work/passes';
 
 const ObservationForm = dynamic(() => import('@/components/field/observation-form').then((m) => m.ObservationForm));
 
@@ -67,8 +68,10 @@ export function OutboxList({ owner, imperial }: { owner: string; imperial: boole
               ? t('outbox.flag', { reason: t(`flag.reasons.${e.record.reason as FlagReason}`) })
               : collectionOf(e) === 'task-updates'
                 ? t('outbox.taskUpdate')
-                : t(`kinds.${e.record.kind as ObservationKind}`)}{' '}
-            · {t('field.address', { row: e.record.row, position: e.record.position })}
+                : collectionOf(e) === 'row-work'
+                  ? t('outbox.rowWork', { pass: t(`work.passes.${e.record.pass as RowWorkPass}`), row: e.record.row })
+                  : t(`kinds.${e.record.kind as ObservationKind}`)}
+            {collectionOf(e) !== 'row-work' && <> · {t('field.address', { row: e.record.row, position: e.record.position })}</>}
           </p>
           <p className="text-sm text-bark-soft">{e.state === 'rejected' ? t('outbox.rejected') : t('outbox.queued')}</p>
           {e.errors?.map((err) => (

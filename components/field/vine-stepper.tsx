@@ -12,10 +12,12 @@ import { Notice } from '@/components/ui/field';
 import { toPostAddress } from '@/lib/address';
 import { cn } from '@/lib/cn';
 import { enqueueObservation, enqueuePhoto, listObservations, onOutboxChange } from '@/lib/offline/outbox';
+import { useDoneRows } from '@/lib/offline/row-work';
 import { requestBackgroundSync, syncNow } from '@/lib/offline/sync';
 import { STATUS_BY_LETTER, useFieldLayout } from '@/lib/offline/use-field-layout';
 import { can, type Role } from '@/lib/roles';
 import { OBSERVATION_KINDS, type ObservationKind } from '@/lib/viticulture';
+import { ROW_WORK_PASSES } from '@/lib/work/passes';
 
 // The forms (and the validation and calculation code they carry) load when a kind is tapped; the
 // service worker precaches the chunk, so this works offline too.
@@ -23,6 +25,8 @@ const loadObservationForm = () => import('@/components/field/observation-form');
 const loadFlagForm = () => import('@/components/flags/flag-form');
 const ObservationForm = dynamic(() => loadObservationForm().then((m) => m.ObservationForm));
 const FlagForm = dynamic(() => loadFlagForm().then((m) => m.FlagForm));
+const loadRowWorkForm = () => import('@/components/field/row-work-form');
+const RowWorkForm = dynamic(() => loadRowWorkForm().then((m) => m.RowWorkForm));
 
 interface Address {
   row: number;
@@ -62,6 +66,7 @@ export function VineStepper({ blockId, owner }: { blockId: string; owner: string
   const [planId, setPlanId] = useState<string>();
   const [taskId, setTaskId] = useState<string>();
   const [flagging, setFlagging] = useState(false);
+  const [markingRow, setMarkingRow] = useState(false);
   const [kind, setKind] = useState<ObservationKind>();
   const [flash, setFlash] = useState<string>();
   const [jump, setJump] = useState('');
@@ -70,7 +75,7 @@ export function VineStepper({ blockId, owner }: { blockId: string; owner: string
   // before the service worker has cached them can still record.
   useEffect(() => {
     const idle = window.requestIdleCallback ?? ((fn: () => void) => window.setTimeout(fn, 200));
-    idle(() => void Promise.all([loadObservationForm(), loadFlagForm()]).catch(() => undefined));
+    idle(() => void Promise.all([loadObservationForm(), loadFlagForm(), loadRowWorkForm()]).catch(() => undefined));
   }, []);
 
   useEffect(() => {
@@ -99,11 +104,14 @@ export function VineStepper({ blockId, owner }: { blockId: string; owner: string
   });
 
   const rowOf = useCallback((row: number) => layout?.rows.find((r) => r.row === row), [layout]);
+  const rowLengths = useMemo(() => new Map(layout?.rows.map((r) => [r.row, r.vineCount])), [layout]);
+  const work = useDoneRows(blockId, rowLengths);
 
   const moveTo = useCallback(
     (next: Address) => {
       setAt(next);
       setKind(undefined);
+      setMarkingRow(false);
       const q = new URLSearchParams({ row: String(next.row), position: String(next.position) });
       if (planId) q.set('plan', planId);
       if (taskId) q.set('task', taskId);
@@ -154,6 +162,9 @@ export function VineStepper({ blockId, owner }: { blockId: string; owner: string
   const post = panel ? toPostAddress(at.row, at.position, panel) : undefined;
   const planIndex = plan ? plan.addresses.findIndex((a) => a.row === at.row && a.position === at.position) : -1;
   const nextInPlan = plan ? plan.addresses[planIndex + 1] : undefined;
+  // "Row done" belongs at the end of a row walked in order, for those who record row work.
+  const atRowEnd = !route && !!row && at.position === row.vineCount && !!me.data && can(me.data, 'record-row-work');
+  const donePasses = ROW_WORK_PASSES.filter((p) => work.isDone(p, at.row));
 
   async function save(saved: SavedObservation, next: boolean) {
     const id = crypto.randomUUID();
@@ -204,13 +215,27 @@ export function VineStepper({ blockId, owner }: { blockId: string; owner: string
         {queuedHere > 0 && <p className="text-sm text-cut">{t('field.waitingHere', { count: queuedHere })}</p>}
       </header>
 
-      {flash && !kind && !flagging && (
+      {flash && !kind && !flagging && !markingRow && (
         <p role="status" className="rounded-lg bg-rootstock-tint p-2 font-bold">
           ✓ {flash}
         </p>
       )}
 
-      {kind ? (
+      {markingRow && row ? (
+        <RowWorkForm
+          owner={owner}
+          blockId={blockId}
+          row={at.row}
+          vineCount={row.vineCount}
+          onCancel={() => setMarkingRow(false)}
+          onSaved={(pass) => {
+            setMarkingRow(false);
+            setFlash(t('work.saved', { row: at.row, pass: t(`work.passes.${pass}`) }));
+            void syncNow();
+            void requestBackgroundSync();
+          }}
+        />
+      ) : kind ? (
         <ObservationForm kind={kind} imperial={layout.block.unitSystem === 'imperial'} onSave={save} onCancel={() => setKind(undefined)} />
       ) : flagging ? (
         <FlagForm
@@ -229,6 +254,26 @@ export function VineStepper({ blockId, owner }: { blockId: string; owner: string
         />
       ) : (
         <>
+          {atRowEnd && (
+            <section aria-label={t('work.title')} className="flex flex-col gap-2 rounded-xl border-2 border-rootstock bg-panel p-3" data-testid="row-end">
+              <p className="font-bold">{t('work.endOfRowPrompt', { row: at.row })}</p>
+              {donePasses.map((p) => (
+                <p key={p} className="text-sm font-bold text-rootstock">
+                  ✓ {t('work.doneInPass', { row: at.row, pass: t(`work.passes.${p}`) })}
+                </p>
+              ))}
+              <button
+                type="button"
+                onClick={() => {
+                  setFlash(undefined);
+                  setMarkingRow(true);
+                }}
+                className="flex min-h-20 w-full items-center justify-center rounded-xl bg-rootstock px-2 text-xl font-extrabold text-white"
+              >
+                ✓ {t('work.rowDone')}
+              </button>
+            </section>
+          )}
           {task && <TaskStep owner={owner} task={task} row={at.row} position={at.position} onDone={() => step(1)} />}
           {me.data && can(me.data, 'flag-vine') && (
             <button
@@ -294,7 +339,7 @@ export function VineStepper({ blockId, owner }: { blockId: string; owner: string
         </>
       )}
 
-      {!kind && !flagging && (
+      {!kind && !flagging && !markingRow && (
         <nav className="fixed inset-x-0 bottom-0 z-10 border-t-2 border-line bg-ground p-2" aria-label="Vines">
           <div className="mx-auto grid max-w-md grid-cols-2 gap-2">
             <button type="button" onClick={() => step(-1)} className="min-h-20 rounded-xl border-2 border-rootstock bg-panel text-xl font-extrabold text-rootstock">

@@ -22,6 +22,7 @@ const NAV: { href: string; label: string; roles: Role[] }[] = [
   { href: '/flags', label: 'Flags', roles: ['manager', 'advisor', 'scout', 'pruner'] },
   { href: '/plans', label: 'Plans', roles: ['manager', 'advisor', 'scout', 'pruner'] },
   { href: '/sprays', label: 'Sprays', roles: ['manager', 'advisor', 'scout', 'pruner'] },
+  { href: '/work', label: 'Work', roles: ['manager', 'advisor', 'scout', 'pruner'] },
   { href: '/reports', label: 'Reports', roles: ['manager', 'advisor', 'scout', 'pruner'] },
   { href: '/team', label: 'Team', roles: ['manager'] },
   { href: '/safety', label: 'Safety', roles: ['manager', 'scout', 'pruner', 'advisor'] },

@@ -7,6 +7,7 @@ import { kindLabel, vineAddress } from '@/lib/grid/labels';
 import type { BlockReportResponse } from '@/lib/reports/api';
 import { adjustForBudInjury, type BlockReport } from '@/lib/reports/block-report';
 import { cropEstimate, cropRestsOn, labourEstimate, type InputValue } from '@/lib/reports/estimates';
+import { RecordedLabourNote } from '@/components/work/recorded-labour';
 import { formatCount, formatInterval, formatNumber, formatPercent, formatShare, formatWeightKg } from '@/lib/reports/format';
 import { formatAreaM2, formatLengthM, formatLengthMm, type UnitSystem } from '@/lib/units';
 import { reportOptionsSchema } from '@/lib/validation/report';
@@ -249,6 +250,7 @@ export function BlockReportView({ data }: { data: BlockReportResponse }) {
           )}
           <How how={labour.how} from="Martinson & Vanden Heuvel (Cornell): each minute per vine is 13.5 h/acre at 807 vines/acre." />
         </div>
+        {report.labour.recorded && <RecordedLabourNote recorded={report.labour.recorded} estimateHours={labour.hours} blockId={report.block.id} season={report.season} />}
       </Section>
 
       <Section

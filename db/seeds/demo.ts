@@ -8,6 +8,7 @@ import type { Knex } from 'knex';
 import { seedDemoLayout } from './demo-layout';
 import { seedDemoMeasurements } from './demo-measurements';
 import { seedDemoObservations, type DemoObservationOptions } from './demo-observations';
+import { seedDemoRowWork } from './demo-row-work';
 import { seedDemoWork } from './demo-work';
 
 export const DEMO_PASSWORD = 'vineward-demo';
@@ -53,4 +54,5 @@ export async function seedDemo(knex: Knex, options: DemoObservationOptions = {})
   await seedDemoObservations(knex, DEMO_ORG_ID, options);
   await seedDemoWork(knex, DEMO_ORG_ID);
   await seedDemoMeasurements(knex, DEMO_ORG_ID);
+  await seedDemoRowWork(knex, DEMO_ORG_ID);
 }

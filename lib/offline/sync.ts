@@ -19,6 +19,7 @@ export const COLLECTIONS: { name: string; path: string; bodyKey: string }[] = [
   { name: 'flags', path: '/api/sync/flags', bodyKey: 'flags' },
   // After observations: a task update may name the note observation that carries its photos.
   { name: 'task-updates', path: '/api/sync/task-updates', bodyKey: 'taskUpdates' },
+  { name: 'row-work', path: '/api/sync/row-work', bodyKey: 'records' },
 ];
 
 const LAST_SYNCED_KEY = 'vineward-last-synced';

@@ -66,6 +66,7 @@ import {
 } from './estimates';
 import { call, formatCount, formatNumber, formatPercent, formatShare, formatWeightKg } from './format';
 import { seasonBounds } from './season';
+import type { RecordedLabour } from '@/lib/work/recorded';
 
 // Query rows --------------------------------------------------------------------------------------
 
@@ -182,6 +183,8 @@ export interface BlockReportInput {
   replant: ReplantSlot[];
   /** Null when the tasks table is not there (an older database). */
   tasks: TaskRow[] | null;
+  /** Row work the crews recorded this season; absent when not loaded. */
+  recordedLabour?: RecordedLabour | null;
   options: ReportOptions;
   settings?: ViticultureSettings;
 }
@@ -375,7 +378,7 @@ export interface BlockReport {
   ravazNote: string;
   harvest: HarvestSection | null;
   crop: { basis: CropBasis; inputs: CropInputs; estimate: CropEstimate; restsOn: string; sampling: CropSampling; target: CropLoadTarget | null };
-  labour: { basis: LabourBasis; inputs: LabourInputs; estimate: LabourEstimate };
+  labour: { basis: LabourBasis; inputs: LabourInputs; estimate: LabourEstimate; recorded: RecordedLabour | null };
   budInjury: BudInjurySection | null;
   tasks: TaskSection;
   replant: ReplantSection;
@@ -1065,7 +1068,7 @@ export function buildBlockReport(input: BlockReportInput): BlockReport {
       sampling: cropSampling(input, s, bearing),
       target: cropLoadTarget(input, s),
     },
-    labour: { basis: labourBasis, inputs: inputs.labour, estimate: labourEstimate(labourBasis, inputs.labour, s) },
+    labour: { basis: labourBasis, inputs: inputs.labour, estimate: labourEstimate(labourBasis, inputs.labour, s), recorded: input.recordedLabour ?? null },
     budInjury: budInjurySection(input, budLoad, s),
     tasks: taskSection(input.tasks),
     replant: replantSection(input),

@@ -14,6 +14,8 @@ const TABLE: [Permission, Record<Role, boolean>][] = [
   ['complete-task', { manager: true, scout: false, pruner: true, advisor: false }],
   // Not in the DESIGN table: the flags-and-tasks issue has a crew lead (pruner) or a manager check pruning.
   ['check-pruning', { manager: true, scout: false, pruner: true, advisor: false }],
+  // DESIGN table: "record row work (pruning, brush, tying)" — manager and pruner.
+  ['record-row-work', { manager: true, scout: false, pruner: true, advisor: false }],
   ['comment', { manager: true, scout: true, pruner: true, advisor: true }],
   ['read', { manager: true, scout: true, pruner: true, advisor: true }],
 ];

@@ -9,6 +9,5 @@ export const metadata: Metadata = { title: 'Desk' };
 export default async function DeskPage() {
   const member = await memberForPage();
   const desk = await loadDesk(member);
-  // Row-work progress shows once loadDesk fills `progress` (issue 14, "Row work").
-  return <DeskView desk={desk} name={member.name ?? member.email} progress={desk.progress && <DeskProgress rows={desk.progress} />} />;
+  return <DeskView desk={desk} name={member.name ?? member.email} progress={desk.progress && <DeskProgress rows={desk.progress} blockHref={(id) => `/work/${id}`} />} />;
 }

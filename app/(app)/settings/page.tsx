@@ -1,9 +1,11 @@
 import type { Metadata } from 'next';
 import { can } from '@/lib/roles';
 import { memberForPage } from '@/lib/server/auth/guard';
+import { loadPayBasis } from '@/lib/server/services/row-work';
 import { MONTHS, seasonBounds, seasonOf } from '@/lib/reports/season';
 import { formatAreaM2, formatLengthM } from '@/lib/units';
 import { SeasonForm } from './season-form';
+import { PayBasisSection } from './pay-section';
 import { UnitForm } from './unit-form';
 
 export const metadata: Metadata = { title: 'Settings' };
@@ -44,6 +46,7 @@ export default async function SettingsPage() {
           </p>
         )}
       </section>
+      <PayBasisSection member={member} pay={await loadPayBasis(member.organisationId)} />
     </div>
   );
 }

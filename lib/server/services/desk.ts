@@ -1,5 +1,5 @@
 import 'server-only';
-import type { Desk, DeskFindings } from '@/lib/desk/types';
+import type { Desk, DeskFindings, DeskProgressRow } from '@/lib/desk/types';
 import { seasonBounds, seasonLabel, seasonOf } from '@/lib/reports/season';
 import { can, ROLES } from '@/lib/roles';
 import type { Member } from '@/lib/server/auth/guard';
@@ -19,6 +19,7 @@ import { listUndeliveredMail } from '@/lib/server/queries/mail-outbox';
 import { listMembers } from '@/lib/server/queries/organisations';
 import { listSpraysInForce } from '@/lib/server/queries/sprays';
 import { listTasks } from '@/lib/server/queries/tasks';
+import { type EstateProgress, loadEstateProgress } from '@/lib/server/services/row-work';
 
 /** The whole Desk answers within this or not at all (a 503), so a slow database never hangs the page. */
 const DESK_DEADLINE_MS = 8000;
@@ -55,11 +56,29 @@ async function findingsFor(trx: Db, member: Member, seasonFrom: string): Promise
 
 /**
  * Everything the Desk shows, for the person's role in their current organisation, in one
- * transaction (one snapshot, one deadline). A manager's visit counts as a look at the Desk.
+ * transaction (one snapshot, one deadline), with a manager's winter-work progress read beside it.
+ * A manager's visit counts as a look at the Desk.
  */
 export async function loadDesk(member: Member, now = new Date()): Promise<Desk> {
-  const org = member.organisationId;
   const season = seasonOf(now, member.seasonStartMonth);
+  const [desk, progress] = await Promise.all([
+    readDesk(member, season, now),
+    can(member.role, 'manage-tasks') ? loadEstateProgress(member.organisationId, season) : null,
+  ]);
+  return { ...desk, progress: progress && passesUnderWay(progress) };
+}
+
+/** Passes begun and not yet finished, block by block, for the Desk's winter-work list. */
+function passesUnderWay(progress: EstateProgress): DeskProgressRow[] {
+  return progress.blocks.flatMap(({ block, passes }) =>
+    passes
+      .filter((p) => p.vinesDone > 0 && p.vinesDone < p.vineCount)
+      .map((p) => ({ blockId: block.id, blockName: block.name, pass: p.pass, vinesDone: p.vinesDone, vineCount: p.vineCount, projectedFinish: p.projectedFinish })),
+  );
+}
+
+async function readDesk(member: Member, season: number, now: Date): Promise<Desk> {
+  const org = member.organisationId;
   const period = seasonBounds(season, member.seasonStartMonth);
   const manages = can(member.role, 'manage-tasks');
   return withDeadline(async (trx) => {

@@ -25,6 +25,7 @@ import {
   listSeasonTasks,
   type ExportCursor,
 } from '@/lib/server/queries/reports';
+import { loadRecordedLabour } from '@/lib/server/services/row-work';
 import { weightKg, type MeasurementInput, type MeasurementView } from '@/lib/validation/measurement';
 import type { ReportOptions } from '@/lib/validation/report';
 import { DEFAULT_SETTINGS } from '@/lib/viticulture';
@@ -42,7 +43,7 @@ async function blockSeason(database: Db, member: Member, block: BlockRow, season
   const org = member.organisationId;
   const month = member.seasonStartMonth;
   const period = seasonBounds(season, month);
-  const [slots, counts, measured, measurements, recordedWeights, replant, tasks] = await Promise.all([
+  const [slots, counts, measured, measurements, recordedWeights, replant, tasks, recordedLabour] = await Promise.all([
     countSlots(database, block.id, season - settings.crop.bearingAfterSeasons),
     countByRowAndKind(database, org, block.id, period),
     listMeasuredObservations(database, org, block.id, period),
@@ -50,6 +51,7 @@ async function blockSeason(database: Db, member: Member, block: BlockRow, season
     listRecordedPruningWeights(database, org, block.id, season - 1, season + 1, month),
     listReplantSlots(database, org, block.id, period),
     listSeasonTasks(database, org, block.id, period),
+    loadRecordedLabour(org, block.id, season),
   ]);
   const input: BlockReportInput = {
     block: {
@@ -78,6 +80,7 @@ async function blockSeason(database: Db, member: Member, block: BlockRow, season
     recordedWeights,
     replant,
     tasks,
+    recordedLabour,
     options,
     settings,
   };
