@@ -4,6 +4,7 @@ import { z, type ZodType } from 'zod';
 import type { Permission } from '@/lib/roles';
 import { requireMember, type Member } from '@/lib/server/auth/guard';
 import { AppError, errorBody } from '@/lib/server/errors';
+import { asUnavailable } from '@/lib/server/unavailable';
 
 type Params = Record<string, string | string[]>;
 
@@ -31,6 +32,9 @@ export function errorResponse(err: unknown): NextResponse {
   if (err instanceof z.ZodError) {
     return NextResponse.json(errorBody('invalid-input', 'Some fields are not valid.', fieldErrors(err)), { status: 422 });
   }
+  // A database or mail server that is down or slow: 503 with Retry-After, not 500.
+  const unavailable = asUnavailable(err);
+  if (unavailable) return errorResponse(unavailable);
   console.error(err);
   return NextResponse.json(errorBody('internal', 'Something went wrong on our side. Nothing you sent was lost; try again.'), {
     status: 500,

@@ -5,8 +5,36 @@ import { getEnv } from '@/lib/env';
 const store = globalThis as unknown as { vinewardMailer?: Transporter };
 
 function transport() {
-  store.vinewardMailer ??= nodemailer.createTransport(getEnv().SMTP_URL);
+  if (!store.vinewardMailer) {
+    const env = getEnv();
+    // nodemailer waits 2 minutes to connect, 30 s for the greeting and 10 minutes on a silent
+    // socket by default; a stalled mail server would hold the outbox worker (and an e-mail-link
+    // sign-in) for that long.
+    store.vinewardMailer = nodemailer.createTransport({
+      url: env.SMTP_URL,
+      connectionTimeout: env.SMTP_CONNECTION_TIMEOUT_MS,
+      greetingTimeout: env.SMTP_GREETING_TIMEOUT_MS,
+      socketTimeout: env.SMTP_SOCKET_TIMEOUT_MS,
+    } as Parameters<typeof nodemailer.createTransport>[0]);
+  }
   return store.vinewardMailer;
+}
+
+/** For /api/health: whether the mail server greets us within a few seconds. */
+export async function mailReachable(timeoutMs = 3000): Promise<boolean> {
+  const probe = nodemailer.createTransport({
+    url: getEnv().SMTP_URL,
+    connectionTimeout: timeoutMs,
+    greetingTimeout: timeoutMs,
+    socketTimeout: timeoutMs,
+  } as Parameters<typeof nodemailer.createTransport>[0]);
+  try {
+    return await probe.verify();
+  } catch {
+    return false;
+  } finally {
+    probe.close();
+  }
 }
 
 export interface Mail {
