@@ -50,6 +50,7 @@ describe('a stalled mail server', () => {
     let comment: Awaited<ReturnType<typeof timed>>;
     let invitation: Awaited<ReturnType<typeof timed>>;
     let failed: { attempts: number; status: string; last_error: string };
+    let health: Awaited<ReturnType<typeof timed>>;
     try {
       comment = await timed((signal) =>
         as.advisor.fetch('/api/comments', {
@@ -58,6 +59,7 @@ describe('a stalled mail server', () => {
         }),
       );
       queuedAt = Date.now();
+      health = await timed((signal) => as.scout.fetch('/api/health', { signal }));
       // An invitation sends its mail during the request: bounded by the SMTP deadlines, not hung.
       invitation = await timed((signal) =>
         as.manager.fetch('/api/invitations', {
@@ -76,6 +78,10 @@ describe('a stalled mail server', () => {
     }
     expect(comment.status).toBe(201);
     expect(comment.ms).toBeLessThan(3000);
+    // /api/health names the mail server as down, yet the server stays in rotation.
+    expect(health!.status).toBe(200);
+    expect(health!.json()).toEqual({ ok: false, database: true, storage: true, mail: false });
+    expect(health!.ms).toBeLessThan(5000);
     expect(invitation.status, invitation.text).not.toBe(0);
     expect(invitation.ms).toBeLessThan(10_000);
     expect(failed.last_error).toMatch(/timeout|greeting/i);
