@@ -67,7 +67,8 @@ function presignedProblem(method: string, url: string, headers: Record<string, s
 // First in the chain (Koa composes its middleware when the server starts listening).
 (server as unknown as { middleware: unknown[] }).middleware.unshift(
   async (ctx: { method: string; url: string; headers: Record<string, string>; status: number; body: unknown; type: string }, next: () => Promise<void>) => {
-    const problem = presignedProblem(ctx.method, ctx.url, ctx.headers);
+    // A CORS preflight carries the link's query string but is not what was signed.
+    const problem = ctx.method === 'OPTIONS' ? undefined : presignedProblem(ctx.method, ctx.url, ctx.headers);
     if (!problem) return next();
     ctx.status = 403;
     ctx.type = 'application/xml';

@@ -37,9 +37,6 @@ test('a photo confirmed while storage stalls stays on the phone and arrives exac
   await signInAs(page, 'scout@example.com');
   await page.goto('/field');
   await waitForServiceWorker(page);
-  await page.context().setOffline(true);
-  await recordWithPhoto(page, 11, 'stalled');
-  await page.context().setOffline(false);
 
   // The upload reaches storage; then storage hangs just as the phone asks the server to confirm.
   let stalled = 0;
@@ -48,6 +45,7 @@ test('a photo confirmed while storage stalls stays on the phone and arrives exac
     await route.continue();
   });
   const refused = page.waitForResponse((r) => r.url().endsWith('/api/photos/confirm'), { timeout: 30_000 });
+  await recordWithPhoto(page, 11, 'stalled');
   await page.getByRole('button', { name: 'Sync now' }).click();
   const answer = await refused;
   try {
