@@ -17,8 +17,6 @@ export function db(): Knex {
         // is ended there and its connection comes back to the pool.
         statement_timeout: env.DATABASE_STATEMENT_TIMEOUT_MS,
         idle_in_transaction_session_timeout: env.DATABASE_IDLE_IN_TRANSACTION_TIMEOUT_MS,
-        // Enforced here: a server that stopped answering altogether cannot enforce anything.
-        query_timeout: env.DATABASE_STATEMENT_TIMEOUT_MS + 2000,
       },
       // Waiting for a free connection is bounded too: a full pool answers 503, not a hang.
       acquireConnectionTimeout: env.DATABASE_ACQUIRE_TIMEOUT_MS,
