@@ -9,6 +9,10 @@ const flag = z
   .optional()
   .transform((v) => v === '1' || v === 'true');
 
+/** A duration or count with a default, as a positive whole number. */
+const whole = (fallback: number, max = 86_400_000) =>
+  z.coerce.number().int('must be a whole number').min(1, 'must be 1 or more').max(max, `must be ${max} or fewer`).default(fallback);
+
 const schema = z.object({
   DATABASE_URL: z.string().regex(/^postgres(ql)?:\/\//, 'must be a postgres:// connection URL'),
   S3_ENDPOINT: z.url('must be the URL of an S3-compatible endpoint').optional(),
@@ -23,6 +27,24 @@ const schema = z.object({
   NEXTAUTH_SECRET: z.string().min(32, 'must be at least 32 characters of random text'),
   NEXTAUTH_URL: z.url('must be the public URL of the app, e.g. http://localhost:3000'),
   VINEWARD_DEMO: flag,
+  // Deadlines on every outside call (milliseconds). A slow or stalled service makes only the routes
+  // that need it answer 503, instead of piling up requests that hold connections (see DEVELOPERS.md).
+  DATABASE_POOL_MAX: whole(10, 200),
+  DATABASE_ACQUIRE_TIMEOUT_MS: whole(5000),
+  DATABASE_CONNECT_TIMEOUT_MS: whole(5000),
+  DATABASE_STATEMENT_TIMEOUT_MS: whole(15_000),
+  DATABASE_IDLE_IN_TRANSACTION_TIMEOUT_MS: whole(15_000),
+  S3_CONNECT_TIMEOUT_MS: whole(2000),
+  S3_REQUEST_TIMEOUT_MS: whole(3000),
+  S3_CALL_TIMEOUT_MS: whole(20_000),
+  SMTP_CONNECTION_TIMEOUT_MS: whole(5000),
+  SMTP_GREETING_TIMEOUT_MS: whole(5000),
+  SMTP_SOCKET_TIMEOUT_MS: whole(15_000),
+  // Photos: the most pixels a decoded upload may have (sharp's own default is 268 million), how
+  // many images one server decodes at once, and how long a presigned upload link lives (seconds).
+  PHOTO_MAX_PIXELS: whole(40_000_000, 268_000_000),
+  IMAGE_CONCURRENCY: whole(2, 32),
+  PHOTO_UPLOAD_LINK_SECONDS: whole(120, 3600),
   // 0: nothing in front of the app, so no X-Forwarded-* header is believed (lib/client-address.ts).
   TRUSTED_PROXY_HOPS: z.coerce.number().int('must be a whole number').min(0, 'must be 0 (no proxy) or more').max(10, 'must be 10 or fewer').default(0),
 });

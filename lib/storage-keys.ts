@@ -4,6 +4,12 @@
  * Pure, so that seeds and scripts use the same layout as the server.
  */
 export const photoKey = (organisationId: string, photoId: string) => `orgs/${organisationId}/photos/${photoId}.jpg`;
+/**
+ * Where a device PUTs a photo before confirm: never a key that is served, with a random part
+ * chosen once per photo, so that an upload link cannot write over a stored photo.
+ */
+export const UPLOAD_PREFIX = 'uploads/';
+export const uploadKey = (organisationId: string, photoId: string, nonce: string) => `${UPLOAD_PREFIX}${organisationId}/${photoId}-${nonce}`;
 export const thumbKey = (organisationId: string, photoId: string) => `orgs/${organisationId}/photos/${photoId}.thumb.jpg`;
 
 /** Thumbnails: long side in pixels, JPEG quality. */

@@ -33,6 +33,10 @@ async function main() {
     await seedDemo(db, { env });
     buildIfNeeded(env);
     next = await startNext(profile.appPort, env);
+    // The fault bench stalls the S3 fake and watches the server's memory.
+    env.APP_PID = String(next.pid);
+    if (stack.s3?.pid) env.S3_PID = String(stack.s3.pid);
+    Object.assign(process.env, env);
     const lines: string[] = [];
     const ctx: BenchContext = {
       db,

@@ -53,6 +53,13 @@ async function main() {
       VITE_CONFIG_NATIVE_IGNORE_WARNING: 'true',
       APP_URL: `http://localhost:${profile.appPort}`,
       ADMIN_DATABASE_URL: stack.adminDatabaseUrl,
+      // Fault tests stall, stop and restart these (tests/helpers/faults.ts); unset when a real service is used.
+      S3_PID: stack.s3?.pid ? String(stack.s3.pid) : undefined,
+      SMTP_PID: stack.smtp?.pid ? String(stack.smtp.pid) : undefined,
+      PG_DATA: stack.pgData,
+      PG_BIN: stack.pgData ? postgresBin() : undefined,
+      // A port of this slot's range that nothing else uses: the fault suite's own second app server.
+      SPARE_APP_PORT: String(profile.appPort + 5),
     };
     await migrate(env.DATABASE_URL!);
     const db = knex({ client: 'pg', connection: env.DATABASE_URL });

@@ -5,6 +5,7 @@ import type { Permission } from '@/lib/roles';
 import { requireMember, type Member } from '@/lib/server/auth/guard';
 import { assertContentType, assertSameOrigin, isMutation, JSON_TYPE, readLimited, readLimitedText } from '@/lib/server/boundary';
 import { AppError, errorBody } from '@/lib/server/errors';
+import { asUnavailable } from '@/lib/server/unavailable';
 
 type Params = Record<string, string | string[]>;
 
@@ -45,6 +46,9 @@ export function errorResponse(err: unknown): NextResponse {
   if (err instanceof z.ZodError) {
     return NextResponse.json(errorBody('invalid-input', 'Some fields are not valid.', fieldErrors(err)), { status: 422 });
   }
+  // A database or mail server that is down or slow: 503 with Retry-After, not 500.
+  const unavailable = asUnavailable(err);
+  if (unavailable) return errorResponse(unavailable);
   console.error(err);
   return NextResponse.json(errorBody('internal', 'Something went wrong on our side. Nothing you sent was lost; try again.'), {
     status: 500,

@@ -4,9 +4,45 @@ import { getEnv } from '@/lib/env';
 
 const store = globalThis as unknown as { vinewardMailer?: Transporter };
 
+/**
+ * Given a URL, nodemailer reads its options from the URL alone (other options beside `url` are
+ * dropped), so the deadlines go into its query string, which nodemailer reads as options.
+ */
+function withTimeouts(url: string, timeouts: Record<string, number>) {
+  const u = new URL(url);
+  for (const [name, ms] of Object.entries(timeouts)) if (!u.searchParams.has(name)) u.searchParams.set(name, String(ms));
+  return u.toString();
+}
+
 function transport() {
-  store.vinewardMailer ??= nodemailer.createTransport(getEnv().SMTP_URL);
+  if (!store.vinewardMailer) {
+    const env = getEnv();
+    // nodemailer waits 2 minutes to connect, 30 s for the greeting and 10 minutes on a silent
+    // socket by default; a stalled mail server would hold the outbox worker (and an e-mail-link
+    // sign-in) for that long.
+    store.vinewardMailer = nodemailer.createTransport(
+      withTimeouts(env.SMTP_URL, {
+        connectionTimeout: env.SMTP_CONNECTION_TIMEOUT_MS,
+        greetingTimeout: env.SMTP_GREETING_TIMEOUT_MS,
+        socketTimeout: env.SMTP_SOCKET_TIMEOUT_MS,
+      }),
+    );
+  }
   return store.vinewardMailer;
+}
+
+/** For /api/health: whether the mail server greets us within a few seconds. */
+export async function mailReachable(timeoutMs = 3000): Promise<boolean> {
+  const probe = nodemailer.createTransport(
+    withTimeouts(getEnv().SMTP_URL, { connectionTimeout: timeoutMs, greetingTimeout: timeoutMs, socketTimeout: timeoutMs }),
+  );
+  try {
+    return await probe.verify();
+  } catch {
+    return false;
+  } finally {
+    probe.close();
+  }
 }
 
 export interface Mail {

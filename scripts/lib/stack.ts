@@ -7,7 +7,10 @@ import { log, startPostgres, startS3Fake, startSmtpFake, stopChild, stopChildren
 export interface Stack {
   env: NodeJS.ProcessEnv;
   adminDatabaseUrl?: string;
+  s3?: ChildProcess;
   smtp?: ChildProcess;
+  /** The local PostgreSQL's data folder, for fault tests that restart it. */
+  pgData?: string;
   restartSmtp: () => Promise<void>;
   stop: () => Promise<void>;
 }
@@ -15,6 +18,7 @@ export interface Stack {
 export async function startStack(p: Profile, opts: { fast?: boolean } = {}): Promise<Stack> {
   const { env, local } = profileEnv(p);
   let adminDatabaseUrl: string | undefined;
+  let pgData: string | undefined;
   if (local.postgres) {
     log(`PostgreSQL on 127.0.0.1:${p.pgPort} (data in ${path.relative(process.cwd(), p.dir)}/postgres)`);
     const pg = await startPostgres({
@@ -27,10 +31,12 @@ export async function startStack(p: Profile, opts: { fast?: boolean } = {}): Pro
     });
     env.DATABASE_URL = pg.url;
     adminDatabaseUrl = pg.url.replace(/\/[^/]+$/, '/postgres');
+    pgData = path.join(p.dir, 'postgres', 'data');
   }
+  let s3: ChildProcess | undefined;
   if (local.s3) {
     log(`S3 fake on 127.0.0.1:${p.s3Port}`);
-    await startS3Fake({ port: p.s3Port, dir: path.join(p.dir, 's3'), bucket: env.S3_BUCKET!, origins: [env.NEXTAUTH_URL!] });
+    s3 = await startS3Fake({ port: p.s3Port, dir: path.join(p.dir, 's3'), bucket: env.S3_BUCKET!, origins: [env.NEXTAUTH_URL!] });
   }
   let smtp: ChildProcess | undefined;
   const smtpOptions = { smtpPort: p.smtpPort, httpPort: p.inboxPort };
@@ -41,7 +47,9 @@ export async function startStack(p: Profile, opts: { fast?: boolean } = {}): Pro
   const stack: Stack = {
     env,
     adminDatabaseUrl,
+    s3,
     smtp,
+    pgData,
     async restartSmtp() {
       if (stack.smtp) await stopChild(stack.smtp);
       stack.smtp = await startSmtpFake(smtpOptions);

@@ -4,6 +4,9 @@ export const APP_URL = process.env.APP_URL ?? 'http://localhost:3100';
 export class Client {
   private cookies = new Map<string, string>();
 
+  /** `base` is another app server's URL, for tests that run one of their own. */
+  constructor(readonly base = APP_URL) {}
+
   private remember(res: Response) {
     for (const line of res.headers.getSetCookie()) {
       const [pair] = line.split(';');
@@ -27,7 +30,7 @@ export class Client {
   async fetch(path: string, init: RequestInit = {}) {
     const headers = new Headers(init.headers);
     if (this.cookies.size) headers.set('cookie', [...this.cookies].map(([k, v]) => `${k}=${v}`).join('; '));
-    const res = await fetch(new URL(path, APP_URL), { ...init, headers, redirect: 'manual' });
+    const res = await fetch(new URL(path, this.base), { ...init, headers, redirect: 'manual' });
     this.remember(res);
     return res;
   }

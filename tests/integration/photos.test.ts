@@ -1,10 +1,11 @@
 import { randomUUID } from 'node:crypto';
+import { PutObjectCommand } from '@aws-sdk/client-s3';
 import exifr from 'exifr';
 import sharp from 'sharp';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { closeTestDb, makeBlock, makeTeam, PASSWORD, testDb } from '../helpers/fixtures';
 import { Client } from '../helpers/http';
-import { getObjectBytes, objectExists } from '../helpers/s3';
+import { getObjectBytes, objectExists, testS3 } from '../helpers/s3';
 
 afterAll(closeTestDb);
 
@@ -98,7 +99,8 @@ describe('photo upload: presign, PUT to storage, confirm', () => {
   it('refuses a text file renamed .jpg and deletes it from storage', async () => {
     const text = Buffer.from('this is not a photo of a vine\n'.repeat(50));
     const { id } = await upload(scout, text);
-    const key = (await testDb()('photos').where({ id }).first()).object_key;
+    // The device's bytes wait at the upload key until confirm.
+    const key = (await testDb()('photos').where({ id }).first()).upload_key;
     expect(await objectExists(key)).toBe(true);
     const res = await scout.json('/api/photos/confirm', 'POST', { id });
     expect(res.status).toBe(422);
@@ -112,13 +114,21 @@ describe('photo upload: presign, PUT to storage, confirm', () => {
     expect(claimed.status).toBe(422);
     expect((await claimed.json()).error.fields.bytes[0]).toMatch(/limited to 8 MB/);
 
-    // A device that lies about the size is caught when the server reads the object.
+    // A device that lies about the size is refused by the store: the link signs the length.
     const id = randomUUID();
     const presign = await (await scout.json('/api/photos/presign', 'POST', { id, observationId, contentType: 'image/jpeg', bytes: 1000 })).json();
-    await fetch(presign.uploadUrl, { method: 'PUT', headers: presign.headers, body: new Uint8Array(9 * 1024 * 1024) });
+    const put = await fetch(presign.uploadUrl, { method: 'PUT', headers: presign.headers, body: new Uint8Array(9 * 1024 * 1024) });
+    expect(put.status).toBe(403);
+    expect((await scout.json('/api/photos/confirm', 'POST', { id })).status).toBe(409);
+
+    // Should an oversized object reach the upload key anyway, the server catches it by its length.
+    const key = (await testDb()('photos').where({ id }).first()).upload_key;
+    await testS3().send(new PutObjectCommand({ Bucket: process.env.S3_BUCKET!, Key: key, Body: new Uint8Array(9 * 1024 * 1024) }));
     const res = await scout.json('/api/photos/confirm', 'POST', { id });
     expect(res.status).toBe(413);
+    expect(await objectExists(key)).toBe(false);
     expect(await objectExists(`orgs/${team.org.id}/photos/${id}.jpg`)).toBe(false);
+    expect(await testDb()('photos').where({ id })).toHaveLength(0);
   });
 
   it('answers 409 when confirming before the upload arrived, and keeps the pending row for a retry', async () => {
