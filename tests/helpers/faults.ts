@@ -5,8 +5,8 @@
  */
 import { spawn, type ChildProcess } from 'node:child_process';
 import { readFileSync } from 'node:fs';
-import net from 'node:net';
 import path from 'node:path';
+import { waitForPort } from '../../scripts/lib/services';
 
 function pid(name: 'S3_PID' | 'SMTP_PID' | 'APP_PID') {
   const value = Number(process.env[name]);
@@ -27,25 +27,6 @@ export async function startStorage() {
 }
 export const stallMail = () => signal('SMTP_PID', 'SIGSTOP');
 export const resumeMail = () => signal('SMTP_PID', 'SIGCONT');
-
-export function waitForPort(port: number, timeoutMs = 20_000) {
-  const deadline = Date.now() + timeoutMs;
-  return new Promise<void>((resolve, reject) => {
-    const attempt = () => {
-      const socket = net.connect(port, '127.0.0.1');
-      socket.once('connect', () => {
-        socket.destroy();
-        resolve();
-      });
-      socket.once('error', () => {
-        socket.destroy();
-        if (Date.now() > deadline) reject(new Error(`Nothing answered on 127.0.0.1:${port}`));
-        else setTimeout(attempt, 100);
-      });
-    };
-    attempt();
-  });
-}
 
 /** pg_ctl, run asynchronously so that the test's own requests go on meanwhile. */
 function pgCtl(args: string[]) {
