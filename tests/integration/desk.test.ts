@@ -336,6 +336,24 @@ describe('the advisor’s Desk', () => {
   });
 });
 
+describe('winter work under way', () => {
+  it('lists each pass begun and not finished per block with its projected finish, for managers only', async () => {
+    const finishedAt = new Date().toISOString();
+    const startedAt = new Date(Date.now() - 2 * HOUR).toISOString();
+    const run = (row: number, pass: string) => ({ id: randomUUID(), blockId: a1.id, row, pass, crewSize: 2, personHours: 4, startedAt, finishedAt });
+    // A North: 3 rows of 10. Pruning on rows 1 and 2 (20 of 30 vines); brush removal on all three rows.
+    const res = await manager.json('/api/sync/row-work', 'POST', {
+      records: [run(1, 'pruning'), run(2, 'pruning'), run(1, 'brush-removal'), run(2, 'brush-removal'), run(3, 'brush-removal')],
+    });
+    expect(res.status, await res.clone().text()).toBe(200);
+
+    const progress = (await desk(manager)).progress;
+    expect(progress).toEqual([{ blockId: a1.id, blockName: 'A North', pass: 'pruning', vinesDone: 20, vineCount: 30, projectedFinish: expect.stringMatching(/^\d{4}-\d{2}-\d{2}/) }]);
+    expect((await desk(await as(team.scout.email))).progress).toBeNull();
+    expect((await desk(otherManager)).progress).toEqual([]);
+  });
+});
+
 describe('roles and organisations', () => {
   it('gives scouts and crew leads the field-first Desk, and managers’ items to no one else', async () => {
     const scout = await desk(await as(team.scout.email));
