@@ -187,19 +187,27 @@ export function createSyncEngine(parts: SyncParts) {
       await outbox.patchObservations(ids, { state: 'queued' });
       throw new Stop('server', 'Vineward did not answer properly; will try again.');
     }
-    for (const [i, result] of results.entries()) {
-      const entry = batch[i]!;
-      if (result.status === 'created' || result.status === 'duplicate') await outbox.removeObservation(entry.id);
-      else if (result.status === 'conflict') {
-        await outbox.patchObservations([entry.id], {
-          state: 'rejected',
-          conflict: true,
-          errors: [{ field: 'id', message: 'A different record with this id is already on the server.' }],
-        });
-      } else await outbox.patchObservations([entry.id], { state: 'rejected', errors: result.errors ?? [] });
+    const settled = new Set<string>();
+    try {
+      for (const [i, result] of results.entries()) {
+        const entry = batch[i];
+        // Results come in order, one per record; one that names another id settles nothing.
+        if (!entry || result?.id !== entry.id) continue;
+        if (result.status === 'created' || result.status === 'duplicate') await outbox.removeObservation(entry.id);
+        else if (result.status === 'conflict') {
+          await outbox.patchObservations([entry.id], {
+            state: 'rejected',
+            conflict: true,
+            errors: [{ field: 'id', message: 'A different record with this id is already on the server.' }],
+          });
+        } else await outbox.patchObservations([entry.id], { state: 'rejected', errors: result.errors ?? [] });
+        settled.add(entry.id);
+      }
+    } finally {
+      // Anything not settled (no answer for it, or the store failed midway) goes back to queued, never left "sending".
+      const rest = ids.filter((id) => !settled.has(id));
+      if (rest.length) await outbox.patchObservations(rest, { state: 'queued' });
     }
-    // Anything the server did not answer for stays queued.
-    for (const entry of batch.slice(results.length)) await outbox.patchObservations([entry.id], { state: 'queued' });
   }
 
   async function put(url: string, photo: PhotoEntry, onBytes: (n: number) => void) {
@@ -226,6 +234,8 @@ export function createSyncEngine(parts: SyncParts) {
           takenAt: photo.takenAt,
         });
         if (presign.status !== 200) {
+          // Only a lasting "no" rejects the photo; 408, 429 and the like mean try later (the catch below re-queues).
+          if (!refusal(presign.status)) throw new Stop('server', presign.json.error?.message ?? `Vineward answered ${presign.status}; will try again.`);
           await outbox.patchPhoto(photo.id, { state: 'rejected', error: presign.json.error?.message ?? 'The server refused this photo.' });
           return;
         }
@@ -237,6 +247,7 @@ export function createSyncEngine(parts: SyncParts) {
       const confirm = await post('/api/photos/confirm', { id: photo.id });
       if (confirm.status === 200) await outbox.removePhoto(photo.id);
       else if (confirm.status === 409) await outbox.patchPhoto(photo.id, { state: 'queued', attempts: photo.attempts + 1 });
+      else if (!refusal(confirm.status)) throw new Stop('server', confirm.json.error?.message ?? `Vineward answered ${confirm.status}; will try again.`);
       else await outbox.patchPhoto(photo.id, { state: 'rejected', error: confirm.json.error?.message ?? 'The server refused this photo.' });
     } catch (err) {
       const current = await outbox.getPhotoEntry(photo.id);

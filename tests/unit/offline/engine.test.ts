@@ -113,6 +113,17 @@ describe('records: each state of the outbox', () => {
     ]);
   });
 
+  it('a result naming another id, or more results than records, settles nothing wrongly and leaves nothing sending', async () => {
+    const s = setup();
+    for (let n = 1; n <= 2; n++) await s.outbox.enqueueObservation('scout-a', record(n));
+    s.server.next(SYNC, {
+      status: 200,
+      json: { results: [{ id: uuid(1), status: 'created' }, { id: uuid(7), status: 'created' }, { id: uuid(8), status: 'created' }] },
+    });
+    await s.engine.start('scout-a');
+    expect((await s.outbox.listObservations()).map((e) => [e.id, e.state])).toEqual([[uuid(2), 'queued']]);
+  });
+
   it('sends oldest first, in batches, one collection after another in the order of COLLECTIONS', async () => {
     const s = setup({ batchSize: 2 });
     await s.outbox.enqueueRecord('scout-a', 'task-updates', { ...record(9), taskId: 't1' });
@@ -432,6 +443,18 @@ describe('photos: presign → PUT → confirm', () => {
     s.server.next(CONFIRM, { status: 422, json: { error: { message: 'This file is not a photo.' } } });
     await s.engine.start('scout-a');
     expect(await photo(s)).toMatchObject({ state: 'rejected', error: 'This file is not a photo.' });
+  });
+
+  it('presign or confirm answered 429 or 408 (try later) keeps the photo, never rejects it', async () => {
+    const s = await withPhoto();
+    s.server.next(PRESIGN, { status: 429, json: { error: { message: 'Too many requests.' } } });
+    await s.engine.start('scout-a');
+    expect(await photo(s)).toMatchObject({ state: 'queued', attempts: 1 });
+    s.server.next(CONFIRM, { status: 408, json: { error: { message: 'Request timeout.' } } });
+    await s.engine.syncNow();
+    expect(await photo(s)).toMatchObject({ state: 'uploaded' });
+    await s.engine.syncNow();
+    expect(await s.outbox.listPhotos()).toEqual([]);
   });
 
   it('a photo the server already holds is confirmed without uploading again', async () => {
