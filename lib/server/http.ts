@@ -145,7 +145,8 @@ export function memberAction<B>(
       const message = await fn(member, parsed.data);
       return { ok: true, message: message ?? undefined };
     } catch (err) {
-      if (err instanceof AppError) return { ok: false, message: err.message, fields: err.fields };
+      const known = err instanceof AppError ? err : asUnavailable(err);
+      if (known) return { ok: false, message: known.message, fields: known.fields };
       console.error(err);
       return { ok: false, message: 'Something went wrong on our side; try again.' };
     }

@@ -1,6 +1,7 @@
 import 'server-only';
 import nodemailer, { type Transporter } from 'nodemailer';
 import { getEnv } from '@/lib/env';
+import { escapeHtml } from '@/lib/html';
 
 const store = globalThis as unknown as { vinewardMailer?: Transporter };
 
@@ -59,7 +60,6 @@ export async function sendMail(mail: Mail) {
   await transport().sendMail({ from: getEnv().MAIL_FROM, ...mail });
 }
 
-const escapeHtml = (s: string) => s.replace(/[&<>"]/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;' })[c]!);
 
 /**
  * A plain, readable mail: our wordmark, a paragraph (its line breaks kept), one big link, and an

@@ -21,7 +21,7 @@ import { listSpraysInForce } from '@/lib/server/queries/sprays';
 import { listTasks } from '@/lib/server/queries/tasks';
 import { type EstateProgress, loadEstateProgress } from '@/lib/server/services/row-work';
 
-/** The whole Desk answers within this or not at all (a 503), so a slow database never hangs the page. */
+/** The Desk's reads answer within this or not at all (a 503), so a slow database never hangs the page. */
 const DESK_DEADLINE_MS = 8000;
 const UNDELIVERED_SHOWN = 100;
 
@@ -34,7 +34,9 @@ async function withDeadline<T>(fn: (trx: Db) => Promise<T>): Promise<T> {
       return fn(trx);
     });
   } catch (err) {
-    if ((err as { code?: string }).code === '57014') throw new AppError('unavailable', 'The Desk took too long to read; try again in a moment.');
+    if ((err as { code?: string }).code === '57014') {
+      throw new AppError('unavailable', 'The Desk took too long to read; try again in a moment.', undefined, { 'retry-after': '10' });
+    }
     throw err;
   }
 }

@@ -1,6 +1,7 @@
 import 'server-only';
 import { createHmac, timingSafeEqual } from 'node:crypto';
 import { getEnv } from '@/lib/env';
+import { escapeHtml } from '@/lib/html';
 import type { Db } from '@/lib/server/db';
 import { linkMail } from '@/lib/server/mail';
 import { enqueueMail, type OutboxInsert } from '@/lib/server/queries/mail-outbox';
@@ -19,7 +20,6 @@ const DIGEST_HOUR_UTC = Number(process.env.DIGEST_HOUR_UTC ?? 6);
 const base = () => getEnv().NEXTAUTH_URL.replace(/\/$/, '');
 export const appLink = (path: string) => `${base()}${path}`;
 
-const escape = (s: string) => s.replace(/[&<>"]/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;' })[c]!);
 
 /** A signed link key for turning the digest off without signing in; it does nothing else. */
 export function unsubscribeToken(userId: string) {
@@ -57,8 +57,8 @@ function render(n: Notice): OutboxInsert {
   const footer = {
     text: `Choose which mails you get: ${settings}${unsubscribe ? `\nStop the daily digest: ${unsubscribe}` : ''}`,
     html:
-      `<p style="color:#555;font-size:13px"><a href="${escape(settings)}">Choose which mails you get</a>` +
-      (unsubscribe ? ` · <a href="${escape(unsubscribe)}">Stop the daily digest</a>` : '') +
+      `<p style="color:#555;font-size:13px"><a href="${escapeHtml(settings)}">Choose which mails you get</a>` +
+      (unsubscribe ? ` · <a href="${escapeHtml(unsubscribe)}">Stop the daily digest</a>` : '') +
       '</p>',
   };
   const mail = linkMail({ to: n.to.email, subject: n.subject, intro: n.intro, action: n.action, url: appLink(n.path), footer });
