@@ -96,10 +96,19 @@ export function deleteObject(key: string) {
   return storageCall((abortSignal) => s3().send(new DeleteObjectCommand({ Bucket: bucket(), Key: key }), { abortSignal }));
 }
 
-/** Keys under a prefix last written before a time (one page of up to 1,000). */
-export async function listObjectsBefore(prefix: string, before: Date) {
-  const res = await storageCall((abortSignal) => s3().send(new ListObjectsV2Command({ Bucket: bucket(), Prefix: prefix }), { abortSignal }));
-  return (res.Contents ?? []).filter((o) => o.Key && o.LastModified && o.LastModified < before).map((o) => o.Key!);
+/**
+ * Keys under a prefix last written before a time, page by page (keys list by name, not age, so an
+ * old key can stand on any page). Each page is one call with its own deadline.
+ */
+export async function* listObjectsBefore(prefix: string, before: Date) {
+  let token: string | undefined;
+  do {
+    const res = await storageCall((abortSignal) =>
+      s3().send(new ListObjectsV2Command({ Bucket: bucket(), Prefix: prefix, ContinuationToken: token }), { abortSignal }),
+    );
+    yield (res.Contents ?? []).filter((o) => o.Key && o.LastModified && o.LastModified < before).map((o) => o.Key!);
+    token = res.IsTruncated ? res.NextContinuationToken : undefined;
+  } while (token);
 }
 
 export async function storageReachable(): Promise<boolean> {

@@ -261,8 +261,13 @@ export async function sweepPendingPhotos(
       console.error(`Sweeping the unconfirmed photo ${photo.id} failed; the next sweep tries again:`, err);
     }
   }
-  const old = await listObjectsBefore(UPLOAD_PREFIX, orphansBefore);
-  const inUse = await uploadKeysInUse(db(), old);
-  for (const key of old) if (!inUse.has(key)) await deleteObject(key);
+  for await (const old of listObjectsBefore(UPLOAD_PREFIX, orphansBefore)) {
+    const inUse = await uploadKeysInUse(db(), old);
+    for (const key of old) {
+      if (inUse.has(key)) continue;
+      // One refused delete leaves that upload for the next sweep, not the rest of the page.
+      await deleteObject(key).catch((err: unknown) => console.error(`Removing the orphan upload ${key} failed; the next sweep tries again:`, err));
+    }
+  }
   return removed;
 }
