@@ -22,8 +22,7 @@ import { rowWorkRecordSchema, type RowWorkRecord } from '@/lib/validation/row-wo
 import { buildBlockProgress, toContract, type BlockProgress, type PassProgress } from '@/lib/work/progress';
 import type { PayBasis } from '@/lib/work/cost';
 import { recordedLabour } from '@/lib/work/recorded';
-
-const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
+import { isUuid } from '@/lib/grid/filters';
 
 export const rowWorkHash = (r: RowWorkRecord) =>
   hashPayload({
@@ -142,7 +141,8 @@ export function loadEstateProgress(organisationId: string, season: number): Prom
 export const currentSeason = (member: Pick<Member, 'seasonStartMonth'>, now = new Date()) => seasonOf(now, member.seasonStartMonth);
 
 export async function loadBlockProgress(member: Member, blockId: string, season = currentSeason(member)) {
-  if (!UUID.test(blockId)) throw new AppError('not-found', 'There is no such block in your organisation.');
+  // The /work/[blockId] page passes its path segment as it came; the API routes parse theirs.
+  if (!isUuid(blockId)) throw new AppError('not-found', 'There is no such block in your organisation.');
   const progress = await progressOf(member.organisationId, season, [blockId]);
   const block = progress.blocks[0];
   if (!block) throw new AppError('not-found', 'There is no such block in your organisation.');
@@ -163,7 +163,6 @@ export async function blockProgressContract(member: Member, blockId: string, sea
 
 /** What the phone needs to show rows already done this season, per pass. */
 export async function loadDoneRows(member: Member, blockId: string, now = new Date()) {
-  if (!UUID.test(blockId)) throw new AppError('not-found', 'There is no such block in your organisation.');
   const [block] = await listProgressBlocks(db(), member.organisationId, [blockId]);
   if (!block) throw new AppError('not-found', 'There is no such block in your organisation.');
   const season = currentSeason(member, now);
@@ -176,7 +175,6 @@ export const ROW_WORK_CSV_COLUMNS = [
 
 /** The season's row work as CSV lines, header first. */
 export async function rowWorkCsv(member: Member, season: number, blockId?: string): Promise<string> {
-  if (blockId !== undefined && !UUID.test(blockId)) throw new AppError('not-found', 'There is no such block in your organisation.');
   const rows = await listRowWorkForExport(db(), member.organisationId, seasonBounds(season, member.seasonStartMonth), blockId);
   const lines = rows.map((r) =>
     [
