@@ -50,10 +50,12 @@ export interface DeskFindingBlock {
   blockId: string;
   blockName: string;
   vinesPerPanel: number | null;
+  /** Vines by their worst new finding. */
   actNow: number;
   actThisSeason: number;
   watch: number;
   findings: number;
+  /** The worst vines first, at most the query's `perBlock`. */
   vines: DeskFreshVine[];
 }
 

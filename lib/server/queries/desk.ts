@@ -1,6 +1,7 @@
 import 'server-only';
 import type { Db } from '@/lib/server/db';
 import type { FlagReason } from '@/lib/validation/flag';
+import type { DeskFindingBlock, DeskFreshVine } from '@/lib/desk/types';
 
 /**
  * The Desk's reads: what needs doing in one organisation this morning. Every function takes the
@@ -83,26 +84,9 @@ export async function listUntaskedFlagBlocks(db: Db, organisationId: string): Pr
   return rows;
 }
 
-export interface FreshVine {
-  row: number;
-  position: number;
-  kind: string;
-  severity: 1 | 2 | 3;
-  observedAt: string;
-}
-
-export interface FreshFindingBlock {
-  blockId: string;
-  blockName: string;
-  vinesPerPanel: number | null;
-  /** Vines by their worst new finding. */
-  actNow: number;
-  actThisSeason: number;
-  watch: number;
-  findings: number;
-  /** The worst vines first, at most `perBlock`. */
-  vines: FreshVine[];
-}
+// The Desk's JSON shapes are the rows these queries read (observedAt already an ISO string).
+export type FreshVine = DeskFreshVine;
+export type FreshFindingBlock = DeskFindingBlock;
 
 /**
  * Open findings ("watch" or worse, not deleted) that reached the server after `since`, per block:
