@@ -52,7 +52,7 @@ export interface CaneFinding {
 
 /** The code at the start of a reason string, or undefined for text that is not one. */
 export function caneReasonCode(reason: string): CaneReasonCode | undefined {
-  const code = reason.split(':', 1)[0];
+  const code = reason.split(':', 1)[0] ?? '';
   return (CANE_REASON_CODES as readonly string[]).includes(code) ? (code as CaneReasonCode) : undefined;
 }
 

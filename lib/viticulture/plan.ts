@@ -173,8 +173,8 @@ function spread(budget: number, ranges: BudRange[]): number[] {
   while (left > 0) {
     let added = false;
     for (let i = 0; i < buds.length && left > 0; i++) {
-      if (buds[i] < ranges[i].max) {
-        buds[i]++;
+      if (buds[i]! < ranges[i]!.max) {
+        buds[i]!++;
         left--;
         added = true;
       }

@@ -118,7 +118,7 @@ export function samplingPlan(layout: BlockLayout, options: SamplingOptions): Vin
     const midPosition = Math.ceil(vines / 2);
     for (let position = 1 + avoidRowEnds; position <= vines - avoidRowEnds; position++) {
       if (skipped.has(key(row, position))) continue;
-      strata[(edge ? 4 : 0) + rowHalf * 2 + (position <= midPosition ? 0 : 1)].push({ row, position });
+      strata[(edge ? 4 : 0) + rowHalf * 2 + (position <= midPosition ? 0 : 1)]!.push({ row, position });
     }
   });
 
@@ -137,7 +137,7 @@ export function samplingPlan(layout: BlockLayout, options: SamplingOptions): Vin
 
   const random = mulberry32(options.seed);
   const picked: VineAddress[] = [];
-  strata.forEach((stratum, i) => picked.push(...drawWithoutReplacement(stratum, quotas[i], random)));
+  strata.forEach((stratum, i) => picked.push(...drawWithoutReplacement(stratum, quotas[i]!, random)));
   return walkingOrder(picked);
 }
 
@@ -172,8 +172,8 @@ function allocate(total: number, sizes: number[]): number[] {
   const byRemainder = exact.map((value, i) => ({ i, rest: value - Math.floor(value) })).sort((a, b) => b.rest - a.rest || a.i - b.i);
   for (const { i } of byRemainder) {
     if (left === 0) break;
-    if (quotas[i] < sizes[i]) {
-      quotas[i]++;
+    if (quotas[i]! < sizes[i]!) {
+      quotas[i]!++;
       left--;
     }
   }
@@ -184,7 +184,7 @@ function drawWithoutReplacement<T>(items: readonly T[], k: number, random: () =>
   const pool = items.slice();
   for (let i = 0; i < k; i++) {
     const j = i + Math.floor(random() * (pool.length - i));
-    [pool[i], pool[j]] = [pool[j], pool[i]];
+    [pool[i], pool[j]] = [pool[j]!, pool[i]!];
   }
   return pool.slice(0, k);
 }

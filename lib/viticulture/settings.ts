@@ -261,10 +261,10 @@ export function mergeSettings(partial: SettingsOverride = {}): ViticultureSettin
   for (const [group, values] of Object.entries(partial as Record<string, Record<string, unknown> | undefined>)) {
     if (!(group in merged)) throw new RangeError(`unknown settings group '${group}'`);
     for (const [key, value] of Object.entries(values ?? {})) {
-      if (!(key in merged[group])) throw new RangeError(`unknown setting '${group}.${key}'`);
+      if (!(key in merged[group]!)) throw new RangeError(`unknown setting '${group}.${key}'`);
       // Left-out keys in a stored override come back as undefined; they mean "use the default".
       // Copied, so freezing the result never freezes an object the caller still holds.
-      if (value !== undefined) merged[group][key] = value !== null && typeof value === 'object' ? { ...value } : value;
+      if (value !== undefined) merged[group]![key] = value !== null && typeof value === 'object' ? { ...value } : value;
     }
   }
   const settings = merged as unknown as ViticultureSettings;
@@ -340,7 +340,7 @@ function isRange(value: BudRange): boolean {
 function ascending<G extends keyof ViticultureSettings>(group: G, keys: string[], values: ViticultureSettings[G]): void {
   const numbers = keys.map((key) => (values as Record<string, number>)[key]);
   for (let i = 1; i < numbers.length; i++) {
-    if (numbers[i - 1] > numbers[i]) {
+    if (numbers[i - 1]! > numbers[i]!) {
       throw new RangeError(`settings.${group}: ${keys.join(' <= ')} must hold, got ${numbers.join(', ')}`);
     }
   }

@@ -97,7 +97,7 @@ describe('POST /api/sync/flags', () => {
     ];
     const answer = await results(as.scout, [bad[0], good, ...bad.slice(1)]);
     expect(answer[1]).toEqual({ id: good.id, status: 'created' });
-    expect([answer[0], ...answer.slice(2)].map((r) => [r.status, r.errors?.map((e) => e.field)])).toEqual([
+    expect([answer[0]!, ...answer.slice(2)].map((r) => [r.status, r.errors?.map((e) => e.field)])).toEqual([
       ['rejected', ['id']],
       ['rejected', ['reason']],
       ['rejected', ['note']],

@@ -50,7 +50,7 @@ describe('assessCane', () => {
   it('removes a very thin cane outright, under 3/16 in (4.8 mm; common practice, no source)', () => {
     const result = assessCane({ ...good, baseDiameterMm: 4.7 });
     expect(result.verdict).toBe('remove');
-    expect(caneReasonCode(result.reasons[0])).toBe('very-thin');
+    expect(caneReasonCode(result.reasons[0]!)).toBe('very-thin');
     expect(assessCane({ ...good, baseDiameterMm: 4.8 }).reasons.map(caneReasonCode)).toEqual(['thin']);
   });
 

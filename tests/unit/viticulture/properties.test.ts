@@ -126,7 +126,7 @@ describe('invariants', () => {
         (trainingSystem, canes, pruningWeight) => {
           const plan = planVine({ trainingSystem, canes, pruningWeight });
           expect(new Set(plan.keep).size).toBe(plan.keep.length);
-          expect(plan.keep.every((i) => i >= 0 && i < canes.length && canes[i].injured !== true)).toBe(true);
+          expect(plan.keep.every((i) => i >= 0 && i < canes.length && canes[i]!.injured !== true)).toBe(true);
           expect(plan.budsPerCane).toHaveLength(plan.keep.length);
           const spurBuds = plan.renewalSpurs * plan.budsPerRenewalSpur;
           expect(plan.totalBuds).toBe(plan.budsPerCane.reduce((a, b) => a + b, 0) + spurBuds);
