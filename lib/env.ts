@@ -30,6 +30,13 @@ const schema = z.object({
   // Deadlines on every outside call (milliseconds). A slow or stalled service makes only the routes
   // that need it answer 503, instead of piling up requests that hold connections (see DEVELOPERS.md).
   DATABASE_POOL_MAX: whole(10, 200),
+  // Cost 12 is about 250 ms here: slow for guessing, fine for a person signing in. Tests lower it.
+  BCRYPT_COST: z.coerce.number().int('must be a whole number').min(4, 'must be 4 or more').max(16, 'must be 16 or fewer').default(12),
+  // The mail worker: how often it looks for queued mail, how often it adds notices and digests,
+  // and the hour (UTC) the daily digest goes out.
+  MAIL_POLL_MS: whole(2000, 3_600_000),
+  MAIL_SCHEDULE_MS: whole(60_000),
+  DIGEST_HOUR_UTC: z.coerce.number().int('must be a whole number').min(0, 'must be 0 to 23').max(23, 'must be 0 to 23').default(6),
   DATABASE_ACQUIRE_TIMEOUT_MS: whole(5000),
   DATABASE_CONNECT_TIMEOUT_MS: whole(5000),
   DATABASE_STATEMENT_TIMEOUT_MS: whole(15_000),
@@ -45,6 +52,8 @@ const schema = z.object({
   PHOTO_MAX_PIXELS: whole(40_000_000, 268_000_000),
   IMAGE_CONCURRENCY: whole(2, 32),
   PHOTO_UPLOAD_LINK_SECONDS: whole(120, 3600),
+  // Where the build is (npm test builds each slot into its own folder); the worker is served from it.
+  NEXT_DIST_DIR: z.string().min(1).default('.next'),
   // 0: nothing in front of the app, so no X-Forwarded-* header is believed (lib/client-address.ts).
   TRUSTED_PROXY_HOPS: z.coerce.number().int('must be a whole number').min(0, 'must be 0 (no proxy) or more').max(10, 'must be 10 or fewer').default(0),
 });
@@ -55,6 +64,16 @@ let cached: Env | undefined;
 
 export function describeEnvProblems(error: z.ZodError) {
   return error.issues.map((i) => `  - ${i.path.join('.') || '(env)'}: ${i.message}`).join('\n');
+}
+
+/**
+ * One setting, checked by the same rule as at start-up, for code that runs without the whole
+ * environment (the migration CLI, seeds, module constants read at import).
+ */
+export function envSetting<K extends keyof Env>(key: K, source: Record<string, string | undefined> = process.env): Env[K] {
+  const parsed = schema.shape[key].safeParse(source[key]);
+  if (!parsed.success) throw new Error(`Vineward cannot start: ${key}: ${parsed.error.issues.map((i) => i.message).join('; ')}`);
+  return parsed.data as Env[K];
 }
 
 export function getEnv(source: Record<string, string | undefined> = process.env): Env {

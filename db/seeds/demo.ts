@@ -4,6 +4,7 @@
  * have fixed ids and existing ones are left alone.
  */
 import bcrypt from 'bcryptjs';
+import { envSetting } from '../../lib/env';
 import type { Knex } from 'knex';
 import { seedDemoLayout } from './demo-layout';
 import { seedDemoMeasurements } from './demo-measurements';
@@ -34,7 +35,7 @@ export async function seedDemo(knex: Knex, options: DemoObservationOptions = {})
 
   const existing = await knex('users').whereIn('id', DEMO_USERS.map((u) => u.id)).pluck('id');
   if (existing.length < DEMO_USERS.length) {
-    const hash = await bcrypt.hash(DEMO_PASSWORD, Number((options.env ?? process.env).BCRYPT_COST ?? 12));
+    const hash = await bcrypt.hash(DEMO_PASSWORD, envSetting('BCRYPT_COST', options.env));
     await knex('users')
       .insert(DEMO_USERS.map((u) => ({ id: u.id, email: u.email, name: u.name, password_hash: hash, email_verified: knex.fn.now() })))
       .onConflict('id')

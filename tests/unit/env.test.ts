@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { getEnv } from '@/lib/env';
+import { envSetting, getEnv } from '@/lib/env';
 
 const good = {
   DATABASE_URL: 'postgres://u:p@127.0.0.1:5432/db',
@@ -30,5 +30,15 @@ describe('environment check', () => {
     expect(getEnv({ ...good, TRUSTED_PROXY_HOPS: '2' }).TRUSTED_PROXY_HOPS).toBe(2);
     expect(() => getEnv({ ...good, TRUSTED_PROXY_HOPS: '-1' })).toThrowError(/TRUSTED_PROXY_HOPS: must be 0 \(no proxy\) or more/);
     expect(() => getEnv({ ...good, TRUSTED_PROXY_HOPS: '1.5' })).toThrowError(/TRUSTED_PROXY_HOPS: must be a whole number/);
+  });
+
+  it('reads one setting by the same rule, with its default, without the rest of the environment', () => {
+    expect(envSetting('BCRYPT_COST', {})).toBe(12);
+    expect(envSetting('BCRYPT_COST', { BCRYPT_COST: '10' })).toBe(10);
+    expect(envSetting('DIGEST_HOUR_UTC', { DIGEST_HOUR_UTC: '0' })).toBe(0);
+    expect(envSetting('NEXT_DIST_DIR', {})).toBe('.next');
+    expect(() => envSetting('BCRYPT_COST', { BCRYPT_COST: '3' })).toThrowError(/BCRYPT_COST: must be 4 or more/);
+    expect(() => envSetting('DIGEST_HOUR_UTC', { DIGEST_HOUR_UTC: '24' })).toThrowError(/DIGEST_HOUR_UTC: must be 0 to 23/);
+    expect(() => envSetting('MAIL_POLL_MS', { MAIL_POLL_MS: 'soon' })).toThrowError(/MAIL_POLL_MS/);
   });
 });

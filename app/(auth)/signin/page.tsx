@@ -17,7 +17,7 @@ export default async function SignInPage({ searchParams }: { searchParams: Promi
     <>
       <WaitingOnPhone />
       <SignInForm callbackUrl={next} initialError={params.error} />
-      {process.env.VINEWARD_DEMO === '1' && (
+      {getEnv().VINEWARD_DEMO && (
         <p className="mt-4 text-sm text-bark-faint">
           Demo: manager@example.com, scout@example.com, pruner@example.com or advisor@example.com, password
           <code className="font-mono"> vineward-demo</code>.

@@ -1,9 +1,9 @@
 import 'server-only';
 import { randomBytes } from 'node:crypto';
 import bcrypt from 'bcryptjs';
+import { envSetting } from '@/lib/env';
 
-// Cost 12 is about 250 ms here: slow for guessing, fine for a person signing in.
-const COST = Number(process.env.BCRYPT_COST ?? 12);
+const COST = envSetting('BCRYPT_COST');
 
 export const hashPassword = (password: string) => bcrypt.hash(password, COST);
 export const verifyPassword = (password: string, hash: string) => bcrypt.compare(password, hash);

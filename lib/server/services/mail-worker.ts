@@ -1,5 +1,5 @@
 import 'server-only';
-import { getEnv } from '@/lib/env';
+import { envSetting, getEnv } from '@/lib/env';
 import { db } from '@/lib/server/db';
 import { sendMail } from '@/lib/server/mail';
 import { claimDueMail, markMailFailed, markMailRetry, markMailSent, markStaleSendingUncertain, type OutboxRow } from '@/lib/server/queries/mail-outbox';
@@ -20,8 +20,8 @@ import { scheduleDigests, scheduleOverdueMails } from '@/lib/server/services/not
  * The same loop adds the overdue notices and the daily digests (idempotent by their dedupe keys).
  */
 
-const POLL_MS = Number(process.env.MAIL_POLL_MS ?? 2000);
-const SCHEDULE_MS = Number(process.env.MAIL_SCHEDULE_MS ?? 60_000);
+const POLL_MS = envSetting('MAIL_POLL_MS');
+const SCHEDULE_MS = envSetting('MAIL_SCHEDULE_MS');
 // Longer than nodemailer's own connection, greeting and socket timeouts together.
 const LEASE_MS = 30 * 60_000;
 const BATCH = 20;

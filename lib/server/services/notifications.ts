@@ -1,6 +1,6 @@
 import 'server-only';
 import { createHmac, timingSafeEqual } from 'node:crypto';
-import { getEnv } from '@/lib/env';
+import { envSetting, getEnv } from '@/lib/env';
 import { escapeHtml } from '@/lib/html';
 import type { Db } from '@/lib/server/db';
 import { linkMail } from '@/lib/server/mail';
@@ -15,7 +15,7 @@ import type { CommentSubject } from '@/lib/validation/comment';
  * the worker (services/mail-worker.ts) sends it.
  */
 
-const DIGEST_HOUR_UTC = Number(process.env.DIGEST_HOUR_UTC ?? 6);
+const DIGEST_HOUR_UTC = envSetting('DIGEST_HOUR_UTC');
 
 const base = () => getEnv().NEXTAUTH_URL.replace(/\/$/, '');
 export const appLink = (path: string) => `${base()}${path}`;
