@@ -6,6 +6,7 @@
  * are only ever counted here, through the outbox's own API.
  */
 import { clear, createStore } from 'idb-keyval';
+import { CACHES, IDB, PERSONAL_LOCAL_KEY } from '@/lib/device-keys';
 import { listObservations, listPhotos } from '@/lib/offline/outbox';
 
 export interface Waiting {
@@ -27,17 +28,15 @@ export function describeWaiting({ records, photos }: Waiting) {
 }
 
 // The service worker's build precache holds only static files and the offline page; icons are the app's own.
-const keep = (cache: string) => cache.startsWith('workbox-precache') || cache === 'vineward-icons';
-// localStorage keys of a person's copies: last form values, the crew list, the last sync time.
-const PERSONAL_KEY = /^vineward-/;
+const keep = (cache: string) => cache.startsWith(CACHES.precachePrefix) || cache === CACHES.icons;
 
 /** Forgets everything of the signed-in person on this phone except the outbox. */
 export async function forgetSignedInPerson() {
   if (typeof caches !== 'undefined') {
     for (const name of await caches.keys()) if (!keep(name)) await caches.delete(name);
   }
-  for (const key of Object.keys(localStorage)) if (PERSONAL_KEY.test(key)) localStorage.removeItem(key);
+  for (const key of Object.keys(localStorage)) if (PERSONAL_LOCAL_KEY.test(key)) localStorage.removeItem(key);
   sessionStorage.clear();
   // Emptied rather than deleted: an open connection would block a deletion until the tab closes.
-  await clear(createStore('vineward-tasks', 'tasks')).catch(() => undefined);
+  await clear(createStore(...IDB.tasks)).catch(() => undefined);
 }

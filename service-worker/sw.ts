@@ -10,6 +10,7 @@ import { cleanupOutdatedCaches, matchPrecache, precacheAndRoute } from 'workbox-
 import { registerRoute, setCatchHandler } from 'workbox-routing';
 import { CacheFirst, NetworkFirst } from 'workbox-strategies';
 import { ExpirationPlugin } from 'workbox-expiration';
+import { CACHES, SYNC_TAG } from '../lib/device-keys';
 
 declare const self: ServiceWorkerGlobalScope & { __WB_MANIFEST: { url: string; revision: string | null }[] };
 
@@ -26,7 +27,7 @@ const OFFLINE_PAGE = '/offline';
 registerRoute(
   ({ request, url }) => request.mode === 'navigate' && url.origin === self.location.origin && !url.pathname.startsWith('/api/'),
   new NetworkFirst({
-    cacheName: 'vineward-pages',
+    cacheName: CACHES.pages,
     networkTimeoutSeconds: 5,
     matchOptions: { ignoreSearch: true },
     plugins: [new ExpirationPlugin({ maxEntries: 60 })],
@@ -39,12 +40,12 @@ registerRoute(
     request.method === 'GET' &&
     url.origin === self.location.origin &&
     (url.pathname.startsWith('/api/field/') || url.pathname === '/api/blocks' || url.pathname === '/api/me'),
-  new NetworkFirst({ cacheName: 'vineward-layout', networkTimeoutSeconds: 5, plugins: [new ExpirationPlugin({ maxEntries: 400 })] }),
+  new NetworkFirst({ cacheName: CACHES.layout, networkTimeoutSeconds: 5, plugins: [new ExpirationPlugin({ maxEntries: 400 })] }),
 );
 
 registerRoute(
   ({ url }) => url.origin === self.location.origin && url.pathname.startsWith('/icons/'),
-  new CacheFirst({ cacheName: 'vineward-icons' }),
+  new CacheFirst({ cacheName: CACHES.icons }),
 );
 
 setCatchHandler(async ({ request }) => {
@@ -59,10 +60,10 @@ self.addEventListener('message', (event) => {
 // Background Sync only wakes the pages; the drain runs there, with the page's session.
 self.addEventListener('sync', (event) => {
   const e = event as ExtendableEvent & { tag: string };
-  if (e.tag !== 'vineward-sync') return;
+  if (e.tag !== SYNC_TAG) return;
   e.waitUntil(
     self.clients.matchAll({ type: 'window' }).then((clients) => {
-      for (const client of clients) client.postMessage('vineward-sync');
+      for (const client of clients) client.postMessage(SYNC_TAG);
     }),
   );
 });

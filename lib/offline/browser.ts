@@ -1,4 +1,5 @@
 /** The browser's parts for the outbox and its engine: thin, so that everything else can be tested in Node. */
+import { OUTBOX_CHANNEL } from '@/lib/device-keys';
 import type { Clock, Lock, Transport } from '@/lib/offline/engine';
 import { idbStore } from '@/lib/offline/idb-store';
 import { createOutbox, type Outbox, type OutboxOptions } from '@/lib/offline/queue';
@@ -78,4 +79,4 @@ function broadcast(name: string): OutboxOptions['channel'] {
 let outbox: Outbox | undefined;
 
 /** The phone's one outbox, in IndexedDB, shared with its other tabs. */
-export const browserOutbox = () => (outbox ??= createOutbox(idbStore(), { channel: broadcast('vineward-outbox') }));
+export const browserOutbox = () => (outbox ??= createOutbox(idbStore(), { channel: broadcast(OUTBOX_CHANNEL) }));

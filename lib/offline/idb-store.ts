@@ -1,4 +1,5 @@
 import { createStore, del, entries, get, promisifyRequest, set, type UseStore } from 'idb-keyval';
+import { IDB } from '@/lib/device-keys';
 import type { OutboxStore, Table } from '@/lib/offline/store';
 
 function idbTable<T extends { id: string }>(store: UseStore): Table<T> {
@@ -23,7 +24,7 @@ function idbTable<T extends { id: string }>(store: UseStore): Table<T> {
  * The phone's outbox in IndexedDB: one database per table, because idb-keyval opens each database
  * with a single object store. The names are what phones in the field already hold.
  */
-export function idbStore(prefix = 'vineward'): OutboxStore {
+export function idbStore(prefix: string = IDB.outboxPrefix): OutboxStore {
   return {
     records: idbTable(createStore(`${prefix}-outbox`, 'records')),
     photos: idbTable(createStore(`${prefix}-photos`, 'photos')),

@@ -7,6 +7,7 @@
  */
 import { useQuery } from '@tanstack/react-query';
 import { useEffect, useState } from 'react';
+import { LOCAL } from '@/lib/device-keys';
 import { enqueueRecord, listObservations, onOutboxChange, type ObservationEntry } from '@/lib/offline/outbox';
 import type { RowWorkPass } from '@/lib/work/passes';
 
@@ -39,11 +40,10 @@ export interface CrewDefaults {
   lastFinishedAt?: string;
 }
 
-const defaultsKey = (owner: string) => `vineward-row-work:${owner}`;
 
 export function readCrewDefaults(owner: string): CrewDefaults | undefined {
   try {
-    const raw = localStorage.getItem(defaultsKey(owner));
+    const raw = localStorage.getItem(LOCAL.rowWorkDefaults(owner));
     return raw ? (JSON.parse(raw) as CrewDefaults) : undefined;
   } catch {
     return undefined;
@@ -52,7 +52,7 @@ export function readCrewDefaults(owner: string): CrewDefaults | undefined {
 
 export function saveCrewDefaults(owner: string, defaults: CrewDefaults) {
   try {
-    localStorage.setItem(defaultsKey(owner), JSON.stringify(defaults));
+    localStorage.setItem(LOCAL.rowWorkDefaults(owner), JSON.stringify(defaults));
   } catch {
     // A full or blocked storage only loses the convenience, never the record.
   }

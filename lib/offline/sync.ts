@@ -2,6 +2,7 @@
  * The sync engine (lib/offline/engine.ts) wired to the browser: the IndexedDB outbox, fetch, Web
  * Locks, real timers, and the page's online, visibility and service-worker events.
  */
+import { LOCAL, SYNC_TAG } from '@/lib/device-keys';
 import { browserOutbox, fetchTransport, realClock, webLock } from '@/lib/offline/browser';
 import { createSyncEngine, type SyncEngine } from '@/lib/offline/engine';
 
@@ -22,7 +23,6 @@ export const COLLECTIONS: { name: string; path: string; bodyKey: string }[] = [
   { name: 'row-work', path: '/api/sync/row-work', bodyKey: 'records' },
 ];
 
-const LAST_SYNCED_KEY = 'vineward-last-synced';
 
 let engine: SyncEngine | undefined;
 
@@ -30,14 +30,14 @@ function browserSync() {
   return (engine ??= createSyncEngine({
     outbox: browserOutbox(),
     transport: fetchTransport(),
-    lock: webLock('vineward-sync'),
+    lock: webLock(SYNC_TAG),
     clock: realClock,
     collections: COLLECTIONS,
     batchSize: BATCH_SIZE,
     online: () => (typeof navigator === 'undefined' ? true : navigator.onLine),
     lastSynced: {
-      read: () => Number(localStorage.getItem(LAST_SYNCED_KEY)) || null,
-      write: (at) => localStorage.setItem(LAST_SYNCED_KEY, String(at)),
+      read: () => Number(localStorage.getItem(LOCAL.lastSynced)) || null,
+      write: (at) => localStorage.setItem(LOCAL.lastSynced, String(at)),
     },
   }));
 }
@@ -62,7 +62,7 @@ export async function startSync(currentOwner: string) {
       if (document.visibilityState === 'visible') void sync.syncNow();
     });
     navigator.serviceWorker?.addEventListener('message', (e) => {
-      if (e.data === 'vineward-sync') void sync.syncNow();
+      if (e.data === SYNC_TAG) void sync.syncNow();
     });
   }
   await sync.start(currentOwner);
@@ -72,5 +72,5 @@ export async function startSync(currentOwner: string) {
 export async function requestBackgroundSync() {
   const reg = await navigator.serviceWorker?.getRegistration();
   const sync = (reg as (ServiceWorkerRegistration & { sync?: { register(tag: string): Promise<void> } }) | undefined)?.sync;
-  await sync?.register('vineward-sync').catch(() => undefined);
+  await sync?.register(SYNC_TAG).catch(() => undefined);
 }
