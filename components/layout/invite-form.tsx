@@ -5,7 +5,7 @@ import { inviteMember } from '@/app/(app)/team/actions';
 import { Button } from '@/components/ui/button';
 import { Field, Input, Notice, Select } from '@/components/ui/field';
 import { ROLES } from '@/lib/roles';
-import type { ActionState } from '@/lib/server/http';
+import type { ActionState } from '@/lib/contracts/http';
 
 export function InviteForm() {
   const [state, action, pending] = useActionState<ActionState, FormData>(inviteMember, { ok: false });
