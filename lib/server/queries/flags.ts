@@ -155,3 +155,8 @@ export function listFlagsOnVine(db: Db, organisationId: string, positionId: stri
       taskId: 'f.task_id',
     });
 }
+
+/** Which of these flags of the organisation exist at all (those a lock did not find were closed meanwhile). */
+export function existingFlagIds(db: Db, organisationId: string, ids: string[]): Promise<string[]> {
+  return db('flags').where({ organisation_id: organisationId }).whereIn('id', ids).pluck('id');
+}

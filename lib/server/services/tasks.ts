@@ -5,7 +5,7 @@ import { can } from '@/lib/roles';
 import type { Member } from '@/lib/server/auth/guard';
 import { db, type Db } from '@/lib/server/db';
 import { AppError } from '@/lib/server/errors';
-import { attachFlagsToTask, closeTaskFlags, lockOpenFlags, releaseTaskFlags } from '@/lib/server/queries/flags';
+import { attachFlagsToTask, closeTaskFlags, existingFlagIds, lockOpenFlags, releaseTaskFlags } from '@/lib/server/queries/flags';
 import {
   completeFinishedTasks,
   findTaskItems,
@@ -71,7 +71,7 @@ export async function createTasks(member: Member, input: CreateTasksInput): Prom
     if (flags.length !== ids.length) {
       const found = new Set(flags.map((f) => f.id));
       const missing = ids.filter((id) => !found.has(id));
-      const closed = await trx('flags').where({ organisation_id: member.organisationId }).whereIn('id', missing).pluck('id');
+      const closed = await existingFlagIds(trx, member.organisationId, missing);
       if (closed.length) throw new AppError('conflict', `${closed.length === 1 ? 'A flag was' : `${closed.length} flags were`} closed meanwhile; reload the list.`);
       throw new AppError('not-found', 'No such flag in your organisation.');
     }
