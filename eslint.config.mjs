@@ -1,6 +1,8 @@
 import js from '@eslint/js';
 import tseslint from 'typescript-eslint';
 
+const QUERY_WALL = 'Only lib/server/queries calls the query builder: add a query function there.';
+
 const ioModules = ['fs', 'node:*', 'knex', 'pg', 'react', 'react-dom', 'next', 'next/*', '@aws-sdk/*', 'nodemailer', 'sharp'];
 
 export default tseslint.config(
@@ -52,6 +54,54 @@ export default tseslint.config(
       'no-restricted-imports': [
         'error',
         { patterns: [{ group: ['knex', 'pg', '@/lib/server/db', '@/lib/server/queries/*'], message: 'UI components get data from pages, route handlers or server actions.' }] },
+      ],
+    },
+  },
+  {
+    // Client code: components and lib/ outside lib/server. Type-only imports count too: the shared types live in lib/contracts.
+    files: ['components/**', 'lib/**'],
+    ignores: ['lib/server/**'],
+    rules: {
+      'no-restricted-imports': [
+        'error',
+        {
+          patterns: [
+            { group: ['knex', 'pg'], message: 'Database access lives in lib/server/ (queries/ for SQL) and db/ only.' },
+            { group: ['@/app/*', '@/app/**', '**/app/*'], message: 'Components and lib/ never import app/: a page passes what they need (server actions as props).' },
+            { group: ['@/lib/server/*', '@/lib/server/**', '**/server/*'], message: 'Client code never imports lib/server, types included: use lib/contracts.' },
+          ],
+        },
+      ],
+    },
+  },
+  {
+    files: ['lib/grid/**', 'lib/reports/**', 'lib/validation/**', 'lib/contracts/**'],
+    rules: {
+      'no-restricted-imports': [
+        'error',
+        {
+          patterns: [
+            { group: ioModules, message: 'This module is pure: no I/O, no framework imports.' },
+            { group: ['@/app/*', '@/app/**', '@/lib/server/*', '@/lib/server/**', '@/components/*', '@/components/**'], message: 'This module is pure: no app, server or UI imports.' },
+          ],
+        },
+      ],
+      'no-restricted-globals': ['error', { name: 'fetch', message: 'This module is pure: the API client is lib/api-client.ts.' }],
+    },
+  },
+  {
+    // Query-builder use belongs in lib/server/queries (db/, scripts/ and tests/ aside).
+    files: ['app/**', 'lib/**', 'components/**', 'proxy.ts', 'instrumentation*.ts'],
+    // The next-auth adapter is itself a query module in next-auth's shape.
+    ignores: ['lib/server/queries/**', 'lib/server/db.ts', 'lib/server/auth/adapter.ts'],
+    rules: {
+      'no-restricted-syntax': [
+        'error',
+        // db()('table'), trx('table'), conn('table'): a query built here instead of in lib/server/queries.
+        { selector: "CallExpression[callee.type='CallExpression'][callee.callee.name='db']", message: QUERY_WALL },
+        { selector: "CallExpression[callee.name=/^(trx|conn|knex)$/]", message: QUERY_WALL },
+        { selector: "CallExpression[callee.property.name=/^(raw|schema|fn)$/][callee.object.type='CallExpression'][callee.object.callee.name='db']", message: QUERY_WALL },
+        { selector: "CallExpression[callee.property.name=/^(raw|schema|fn)$/][callee.object.name=/^(trx|conn|knex)$/]", message: QUERY_WALL },
       ],
     },
   },

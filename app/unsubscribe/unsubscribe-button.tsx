@@ -4,6 +4,7 @@ import Link from 'next/link';
 import { useState } from 'react';
 import { Button } from '@/components/ui/button';
 import { Notice } from '@/components/ui/field';
+import { apiSend, problemText } from '@/lib/api-client';
 
 export function UnsubscribeButton({ token }: { token: string }) {
   const [state, setState] = useState<'idle' | 'sending' | 'done' | 'error'>('idle');
@@ -12,17 +13,10 @@ export function UnsubscribeButton({ token }: { token: string }) {
   async function unsubscribe() {
     setState('sending');
     try {
-      const res = await fetch('/api/notifications/unsubscribe', {
-        method: 'POST',
-        headers: { 'content-type': 'application/json' },
-        body: JSON.stringify({ token }),
-      });
-      if (res.ok) return setState('done');
-      const body = (await res.json().catch(() => null)) as { error?: { message?: string } } | null;
-      setMessage(body?.error?.message ?? `The server answered ${res.status}.`);
-      setState('error');
-    } catch {
-      setMessage('No connection to Vineward. Try again when you have signal.');
+      await apiSend('POST', '/api/notifications/unsubscribe', { token });
+      setState('done');
+    } catch (err) {
+      setMessage(problemText(err, 'No connection to Vineward. Try again when you have signal.'));
       setState('error');
     }
   }

@@ -5,6 +5,7 @@ import { useForm } from 'react-hook-form';
 import { Button, ButtonLink } from '@/components/ui/button';
 import { Field, Input, Notice } from '@/components/ui/field';
 import { signInWithPassword } from '@/lib/auth-client';
+import { apiSend, ApiError, problemText } from '@/lib/api-client';
 
 interface Props {
   token: string;
@@ -19,15 +20,11 @@ export function AcceptInvitationForm({ token, email, hasAccount }: Props) {
 
   const onSubmit = form.handleSubmit(async (values) => {
     setMessage(undefined);
-    const res = await fetch('/api/invitations/accept', {
-      method: 'POST',
-      headers: { 'content-type': 'application/json' },
-      body: JSON.stringify(hasAccount ? { token } : { token, ...values }),
-    });
-    const data = await res.json().catch(() => ({}));
-    if (!res.ok) {
-      setFieldErrors(data.error?.fields ?? {});
-      setMessage({ tone: 'error', text: data.error?.message ?? 'The invitation could not be accepted.' });
+    try {
+      await apiSend('POST', '/api/invitations/accept', hasAccount ? { token } : { token, ...values }, { fallback: 'The invitation could not be accepted.' });
+    } catch (err) {
+      setFieldErrors(err instanceof ApiError ? (err.fields ?? {}) : {});
+      setMessage({ tone: 'error', text: problemText(err) });
       return;
     }
     if (hasAccount) {

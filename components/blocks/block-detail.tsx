@@ -4,10 +4,10 @@ import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
 import { Button, ButtonLink } from '@/components/ui/button';
 import { Notice } from '@/components/ui/field';
-import type { BlockView } from '@/lib/server/services/blocks';
+import type { BlockView } from '@/lib/contracts/blocks';
 import { formatAreaM2, formatCount, formatLengthM, formatVinesPerArea, type UnitSystem } from '@/lib/units';
 import type { SlotStatus } from '@/lib/validation/block';
-import { api } from './api';
+import { apiGet, apiSend } from '@/lib/api-client';
 import { RowSlots } from './row-slots';
 import { StatusCounts as Counts } from './status';
 
@@ -31,9 +31,9 @@ function Fact({ label, children }: { label: string; children: React.ReactNode })
 export function BlockDetail({ blockId, units, canManage }: { blockId: string; units: UnitSystem; canManage: boolean }) {
   const queryClient = useQueryClient();
   const [openRow, setOpenRow] = useState<number | null>(null);
-  const detail = useQuery({ queryKey: ['block', blockId], queryFn: () => api<BlockDetailData>(`/api/blocks/${blockId}`) });
+  const detail = useQuery({ queryKey: ['block', blockId], queryFn: () => apiGet<BlockDetailData>(`/api/blocks/${blockId}`) });
   const archive = useMutation({
-    mutationFn: (archived: boolean) => api<{ block: BlockView }>(`/api/blocks/${blockId}/${archived ? 'archive' : 'restore'}`, { method: 'POST' }),
+    mutationFn: (archived: boolean) => apiSend<{ block: BlockView }>('POST', `/api/blocks/${blockId}/${archived ? 'archive' : 'restore'}`),
     onSuccess: async () => {
       await queryClient.invalidateQueries({ queryKey: ['block', blockId] });
       await queryClient.invalidateQueries({ queryKey: ['blocks'] });

@@ -8,10 +8,10 @@ import { Controller, useForm, type FieldPath } from 'react-hook-form';
 import { Button, ButtonLink } from '@/components/ui/button';
 import { Field, Input, Notice, Select } from '@/components/ui/field';
 import { cn } from '@/lib/cn';
-import type { BlockView } from '@/lib/server/services/blocks';
+import type { BlockView } from '@/lib/contracts/blocks';
 import { formatAreaM2, formatCount, formatVinesPerArea, type UnitSystem } from '@/lib/units';
 import { blockSchema, TRAINING_SYSTEMS, type BlockFormValues, type BlockInput } from '@/lib/validation/block';
-import { api, ApiError } from './api';
+import { apiSend, ApiError } from '@/lib/api-client';
 import { LengthInput } from './length-input';
 import { useHydrated } from './use-hydrated';
 
@@ -59,8 +59,8 @@ export function BlockForm({ units, block }: { units: UnitSystem; block?: BlockVi
   const save = useMutation({
     mutationFn: (input: BlockInput) =>
       block
-        ? api<{ block: BlockView }>(`/api/blocks/${block.id}`, { method: 'PATCH', body: input })
-        : api<{ block: BlockView }>('/api/blocks', { method: 'POST', body: input }),
+        ? apiSend<{ block: BlockView }>('PATCH', `/api/blocks/${block.id}`, input)
+        : apiSend<{ block: BlockView }>('POST', '/api/blocks', input),
     onSuccess: async ({ block: saved }) => {
       await queryClient.invalidateQueries({ queryKey: ['blocks'] });
       await queryClient.invalidateQueries({ queryKey: ['block', saved.id] });

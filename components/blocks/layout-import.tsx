@@ -4,10 +4,10 @@ import { useQueryClient } from '@tanstack/react-query';
 import { useRef, useState } from 'react';
 import { Button, ButtonLink } from '@/components/ui/button';
 import { Notice } from '@/components/ui/field';
-import type { LayoutSummary } from '@/lib/server/services/blocks';
 import { formatCount } from '@/lib/units';
+import { ApiError, uploadFile } from '@/lib/api-client';
+import type { LayoutImportAnswer, LayoutSummary } from '@/lib/contracts/blocks';
 import { LAYOUT_LIMITS } from '@/lib/validation/block';
-import { ApiError, uploadFile } from './api';
 import { STATUS_LABEL } from './status';
 import { useHydrated } from './use-hydrated';
 
@@ -85,9 +85,10 @@ export function LayoutImport({ blockId, blockName, firstRow }: { blockId: string
     }
     setStage({ kind: 'sending', apply, progress: 0 });
     try {
-      const { summary } = await uploadFile<{ summary: LayoutSummary }>(
+      const { summary } = await uploadFile<LayoutImportAnswer>(
         `/api/blocks/${blockId}/layout?mode=${apply ? 'apply' : 'preview'}`,
         chosen,
+        'text/csv',
         (progress) => setStage({ kind: 'sending', apply, progress }),
       );
       if (apply) {

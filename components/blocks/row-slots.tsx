@@ -6,9 +6,9 @@ import { Button } from '@/components/ui/button';
 import { Field, Input, Notice } from '@/components/ui/field';
 import { formatAddress } from '@/lib/address';
 import { cn } from '@/lib/cn';
-import type { BlockView } from '@/lib/server/services/blocks';
+import type { BlockView } from '@/lib/contracts/blocks';
 import { LETTER_OF, SLOT_STATUSES, type SlotStatus } from '@/lib/validation/block';
-import { api } from './api';
+import { apiGet, apiSend } from '@/lib/api-client';
 import { STATUS_STYLE } from './status';
 
 interface Slot {
@@ -30,7 +30,7 @@ export function RowSlots({ block, row, vineCount, canManage, onClose }: { block:
   const [selected, setSelected] = useState<number | null>(null);
   const slots = useQuery({
     queryKey: ['block', block.id, 'row', row],
-    queryFn: () => api<{ positions: Slot[] }>(`/api/blocks/${block.id}/positions?row=${row}`),
+    queryFn: () => apiGet<{ positions: Slot[] }>(`/api/blocks/${block.id}/positions?row=${row}`),
   });
   const panel = block.vinesPerPanel ?? 10;
   const positions = slots.data?.positions ?? [];
@@ -92,7 +92,7 @@ function RowLength({ blockId, row, vineCount }: { blockId: string; row: number; 
   const queryClient = useQueryClient();
   const [value, setValue] = useState(String(vineCount));
   const save = useMutation({
-    mutationFn: () => api(`/api/blocks/${blockId}/rows/${row}`, { method: 'PATCH', body: { vineCount: Number(value) } }),
+    mutationFn: () => apiSend('PATCH', `/api/blocks/${blockId}/rows/${row}`, { vineCount: Number(value) }),
     onSuccess: () => queryClient.invalidateQueries({ queryKey: ['block', blockId] }),
   });
   return (
@@ -116,15 +116,17 @@ function RowLength({ blockId, row, vineCount }: { blockId: string; row: number; 
 function SlotEditor({ block, row, position, canManage, onClose }: { block: BlockView; row: number; position: number; canManage: boolean; onClose: () => void }) {
   const queryClient = useQueryClient();
   const url = `/api/blocks/${block.id}/positions/${row}/${position}`;
-  const detail = useQuery({ queryKey: ['block', block.id, 'slot', row, position], queryFn: () => api<SlotDetail>(url) });
+  const detail = useQuery({ queryKey: ['block', block.id, 'slot', row, position], queryFn: () => apiGet<SlotDetail>(url) });
   const [year, setYear] = useState(String(new Date().getFullYear()));
   const [clone, setClone] = useState(block.clone ?? '');
   const [rootstock, setRootstock] = useState(block.rootstock ?? '');
   const change = useMutation({
     mutationFn: (status: SlotStatus) =>
-      api<SlotDetail>(url, {
-        method: 'PATCH',
-        body: { status, year: year ? Number(year) : null, clone: status === 'replant' ? clone : null, rootstock: status === 'replant' ? rootstock : null },
+      apiSend<SlotDetail>('PATCH', url, {
+        status,
+        year: year ? Number(year) : null,
+        clone: status === 'replant' ? clone : null,
+        rootstock: status === 'replant' ? rootstock : null,
       }),
     onSuccess: (data) => {
       queryClient.setQueryData(['block', block.id, 'slot', row, position], data);

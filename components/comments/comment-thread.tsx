@@ -6,7 +6,7 @@ import { LinkedText } from '@/components/comments/linked-text';
 import { memberLabel, useCrew } from '@/components/tasks/use-crew';
 import { Button } from '@/components/ui/button';
 import { Notice, Select } from '@/components/ui/field';
-import { ApiError, getJson } from '@/lib/grid/api';
+import { apiGet, apiSend, ApiError } from '@/lib/api-client';
 import { COMMENT_MAX_LENGTH, type CommentSubject } from '@/lib/validation/comment';
 
 interface Comment {
@@ -19,12 +19,7 @@ interface Comment {
 const when = (iso: string) =>
   new Date(iso).toLocaleString('en-GB', { day: 'numeric', month: 'short', year: 'numeric', hour: '2-digit', minute: '2-digit', timeZone: 'UTC' }) + ' UTC';
 
-async function postComment(input: { subject: CommentSubject; subjectId: string; body: string }) {
-  const res = await fetch('/api/comments', { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify(input) });
-  const json = (await res.json().catch(() => null)) as { error?: { message: string; fields?: Record<string, string[]> } } | null;
-  if (!res.ok) throw new ApiError(res.status, json?.error?.message ?? `The server answered ${res.status}.`, json?.error?.fields);
-  return json;
-}
+const postComment = (input: { subject: CommentSubject; subjectId: string; body: string }) => apiSend('POST', '/api/comments', input);
 
 /**
  * A thread on a finding, a vine or a task: plain text, links made clickable, "@Name" mentions
@@ -33,7 +28,7 @@ async function postComment(input: { subject: CommentSubject; subjectId: string; 
 export function CommentThread({ subject, subjectId, label = 'Comments' }: { subject: CommentSubject; subjectId: string; label?: string }) {
   const queryClient = useQueryClient();
   const key = ['comments', subject, subjectId];
-  const thread = useQuery({ queryKey: key, queryFn: ({ signal }) => getJson<{ comments: Comment[] }>(`/api/comments?subject=${subject}&id=${subjectId}`, signal) });
+  const thread = useQuery({ queryKey: key, queryFn: ({ signal }) => apiGet<{ comments: Comment[] }>(`/api/comments?subject=${subject}&id=${subjectId}`, { signal }) });
   const crew = useCrew();
   const [body, setBody] = useState('');
   const box = useRef<HTMLTextAreaElement>(null);
@@ -55,7 +50,7 @@ export function CommentThread({ subject, subjectId, label = 'Comments' }: { subj
     box.current?.focus();
   }
 
-  const error = send.error instanceof ApiError ? send.error : undefined;
+  const error = send.error instanceof ApiError && !send.error.unanswered ? send.error : undefined;
   return (
     <section aria-label={label} className="flex flex-col gap-2" data-testid={`thread-${subject}`}>
       {thread.isPending && <p role="status">Loading comments…</p>}

@@ -3,16 +3,15 @@
 import { useRouter } from 'next/navigation';
 import { useState, useTransition } from 'react';
 import { Button } from '@/components/ui/button';
+import { apiSend, problemText, type SendMethod } from '@/lib/api-client';
 
-async function send(url: string, method: string, body?: unknown) {
-  const res = await fetch(url, {
-    method,
-    headers: body === undefined ? undefined : { 'content-type': 'application/json' },
-    body: body === undefined ? undefined : JSON.stringify(body),
-  }).catch(() => null);
-  if (!res) return 'No connection: try again when there is signal.';
-  if (!res.ok) return ((await res.json().catch(() => null)) as { error?: { message?: string } } | null)?.error?.message ?? 'That did not work; try again.';
-  return null;
+async function send(url: string, method: SendMethod, body?: unknown) {
+  try {
+    await apiSend(method, url, body, { fallback: 'That did not work; try again.' });
+    return null;
+  } catch (err) {
+    return problemText(err, 'No connection: try again when there is signal.');
+  }
 }
 
 function useAction() {

@@ -3,6 +3,7 @@
 import { useQuery } from '@tanstack/react-query';
 import { useTranslations } from 'next-intl';
 import { Notice } from '@/components/ui/field';
+import { apiGet } from '@/lib/api-client';
 
 interface BlockSummary {
   id: string;
@@ -16,11 +17,7 @@ export function FieldBlockList() {
   const t = useTranslations('field');
   const { data, isPending, isError } = useQuery({
     queryKey: ['blocks'],
-    queryFn: async () => {
-      const res = await fetch('/api/blocks');
-      if (!res.ok) throw new Error(String(res.status));
-      return ((await res.json()) as { blocks: BlockSummary[] }).blocks;
-    },
+    queryFn: async () => (await apiGet<{ blocks: BlockSummary[] }>('/api/blocks')).blocks,
     networkMode: 'always',
   });
   if (isPending) return <p>{t('loading')}</p>;

@@ -5,9 +5,11 @@ import { useLocale, useTranslations } from 'next-intl';
 import { useEffect, useTransition } from 'react';
 import { LOCALE_NAMES, LOCALES, type Locale } from '@/i18n/locales';
 import { cn } from '@/lib/cn';
+import { apiSend } from '@/lib/api-client';
 
 async function saveLocale(locale: Locale) {
-  await fetch('/api/me/locale', { method: 'PUT', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ locale }) });
+  // The cookie and the page follow even when the account could not be told (offline): the next save catches up.
+  await apiSend('PUT', '/api/me/locale', { locale }).catch(() => undefined);
 }
 
 /** Big two-way switch; the choice is saved on the person's account and remembered on this phone. */

@@ -18,6 +18,8 @@ import { STATUS_BY_LETTER, useFieldLayout } from '@/lib/offline/use-field-layout
 import { can, type Role } from '@/lib/roles';
 import { OBSERVATION_KINDS, type ObservationKind } from '@/lib/viticulture';
 import { ROW_WORK_PASSES } from '@/lib/work/passes';
+import { apiGet } from '@/lib/api-client';
+import type { FieldVineHistory } from '@/lib/contracts/field';
 
 // The forms (and the validation and calculation code they carry) load when a kind is tapped; the
 // service worker precaches the chunk, so this works offline too.
@@ -100,7 +102,7 @@ export function VineStepper({ blockId, owner }: { blockId: string; owner: string
     queryKey: ['me'],
     networkMode: 'always',
     staleTime: 5 * 60_000,
-    queryFn: async () => ((await (await fetch('/api/me')).json()) as { role: Role }).role,
+    queryFn: async () => (await apiGet<{ role: Role }>('/api/me')).role,
   });
 
   const rowOf = useCallback((row: number) => layout?.rows.find((r) => r.row === row), [layout]);
@@ -142,11 +144,8 @@ export function VineStepper({ blockId, owner }: { blockId: string; owner: string
     queryKey: ['vine', blockId, at?.row, at?.position],
     enabled: !!at,
     networkMode: 'always',
-    queryFn: async () => {
-      const res = await fetch(`/api/field/blocks/${blockId}/vine?row=${at!.row}&position=${at!.position}`);
-      if (!res.ok) throw new Error(String(res.status));
-      return (await res.json()) as { observations: { id: string; kind: ObservationKind; severity: number; observedAt: string; note: string }[] };
-    },
+    queryFn: () =>
+      apiGet<FieldVineHistory>(`/api/field/blocks/${blockId}/vine?row=${at!.row}&position=${at!.position}`),
   });
 
   if (taskId && myTasks.isFetched && !task) return <Notice tone="warn">{t('tasks.notFound')}</Notice>;

@@ -12,35 +12,20 @@ import {
 } from '@tanstack/react-table';
 import Link from 'next/link';
 import { useMemo, useState } from 'react';
-import { api, ApiError } from '@/components/blocks/api';
+import { apiGet, apiSend, ApiError } from '@/lib/api-client';
 import { memberLabel, useCrew } from '@/components/tasks/use-crew';
 import { Button } from '@/components/ui/button';
 import { Field, FilterSelect, Input, Notice, Select } from '@/components/ui/field';
 import { SortableHead } from '@/components/ui/sortable-head';
 import { cn } from '@/lib/cn';
+import type { FlagList, FlagView } from '@/lib/contracts/flags';
+import type { CreatedTasks } from '@/lib/contracts/tasks';
 import { formatDay, vineAddress } from '@/lib/grid/labels';
-import { FLAG_REASONS, REASON_LABELS, type FlagReason } from '@/lib/validation/flag';
+import { FLAG_REASONS, REASON_LABELS} from '@/lib/validation/flag';
 import { TASK_PRIORITIES, type TaskPriority } from '@/lib/validation/task';
 
-export interface FlagRow {
-  id: string;
-  blockId: string;
-  blockName: string;
-  vinesPerPanel: number | null;
-  row: number;
-  position: number;
-  toPosition: number;
-  reason: FlagReason;
-  note: string;
-  flaggedAt: string;
-  flaggedByName: string | null;
-  status: 'open' | 'closed';
-  taskId: string | null;
-  taskTitle: string | null;
-  taskStatus: 'open' | 'done' | 'cancelled' | null;
-}
 
-const where = (f: FlagRow) =>
+const where = (f: FlagView) =>
   f.toPosition > f.position ? `Row ${f.row}, vines ${f.position}–${f.toPosition}` : vineAddress(f.row, f.position, f.vinesPerPanel);
 
 const inDays = (days: number) => new Date(Date.now() + days * 24 * 3600 * 1000).toISOString().slice(0, 10);
@@ -58,16 +43,16 @@ export function FlagsTable({ canManage, initialBlock = '', initialUntasked = fal
   const [selection, setSelection] = useState<RowSelectionState>({});
   const list = useQuery({
     queryKey: ['flags', status],
-    queryFn: () => api<{ flags: FlagRow[] }>(`/api/flags?status=${status}`),
+    queryFn: () => apiGet<FlagList>(`/api/flags?status=${status}`),
   });
   const blocks = useMemo(() => [...new Map((list.data?.flags ?? []).map((f) => [f.blockId, f.blockName])).entries()].sort((a, b) => a[1].localeCompare(b[1])), [list.data]);
   const rows = useMemo(
     () => (list.data?.flags ?? []).filter((f) => (!block || f.blockId === block) && (!reason || f.reason === reason) && (!untasked || !f.taskId || f.taskStatus !== 'open')),
     [list.data, block, reason, untasked],
   );
-  const selectable = (f: FlagRow) => canManage && f.status === 'open' && (!f.taskId || f.taskStatus !== 'open');
+  const selectable = (f: FlagView) => canManage && f.status === 'open' && (!f.taskId || f.taskStatus !== 'open');
 
-  const columns = useMemo<ColumnDef<FlagRow>[]>(
+  const columns = useMemo<ColumnDef<FlagView>[]>(
     () => [
       ...(canManage
         ? [
@@ -85,7 +70,7 @@ export function FlagsTable({ canManage, initialBlock = '', initialUntasked = fal
                     onChange={row.getToggleSelectedHandler()}
                   />
                 ) : null,
-            } satisfies ColumnDef<FlagRow>,
+            } satisfies ColumnDef<FlagView>,
           ]
         : []),
       { accessorKey: 'blockName', header: 'Block' },
@@ -176,14 +161,7 @@ export function FlagsTable({ canManage, initialBlock = '', initialUntasked = fal
   );
 }
 
-interface MadeTask {
-  id: string;
-  title: string;
-  blockName: string;
-  vines: number;
-}
-
-function MakeTasks({ flags, onMade }: { flags: FlagRow[]; onMade: () => void }) {
+function MakeTasks({ flags, onMade }: { flags: FlagView[]; onMade: () => void }) {
   const queryClient = useQueryClient();
   const crew = useCrew();
   const workers = (crew.data ?? []).filter((m) => m.role === 'pruner' || m.role === 'manager');
@@ -194,9 +172,13 @@ function MakeTasks({ flags, onMade }: { flags: FlagRow[]; onMade: () => void }) 
   const [note, setNote] = useState('');
   const make = useMutation({
     mutationFn: () =>
-      api<{ tasks: MadeTask[] }>('/api/tasks', {
-        method: 'POST',
-        body: { flagIds: flags.map((f) => f.id), assigneeId, dueOn, priority, ...(title.trim() ? { title: title.trim() } : {}), note },
+      apiSend<CreatedTasks>('POST', '/api/tasks', {
+        flagIds: flags.map((f) => f.id),
+        assigneeId,
+        dueOn,
+        priority,
+        ...(title.trim() ? { title: title.trim() } : {}),
+        note,
       }),
     onSuccess: async () => {
       onMade();

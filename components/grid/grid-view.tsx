@@ -10,7 +10,8 @@ import { GridSummary } from '@/components/grid/grid-summary';
 import { VinePanel } from '@/components/grid/vine-panel';
 import { Button } from '@/components/ui/button';
 import { Notice } from '@/components/ui/field';
-import { getJson, type GridResponse } from '@/lib/grid/api';
+import { apiGet } from '@/lib/api-client';
+import type { GridResponse } from '@/lib/contracts/grid';
 import { cellLevel } from '@/lib/grid/cells';
 import { describeRow, nextProblem } from '@/lib/grid/describe';
 import { datesInOrder, gridFiltersToSearch, readGridFilters, type GridFilters as Filters } from '@/lib/grid/filters';
@@ -26,7 +27,7 @@ const CELL_SIZES = [12, 16, 22, 30, 40];
 const DEFAULT_SIZE = 2;
 
 async function fetchGrid(blockId: string, search: string, signal: AbortSignal) {
-  const data = await getJson<GridResponse>(`/api/grid/${blockId}${search ? `?${search}` : ''}`, signal);
+  const data = await apiGet<GridResponse>(`/api/grid/${blockId}${search ? `?${search}` : ''}`, { signal });
   performance.mark('vw-grid-data');
   return data;
 }

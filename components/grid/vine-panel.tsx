@@ -9,7 +9,8 @@ import { CellSwatch } from '@/components/grid/cell-swatch';
 import { PhotoViewer, type ViewerPhoto } from '@/components/photos/photo-viewer';
 import { Button, ButtonLink } from '@/components/ui/button';
 import { Notice } from '@/components/ui/field';
-import { getJson, type VineObservation, type VinePanelResponse } from '@/lib/grid/api';
+import { apiGet } from '@/lib/api-client';
+import type { PanelObservation, VinePanelResponse } from '@/lib/contracts/grid';
 import { encodeCell } from '@/lib/grid/cells';
 import { formatDay, kindLabel, SEVERITY_LABELS, SLOT_LABELS, vineAddress } from '@/lib/grid/labels';
 import { formatNumber } from '@/lib/reports/format';
@@ -26,7 +27,7 @@ interface VinePanelProps {
 const formatWeightKg = (kg: number, units: 'metric' | 'imperial') => (units === 'imperial' ? `${kgToLb(kg).toFixed(1)} lb` : `${kg} kg`);
 const planNote = (note: string) => (PLAN_NOTE_CODES.some((c) => note.startsWith(`${c}:`)) ? note.slice(note.indexOf(':') + 1).trim() : note);
 
-function photoFor(o: VineObservation, photoId: string, address: string): ViewerPhoto {
+function photoFor(o: PanelObservation, photoId: string, address: string): ViewerPhoto {
   return {
     id: photoId,
     fullUrl: `/api/photos/${photoId}?size=full`,
@@ -52,7 +53,7 @@ export function VinePanel({ blockId, row, position, onClose }: VinePanelProps) {
   const [copied, setCopied] = useState(false);
   const query = useQuery({
     queryKey: ['vine', blockId, row, position],
-    queryFn: ({ signal }) => getJson<VinePanelResponse>(`/api/vines?block=${blockId}&row=${row}&position=${position}`, signal),
+    queryFn: ({ signal }) => apiGet<VinePanelResponse>(`/api/vines?block=${blockId}&row=${row}&position=${position}`, { signal }),
   });
   const data = query.data;
   const address = vineAddress(row, position, data?.vine.vinesPerPanel);

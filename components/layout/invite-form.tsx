@@ -1,14 +1,14 @@
 'use client';
 
 import { useActionState } from 'react';
-import { inviteMember } from '@/app/(app)/team/actions';
 import { Button } from '@/components/ui/button';
 import { Field, Input, Notice, Select } from '@/components/ui/field';
 import { ROLES } from '@/lib/roles';
-import type { ActionState } from '@/lib/server/http';
+import type { ActionState } from '@/lib/contracts/http';
 
-export function InviteForm() {
-  const [state, action, pending] = useActionState<ActionState, FormData>(inviteMember, { ok: false });
+/** `invite` is the Team page's server action, passed down so components never import app/. */
+export function InviteForm({ invite }: { invite: (state: ActionState, form: FormData) => Promise<ActionState> }) {
+  const [state, action, pending] = useActionState<ActionState, FormData>(invite, { ok: false });
   return (
     <form action={action} className="grid gap-3 sm:grid-cols-[1fr_12rem_auto] sm:items-end" aria-describedby="invite-status">
       <Field id="invite-email" label="E-mail" error={state.fields?.email?.[0]}>

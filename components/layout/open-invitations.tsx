@@ -3,6 +3,7 @@
 import { useMutation } from '@tanstack/react-query';
 import { useRouter } from 'next/navigation';
 import { Button } from '@/components/ui/button';
+import { apiSend } from '@/lib/api-client';
 
 export interface OpenInvitation {
   id: string;
@@ -16,8 +17,7 @@ export function OpenInvitations({ items }: { items: OpenInvitation[] }) {
   const router = useRouter();
   const revoke = useMutation({
     mutationFn: async (id: string) => {
-      const res = await fetch(`/api/invitations/${id}`, { method: 'DELETE' });
-      if (!res.ok) throw new Error((await res.json().catch(() => null))?.error?.message ?? 'That did not work; try again.');
+      await apiSend('DELETE', `/api/invitations/${id}`, undefined, { fallback: 'That did not work; try again.' });
     },
     onSettled: () => router.refresh(),
   });

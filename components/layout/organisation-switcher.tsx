@@ -3,6 +3,7 @@
 import { useRouter } from 'next/navigation';
 import { useEffect, useState, useTransition } from 'react';
 import type { Role } from '@/lib/roles';
+import { apiSend, ApiError } from '@/lib/api-client';
 
 interface Props {
   current: string;
@@ -23,14 +24,11 @@ export function OrganisationSwitcher({ current, memberships }: Props) {
     setChosen(organisationId);
     setProblem(null);
     start(async () => {
-      const res = await fetch('/api/organisations/current', {
-        method: 'PUT',
-        headers: { 'content-type': 'application/json' },
-        body: JSON.stringify({ organisationId }),
-      }).catch(() => null);
-      if (!res?.ok) {
+      try {
+        await apiSend('PUT', '/api/organisations/current', { organisationId });
+      } catch (err) {
         setChosen(null);
-        setProblem(res ? 'Could not switch organisation.' : 'Could not switch organisation: no connection.');
+        setProblem(err instanceof ApiError && err.code === 'offline' ? 'Could not switch organisation: no connection.' : 'Could not switch organisation.');
         return;
       }
       router.push('/');

@@ -3,6 +3,7 @@
 import { useMutation } from '@tanstack/react-query';
 import { useRouter } from 'next/navigation';
 import { Button } from '@/components/ui/button';
+import { apiSend } from '@/lib/api-client';
 
 export interface UndeliveredMailItem {
   id: string;
@@ -24,12 +25,7 @@ export function UndeliveredMail({ items }: { items: UndeliveredMailItem[] }) {
   const router = useRouter();
   const act = useMutation({
     mutationFn: async ({ id, action }: { id: string; action: 'resend' | 'dismiss' }) => {
-      const res = await fetch(`/api/notifications/undelivered/${id}`, {
-        method: 'POST',
-        headers: { 'content-type': 'application/json' },
-        body: JSON.stringify({ action }),
-      });
-      if (!res.ok) throw new Error((await res.json()).error?.message ?? 'That did not work; try again.');
+      await apiSend('POST', `/api/notifications/undelivered/${id}`, { action }, { fallback: 'That did not work; try again.' });
     },
     onSettled: () => router.refresh(),
   });

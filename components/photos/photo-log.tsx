@@ -8,7 +8,8 @@ import { CellSwatch } from '@/components/grid/cell-swatch';
 import { PhotoViewer, type ViewerPhoto } from '@/components/photos/photo-viewer';
 import { Button } from '@/components/ui/button';
 import { Input, Notice, Select } from '@/components/ui/field';
-import { getJson, type PhotoLogItem, type PhotoLogResponse } from '@/lib/grid/api';
+import { apiGet } from '@/lib/api-client';
+import type { PhotoLogItem, PhotoLogResponse } from '@/lib/contracts/grid';
 import { encodeCell } from '@/lib/grid/cells';
 import { datesInOrder } from '@/lib/grid/filters';
 import { formatDay, kindLabel, SEVERITY_LABELS, vineAddress } from '@/lib/grid/labels';
@@ -79,7 +80,7 @@ export function PhotoLog({ blocks, people }: PhotoLogProps) {
       const params = new URLSearchParams(filterKey);
       params.set('limit', String(PAGE));
       if (pageParam) params.set('cursor', pageParam);
-      return getJson<PhotoLogResponse>(`/api/photos?${params}`, signal);
+      return apiGet<PhotoLogResponse>(`/api/photos?${params}`, { signal });
     },
     initialPageParam: '',
     getNextPageParam: (last) => last.nextCursor ?? undefined,

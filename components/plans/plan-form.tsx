@@ -7,6 +7,7 @@ import { useForm } from 'react-hook-form';
 import { Button } from '@/components/ui/button';
 import { Field, Input, Notice, Select } from '@/components/ui/field';
 import { DEFAULT_SETTINGS, detectionSampleSize, sampleSizeForMean, sampleSizeForProportion } from '@/lib/viticulture';
+import { apiSend, ApiError } from '@/lib/api-client';
 
 interface BlockOption {
   id: string;
@@ -34,17 +35,18 @@ export function PlanForm({ blocks }: { blocks: BlockOption[] }) {
   const forYield = block ? sampleSizeForMean(yieldCvPercent, sampleMarginPercent, 0.95, block.vineCount) : undefined;
   const save = useMutation({
     mutationFn: async (values: Values) => {
-      const res = await fetch('/api/sampling-plans', {
-        method: 'POST',
-        headers: { 'content-type': 'application/json' },
-        body: JSON.stringify({ ...values, count: Number(values.count), avoidRowEnds: Number(values.avoidRowEnds) }),
-      });
-      const body = await res.json();
-      if (!res.ok) {
-        setFields(body.error?.fields ?? {});
-        throw new Error(body.error?.message ?? 'The plan was not made.');
+      try {
+        const body = await apiSend<{ plan: { id: string; count: number } }>(
+          'POST',
+          '/api/sampling-plans',
+          { ...values, count: Number(values.count), avoidRowEnds: Number(values.avoidRowEnds) },
+          { fallback: 'The plan was not made.' },
+        );
+        return body.plan;
+      } catch (err) {
+        setFields(err instanceof ApiError ? (err.fields ?? {}) : {});
+        throw err;
       }
-      return body.plan as { id: string; count: number };
     },
     onSuccess: () => {
       setFields({});

@@ -4,7 +4,7 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useRef, useState } from 'react';
 import { useForm, type FieldPath, type Resolver } from 'react-hook-form';
-import { api, ApiError } from '@/components/blocks/api';
+import { apiGet, apiSend, ApiError } from '@/lib/api-client';
 import { Button } from '@/components/ui/button';
 import { Field, Input, Notice } from '@/components/ui/field';
 import { cn } from '@/lib/cn';
@@ -41,12 +41,10 @@ export function Measurements({ block, season, period, units, canRecord, canRemov
   const key = ['measurements', block.id, season];
   const list = useQuery({
     queryKey: key,
-    queryFn: () => api<{ measurements: MeasurementView[] }>(`/api/measurements?blockId=${block.id}&season=${season}`),
+    queryFn: () => apiGet<{ measurements: MeasurementView[] }>(`/api/measurements?blockId=${block.id}&season=${season}`),
   });
   const remove = useMutation({
-    mutationFn: (id: string) => fetch(`/api/measurements/${id}`, { method: 'DELETE' }).then(async (res) => {
-      if (!res.ok) throw new ApiError(res.status, 'error', ((await res.json().catch(() => null)) as { error?: { message?: string } } | null)?.error?.message ?? 'Could not remove it; try again.');
-    }),
+    mutationFn: (id: string) => apiSend('DELETE', `/api/measurements/${id}`, undefined, { fallback: 'Could not remove it; try again.' }),
     onSuccess: () => queryClient.invalidateQueries({ queryKey: key }),
   });
   return (
@@ -150,7 +148,7 @@ function MeasurementForm({ block, period, units, onSaved }: { block: Measurement
   const { errors } = form.formState;
   const kind = form.watch('kind');
   const save = useMutation({
-    mutationFn: (input: MeasurementInput) => api<{ measurement: MeasurementView }>('/api/measurements', { method: 'POST', body: input }),
+    mutationFn: (input: MeasurementInput) => apiSend<{ measurement: MeasurementView }>('POST', '/api/measurements', input),
     onSuccess: ({ measurement }) => {
       const day = measurement.measuredOn.slice(0, 10);
       const inSeason = day >= period.from.slice(0, 10) && day < period.to.slice(0, 10);

@@ -9,6 +9,7 @@ import { z } from 'zod';
 import { Button } from '@/components/ui/button';
 import { Field, Input, Notice, Select } from '@/components/ui/field';
 import { spraySchema } from '@/lib/validation/spray';
+import { apiSend, ApiError } from '@/lib/api-client';
 
 // The form edits local date-time text; the request carries ISO times with the device's offset.
 const formSchema = spraySchema.extend({ appliedAt: z.string().min(1, 'When did the application end?') });
@@ -21,17 +22,12 @@ export function SprayForm({ blocks }: { blocks: { id: string; name: string }[] }
   const form = useForm<FormValues>({ resolver: zodResolver(formSchema), defaultValues: { blockId: blocks[0]?.id } });
   const save = useMutation({
     mutationFn: async (values: FormValues) => {
-      const res = await fetch('/api/sprays', {
-        method: 'POST',
-        headers: { 'content-type': 'application/json' },
-        body: JSON.stringify({ ...values, appliedAt: new Date(values.appliedAt).toISOString() }),
-      });
-      const body = await res.json();
-      if (!res.ok) {
-        setServerErrors(body.error?.fields ?? {});
-        throw new Error(body.error?.message ?? 'The spray was not recorded.');
+      try {
+        return await apiSend('POST', '/api/sprays', { ...values, appliedAt: new Date(values.appliedAt).toISOString() }, { fallback: 'The spray was not recorded.' });
+      } catch (err) {
+        setServerErrors(err instanceof ApiError ? (err.fields ?? {}) : {});
+        throw err;
       }
-      return body;
     },
     onSuccess: () => {
       form.reset({ blockId: form.getValues('blockId') });

@@ -3,17 +3,11 @@
 import { useQuery } from '@tanstack/react-query';
 import Link from 'next/link';
 import { useState } from 'react';
-import { api } from '@/components/blocks/api';
+import { apiGet } from '@/lib/api-client';
 import { Field, Input, Notice, Select } from '@/components/ui/field';
 import { cn } from '@/lib/cn';
 import { formatDay } from '@/lib/grid/labels';
-import type { CheckedVine, PrunerDeviation } from '@/lib/server/services/tasks';
-
-interface Report {
-  finePercent: number;
-  pruners: PrunerDeviation[];
-  checks: (Omit<CheckedVine, 'observedAt'> & { observedAt: string })[];
-}
+import type { PruningCheckReport as Report } from '@/lib/contracts/tasks';
 
 const signed = (n: number | null, unit = '') => (n === null ? '—' : `${n > 0 ? '+' : ''}${n}${unit}`);
 
@@ -23,7 +17,7 @@ export function PruningCheckReport({ blocks }: { blocks: { id: string; name: str
   const [from, setFrom] = useState('');
   const [to, setTo] = useState('');
   const search = new URLSearchParams({ ...(block ? { block } : {}), ...(from ? { from } : {}), ...(to ? { to } : {}) });
-  const report = useQuery({ queryKey: ['pruning-checks', search.toString()], queryFn: () => api<Report>(`/api/pruning-checks?${search}`) });
+  const report = useQuery({ queryKey: ['pruning-checks', search.toString()], queryFn: () => apiGet<Report>(`/api/pruning-checks?${search}`) });
   const fine = report.data?.finePercent ?? 10;
   const names = new Map(report.data?.pruners.map((p) => [p.prunerId, p.prunerName ?? 'Unknown']) ?? []);
 

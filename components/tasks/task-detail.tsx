@@ -3,36 +3,23 @@
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import Link from 'next/link';
 import { useState } from 'react';
-import { api, ApiError } from '@/components/blocks/api';
+import { apiGet, apiSend, ApiError } from '@/lib/api-client';
 import { CommentThread } from '@/components/comments/comment-thread';
 import { memberLabel, useCrew } from '@/components/tasks/use-crew';
 import { Button } from '@/components/ui/button';
 import { Field, Input, Notice, Select } from '@/components/ui/field';
 import { cn } from '@/lib/cn';
+import type { TaskDetail } from '@/lib/contracts/tasks';
 import { formatDay, vineAddress } from '@/lib/grid/labels';
 import { REASON_LABELS, type FlagReason } from '@/lib/validation/flag';
 import { TASK_PRIORITIES, type TaskPriority, type UpdateTaskInput } from '@/lib/validation/task';
-import type { TaskRow } from './tasks-table';
 
-export interface TaskDetailData {
-  task: TaskRow & { note: string; vinesPerPanel: number | null; createdByName: string | null; closedAt: string | null };
-  items: {
-    positionId: string;
-    row: number;
-    position: number;
-    status: 'open' | 'done';
-    doneAt: string | null;
-    doneByName: string | null;
-    note: string;
-    observationId: string | null;
-    flags: { id: string; reason: string; note: string }[];
-  }[];
-}
+export type TaskDetailData = TaskDetail;
 
 /** One task: its vines and why each is in it, who did what, the thread, and the manager's controls. */
 export function TaskDetail({ initial, canManage }: { initial: TaskDetailData; canManage: boolean }) {
   const id = initial.task.id;
-  const detail = useQuery({ queryKey: ['task', id], queryFn: () => api<TaskDetailData>(`/api/tasks/${id}`), initialData: initial });
+  const detail = useQuery({ queryKey: ['task', id], queryFn: () => apiGet<TaskDetailData>(`/api/tasks/${id}`), initialData: initial });
   const { task, items } = detail.data;
   const day = (iso: string) => formatDay(iso.length === 10 ? `${iso}T12:00:00Z` : iso);
 
@@ -109,7 +96,7 @@ function TaskControls({ id, task }: { id: string; task: TaskDetailData['task'] }
   const [dueOn, setDueOn] = useState(task.dueOn ?? '');
   const [priority, setPriority] = useState<TaskPriority>(task.priority);
   const change = useMutation({
-    mutationFn: (body: UpdateTaskInput) => api<TaskDetailData>(`/api/tasks/${id}`, { method: 'PATCH', body }),
+    mutationFn: (body: UpdateTaskInput) => apiSend<TaskDetailData>('PATCH', `/api/tasks/${id}`, body),
     onSuccess: (data) => {
       queryClient.setQueryData(['task', id], data);
       void queryClient.invalidateQueries({ queryKey: ['tasks'] });

@@ -4,42 +4,20 @@ import { useQuery } from '@tanstack/react-query';
 import { flexRender, getCoreRowModel, getSortedRowModel, useReactTable, type ColumnDef, type SortingState } from '@tanstack/react-table';
 import Link from 'next/link';
 import { useMemo, useState } from 'react';
-import { api } from '@/components/blocks/api';
+import { apiGet } from '@/lib/api-client';
 import { memberLabel, useCrew } from '@/components/tasks/use-crew';
 import { Field, FilterSelect, Input, Notice } from '@/components/ui/field';
 import { SortableHead } from '@/components/ui/sortable-head';
 import { cn } from '@/lib/cn';
+import type { TaskList, TaskView } from '@/lib/contracts/tasks';
 import { formatDay } from '@/lib/grid/labels';
 import { TASK_PRIORITIES, TASK_STATUSES, type TaskPriority, type TaskStatus } from '@/lib/validation/task';
 
-export interface TaskRow {
-  id: string;
-  blockId: string;
-  blockName: string;
-  title: string;
-  assigneeId: string | null;
-  assigneeName: string | null;
-  dueOn: string | null;
-  priority: TaskPriority;
-  status: TaskStatus;
-  createdAt: string;
-  vines: number;
-  vinesDone: number;
-  overdue: boolean;
-}
 
-interface BlockProgress {
-  blockId: string;
-  blockName: string;
-  openTasks: number;
-  overdueTasks: number;
-  vines: number;
-  vinesDone: number;
-}
 
 const PRIORITY_RANK: Record<TaskPriority, number> = { high: 0, normal: 1, low: 2 };
 
-const columns: ColumnDef<TaskRow>[] = [
+const columns: ColumnDef<TaskView>[] = [
   {
     accessorKey: 'title',
     header: 'Task',
@@ -89,7 +67,7 @@ export function TasksTable() {
   const [sorting, setSorting] = useState<SortingState>([{ id: 'dueOn', desc: false }]);
   const crew = useCrew();
   const search = new URLSearchParams({ status, ...(assignee ? { assignee } : {}), ...(priority ? { priority } : {}) });
-  const list = useQuery({ queryKey: ['tasks', search.toString()], queryFn: () => api<{ tasks: TaskRow[]; progress: BlockProgress[] }>(`/api/tasks?${search}`) });
+  const list = useQuery({ queryKey: ['tasks', search.toString()], queryFn: () => apiGet<TaskList>(`/api/tasks?${search}`) });
   const blocks = useMemo(() => [...new Map((list.data?.tasks ?? []).map((t) => [t.blockId, t.blockName])).entries()].sort((a, b) => a[1].localeCompare(b[1])), [list.data]);
   const rows = useMemo(
     () => (list.data?.tasks ?? []).filter((t) => (!block || t.blockId === block) && (!query || `${t.title} ${t.blockName} ${t.assigneeName ?? ''}`.toLowerCase().includes(query.toLowerCase()))),

@@ -1,6 +1,7 @@
 'use client';
 
 import { useQuery } from '@tanstack/react-query';
+import { apiGet } from '@/lib/api-client';
 
 export interface CrewMember {
   userId: string;
@@ -22,9 +23,7 @@ export function useCrew() {
     staleTime: 5 * 60_000,
     queryFn: async (): Promise<CrewMember[]> => {
       try {
-        const res = await fetch('/api/members');
-        if (!res.ok) throw new Error(String(res.status));
-        const { members } = (await res.json()) as { members: CrewMember[] };
+        const { members } = await apiGet<{ members: CrewMember[] }>('/api/members');
         localStorage.setItem(KEY, JSON.stringify(members));
         return members;
       } catch (err) {

@@ -4,36 +4,14 @@ import { useQuery, useQueryClient } from '@tanstack/react-query';
 import { createStore, get, set } from 'idb-keyval';
 import { useEffect, useState } from 'react';
 import { collectionOf, listObservations, onOutboxChange } from '@/lib/offline/outbox';
-import type { TaskPriority, TaskStatus } from '@/lib/validation/task';
+import type { PhoneTaskList, TaskWithItems } from '@/lib/contracts/tasks';
+import { apiGet } from '@/lib/api-client';
 
-export interface PhoneTaskItem {
-  row: number;
-  position: number;
-  status: 'open' | 'done';
-  note: string;
-  flags: { id: string; reason: string; note: string }[];
-}
 
-export interface PhoneTask {
-  id: string;
-  blockId: string;
-  blockName: string;
-  vinesPerPanel: number | null;
-  title: string;
-  note: string;
-  dueOn: string | null;
-  priority: TaskPriority;
-  status: TaskStatus;
-  overdue: boolean;
-  vines: number;
-  vinesDone: number;
-  items: PhoneTaskItem[];
-}
+/** The phone's copy of one task: the task view with its vines. */
+export type PhoneTask = TaskWithItems;
 
-interface Kept {
-  tasks: PhoneTask[];
-  fetchedAt: string;
-}
+type Kept = PhoneTaskList;
 
 // The phone's copy of "my tasks", per person, so the list and the task walk open with no signal.
 const tasksStore = () => createStore('vineward-tasks', 'tasks');
@@ -47,12 +25,10 @@ export function useMyTasks(owner: string, enabled = true) {
     staleTime: 30_000,
     queryFn: async (): Promise<Kept & { offline: boolean }> => {
       try {
-        const res = await fetch('/api/tasks?assignee=me&items=1', { headers: { accept: 'application/json' } });
-        if (!res.ok || !res.headers.get('content-type')?.includes('application/json')) throw new Error(String(res.status));
-        const body = (await res.json()) as Kept;
+        const body = await apiGet<Kept>('/api/tasks?assignee=me&items=1');
         await set(owner, { tasks: body.tasks, fetchedAt: body.fetchedAt }, tasksStore());
         // Keep each task's block layout too, so its walk opens offline (the service worker caches it).
-        for (const blockId of new Set(body.tasks.map((t) => t.blockId))) void fetch(`/api/field/blocks/${blockId}`).catch(() => undefined);
+        for (const blockId of new Set(body.tasks.map((t) => t.blockId))) void apiGet(`/api/field/blocks/${blockId}`).catch(() => undefined);
         return { ...body, offline: false };
       } catch (err) {
         const kept = await get<Kept>(owner, tasksStore());

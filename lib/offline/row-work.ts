@@ -10,6 +10,8 @@ import { useEffect, useState } from 'react';
 import { LOCAL } from '@/lib/device-keys';
 import { enqueueRecord, listObservations, onOutboxChange, type ObservationEntry } from '@/lib/offline/outbox';
 import type { RowWorkPass } from '@/lib/work/passes';
+import { apiGet } from '@/lib/api-client';
+import type { DoneRows } from '@/lib/contracts/field';
 
 export const ROW_WORK_COLLECTION = 'row-work';
 
@@ -58,19 +60,13 @@ export function saveCrewDefaults(owner: string, defaults: CrewDefaults) {
   }
 }
 
-type DoneByPass = Partial<Record<RowWorkPass, number[]>>;
-
 /** Rows done end to end in each pass this season: the server's copy plus this phone's queued records. */
 export function useDoneRows(blockId: string, rowLengths: Map<number, number> | undefined) {
   const server = useQuery({
     queryKey: ['row-work-done', blockId],
     networkMode: 'always',
     staleTime: 30_000,
-    queryFn: async () => {
-      const res = await fetch(`/api/field/blocks/${blockId}/row-work`);
-      if (!res.ok) throw new Error(String(res.status));
-      return (await res.json()) as { season: number; done: DoneByPass };
-    },
+    queryFn: () => apiGet<DoneRows>(`/api/field/blocks/${blockId}/row-work`),
   });
   const [queued, setQueued] = useState<RowWorkDraft[]>([]);
   useEffect(() => {

@@ -1,35 +1,16 @@
 'use client';
 
 import { useQuery } from '@tanstack/react-query';
+import { apiGet } from '@/lib/api-client';
+import type { FieldLayout } from '@/lib/contracts/field';
 
-export interface FieldLayout {
-  block: {
-    id: string;
-    name: string;
-    variety: string;
-    trainingSystem: 'cane' | 'spur' | 'other';
-    vinesPerPanel: number | null;
-    rowCount: number;
-    positionOrigin: string | null;
-    unitSystem: 'metric' | 'imperial';
-  };
-  rows: { row: number; vineCount: number; statuses: string }[];
-  /** [row, position, worst open severity, open findings] */
-  findings: [number, number, number, number][];
-  sprays: { id: string; product: string; appliedAt: string; reiHours: number; reentryAt: string }[];
-  plans: { id: string; name: string; addresses: { row: number; position: number }[] }[];
-  fetchedAt: string;
-}
+export type { FieldLayout };
 
 /** The walkable layout of a block; served from the service worker's copy when there is no signal. */
 export function useFieldLayout(blockId: string) {
   return useQuery({
     queryKey: ['field-layout', blockId],
-    queryFn: async () => {
-      const res = await fetch(`/api/field/blocks/${blockId}`);
-      if (!res.ok) throw new Error(String(res.status));
-      return (await res.json()) as FieldLayout;
-    },
+    queryFn: () => apiGet<FieldLayout>(`/api/field/blocks/${blockId}`),
     networkMode: 'always',
     staleTime: 60_000,
   });

@@ -1,6 +1,7 @@
 import 'server-only';
 import { NextResponse, type NextRequest } from 'next/server';
 import { z, type ZodType } from 'zod';
+import type { ActionState, Contract, Sendable } from '@/lib/contracts/http';
 import type { Permission } from '@/lib/roles';
 import { requireMember, type Member } from '@/lib/server/auth/guard';
 import { assertContentType, assertSameOrigin, isMutation, JSON_TYPE, readLimited, readLimitedText } from '@/lib/server/boundary';
@@ -27,6 +28,13 @@ interface RouteOptions<B, P, Q> {
   /** The query string as one flat object (the last value of a repeated key). */
   query?: ZodType<Q>;
 }
+
+/**
+ * What a handler may return for a route whose options name `response: responds<R>()`: R itself
+ * (Dates where R has ISO text), or NextResponse.json of it. A route that names none may answer
+ * anything, CSV and redirects included.
+ */
+type Answer<R> = unknown extends R ? unknown : Sendable<R> | NextResponse<Sendable<R>>;
 
 const MAX_JSON_BYTES = 1_000_000;
 
@@ -97,9 +105,9 @@ async function prepare<B, P, Q>(
  * the session, organisation and role, parses path parameters, query and JSON body with zod (the body
  * read with a byte limit), and turns every error into `{ error: { code, message, fields? } }`.
  */
-export function memberRoute<B = undefined, P = Params, Q = undefined>(
-  options: RouteOptions<B, P, Q> & { permission?: Permission },
-  fn: (member: Member, ctx: Context<B, P, Q>) => Promise<unknown>,
+export function memberRoute<B = undefined, P = Params, Q = undefined, R = unknown>(
+  options: RouteOptions<B, P, Q> & { permission?: Permission; response?: Contract<R> },
+  fn: (member: Member, ctx: Context<B, P, Q>) => Promise<Answer<NoInfer<R>>>,
 ) {
   return async (req: NextRequest, segment: { params: Promise<Params> }) => {
     try {
@@ -117,7 +125,10 @@ export function memberRoute<B = undefined, P = Params, Q = undefined>(
  * For the few routes that anyone may call (health, invitation acceptance, unsubscribe). They carry
  * no session, so a foreign page gains nothing by sending them; bodies are bounded all the same.
  */
-export function publicRoute<B = undefined, P = Params, Q = undefined>(options: RouteOptions<B, P, Q>, fn: (ctx: Context<B, P, Q>) => Promise<unknown>) {
+export function publicRoute<B = undefined, P = Params, Q = undefined, R = unknown>(
+  options: RouteOptions<B, P, Q> & { response?: Contract<R> },
+  fn: (ctx: Context<B, P, Q>) => Promise<Answer<NoInfer<R>>>,
+) {
   return async (req: NextRequest, segment: { params: Promise<Params> }) => {
     try {
       const ctx = await prepare(req, segment, options, async () => undefined, false);
@@ -129,7 +140,7 @@ export function publicRoute<B = undefined, P = Params, Q = undefined>(options: R
   };
 }
 
-export type ActionState = { ok: boolean; message?: string; fields?: Record<string, string[]> };
+export type { ActionState };
 
 /** The server-action twin of memberRoute: same guard, same schema, errors as form state. */
 export function memberAction<B>(

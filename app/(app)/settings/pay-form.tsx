@@ -4,7 +4,7 @@ import { useActionState, useState } from 'react';
 import { savePayBasis } from '@/app/(app)/settings/pay-actions';
 import { Button } from '@/components/ui/button';
 import { Field, Input, Notice } from '@/components/ui/field';
-import type { ActionState } from '@/lib/server/http';
+import type { ActionState } from '@/lib/contracts/http';
 import type { PayBasis } from '@/lib/work/cost';
 
 export function PayForm({ current }: { current: PayBasis }) {

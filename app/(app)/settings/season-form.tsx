@@ -5,7 +5,7 @@ import { saveSeasonStart } from '@/app/(app)/settings/actions';
 import { Button } from '@/components/ui/button';
 import { Notice } from '@/components/ui/field';
 import { MONTHS } from '@/lib/reports/season';
-import type { ActionState } from '@/lib/server/http';
+import type { ActionState } from '@/lib/contracts/http';
 
 export function SeasonForm({ current }: { current: number }) {
   const [state, action, pending] = useActionState<ActionState, FormData>(saveSeasonStart, { ok: false });

@@ -4,7 +4,7 @@ import { useActionState } from 'react';
 import { saveUnitPreference } from '@/app/(app)/settings/actions';
 import { Button } from '@/components/ui/button';
 import { Notice } from '@/components/ui/field';
-import type { ActionState } from '@/lib/server/http';
+import type { ActionState } from '@/lib/contracts/http';
 import { formatAreaM2, formatLengthM, formatLengthMm, type UnitSystem } from '@/lib/units';
 
 const CHOICES: { value: UnitSystem; label: string }[] = [

@@ -1,4 +1,5 @@
 import type { Metadata } from 'next';
+import { inviteMember } from '@/app/(app)/team/actions';
 import { InviteForm } from '@/components/layout/invite-form';
 import { OpenInvitations } from '@/components/layout/open-invitations';
 import { UndeliveredMail } from '@/components/layout/undelivered-mail';
@@ -22,7 +23,7 @@ export default async function TeamPage() {
       <h1 className="text-3xl font-extrabold">Team of {member.organisationName}</h1>
       <section className="rounded-2xl border-2 border-line bg-panel p-4">
         <h2 className="mb-3 text-xl font-bold">Invite someone</h2>
-        <InviteForm />
+        <InviteForm invite={inviteMember} />
       </section>
       <section>
         <h2 className="mb-2 text-xl font-bold">Members</h2>

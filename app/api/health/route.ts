@@ -1,6 +1,7 @@
 import { NextResponse } from 'next/server';
 import { db } from '@/lib/server/db';
 import { mailReachable } from '@/lib/server/mail';
+import { pingDatabase } from '@/lib/server/queries/health';
 import { storageReachable } from '@/lib/server/storage';
 
 export const dynamic = 'force-dynamic';
@@ -13,7 +14,7 @@ function within<T>(ms: number, check: Promise<T>, otherwise: T) {
 
 async function databaseReachable() {
   try {
-    return await within(CHECK_MS, db().raw('select 1').then(() => true), false);
+    return await within(CHECK_MS, pingDatabase(db()), false);
   } catch {
     return false;
   }

@@ -1,9 +1,8 @@
 import { z } from 'zod';
-import { db } from '@/lib/server/db';
-import { AppError } from '@/lib/server/errors';
+import type { VinePanelResponse } from '@/lib/contracts/grid';
+import { responds } from '@/lib/contracts/http';
 import { memberRoute } from '@/lib/server/http';
-import { findVineByAddress } from '@/lib/server/queries/grid';
-import { vinePanel } from './vine-panel';
+import { vinePanelAt } from '@/lib/server/services/grid';
 
 const addressSchema = z.strictObject({
   block: z.uuid('Must be the id of a block'),
@@ -12,8 +11,4 @@ const addressSchema = z.strictObject({
 });
 
 /** GET /api/vines?block=&row=&position= — the same panel, found by the address the grid knows. */
-export const GET = memberRoute({ query: addressSchema }, async (member, { query: address }) => {
-  const vine = await findVineByAddress(db(), member.organisationId, address.block, address.row, address.position);
-  if (!vine) throw new AppError('not-found', 'There is no vine at that address in your organisation.');
-  return vinePanel(member, vine);
-});
+export const GET = memberRoute({ query: addressSchema, response: responds<VinePanelResponse>() }, async (member, { query }) => vinePanelAt(member, query));

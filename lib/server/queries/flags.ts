@@ -1,4 +1,5 @@
 import 'server-only';
+import type { FlagView } from '@/lib/contracts/flags';
 import type { Db } from '@/lib/server/db';
 import type { FlagReason } from '@/lib/validation/flag';
 
@@ -29,25 +30,6 @@ export function getStoredFlagHashes(db: Db, ids: string[]) {
   return db('flags').whereIn('id', ids).select<{ id: string; organisation_id: string; payload_sha256: string }[]>('id', 'organisation_id', 'payload_sha256');
 }
 
-export interface FlagView {
-  id: string;
-  blockId: string;
-  blockName: string;
-  vinesPerPanel: number | null;
-  row: number;
-  position: number;
-  toPosition: number;
-  reason: FlagReason;
-  note: string;
-  flaggedAt: Date;
-  flaggedBy: string | null;
-  flaggedByName: string | null;
-  status: 'open' | 'closed';
-  closedAt: Date | null;
-  taskId: string | null;
-  taskTitle: string | null;
-  taskStatus: 'open' | 'done' | 'cancelled' | null;
-}
 
 function flagQuery(db: Db, organisationId: string) {
   return db('flags as f')
@@ -81,7 +63,7 @@ export function listFlags(
   organisationId: string,
   f: { block?: string; status: 'open' | 'closed' | 'all'; untasked: boolean },
   limit = 2000,
-): Promise<FlagView[]> {
+): Promise<FlagView<Date>[]> {
   const q = flagQuery(db, organisationId)
     .orderBy([{ column: 'b.name' }, { column: 'f.row_number' }, { column: 'f.position' }, { column: 'f.flagged_at' }])
     .limit(limit);
@@ -91,7 +73,7 @@ export function listFlags(
   return q;
 }
 
-export function getFlag(db: Db, organisationId: string, id: string): Promise<FlagView | undefined> {
+export function getFlag(db: Db, organisationId: string, id: string): Promise<FlagView<Date> | undefined> {
   return flagQuery(db, organisationId).andWhere('f.id', id).first();
 }
 
@@ -172,4 +154,9 @@ export function listFlagsOnVine(db: Db, organisationId: string, positionId: stri
       by: db.raw('coalesce(u.name, u.email)'),
       taskId: 'f.task_id',
     });
+}
+
+/** Which of these flags of the organisation exist at all (those a lock did not find were closed meanwhile). */
+export function existingFlagIds(db: Db, organisationId: string, ids: string[]): Promise<string[]> {
+  return db('flags').where({ organisation_id: organisationId }).whereIn('id', ids).pluck('id');
 }

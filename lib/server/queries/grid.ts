@@ -2,6 +2,9 @@ import 'server-only';
 import { GRID_KINDS, kindCounts, kindMasks, rowCodes, type RawGridRow } from '@/lib/grid/cells';
 import { dayAfter, type GridFilters } from '@/lib/grid/filters';
 import type { KindCounts } from '@/lib/grid/summary';
+import type { Planting, VineNote, VineObservation, VinePhoto, VineRow } from '@/lib/contracts/grid';
+
+export type { VineRow };
 import type { Db } from '@/lib/server/db';
 import { listComments } from '@/lib/server/queries/comments';
 import { listFlagsOnVine, openFlagPositionsSql } from '@/lib/server/queries/flags';
@@ -296,20 +299,6 @@ export function listGridBlocks(db: Db, organisationId: string): Promise<GridBloc
     );
 }
 
-export interface VineRow {
-  positionId: string;
-  blockId: string;
-  blockName: string;
-  trainingSystem: string;
-  /** Metres between vines in the row: a bilateral cordon fills it, and bud load is read per length of it. */
-  vineSpacingM: number;
-  vinesPerPanel: number | null;
-  positionOrigin: string | null;
-  row: number;
-  position: number;
-  status: 'planted' | 'missing' | 'dead' | 'replant';
-  replantYear: number | null;
-}
 
 function vineQuery(db: Db, organisationId: string) {
   return db('vine_positions as vp')
@@ -340,13 +329,7 @@ export function findVineByAddress(db: Db, organisationId: string, blockId: strin
   return vineQuery(db, organisationId).andWhere({ 'vp.block_id': blockId, 'vp.row_number': row, 'vp.position': position });
 }
 
-export interface PlantingRow {
-  plantingYear: number | null;
-  clone: string | null;
-  rootstock: string | null;
-  removedYear: number | null;
-  removalReason: string | null;
-}
+export type PlantingRow = Planting;
 
 /** The vines that stood in a slot over the years, oldest first. */
 export function listPlantings(db: Db, positionId: string): Promise<PlantingRow[]> {
@@ -356,18 +339,7 @@ export function listPlantings(db: Db, positionId: string): Promise<PlantingRow[]
     .select({ plantingYear: 'planting_year', clone: 'clone', rootstock: 'rootstock', removedYear: 'removed_year', removalReason: 'removal_reason' });
 }
 
-export interface VineObservationRow {
-  id: string;
-  kind: string;
-  data: Record<string, unknown>;
-  note: string;
-  observedAt: Date;
-  severity: number;
-  status: 'open' | 'closed';
-  closedAt: Date | null;
-  recordedBy: string | null;
-  recordedByName: string | null;
-}
+export type VineObservationRow = VineObservation<Date>;
 
 /** Every live observation of a vine, newest first, open and closed. */
 export function listVineObservations(db: Db, organisationId: string, positionId: string): Promise<VineObservationRow[]> {
@@ -390,13 +362,7 @@ export function listVineObservations(db: Db, organisationId: string, positionId:
     });
 }
 
-export interface ObservationPhotoRow {
-  id: string;
-  observationId: string;
-  width: number | null;
-  height: number | null;
-  takenAt: Date;
-}
+export type ObservationPhotoRow = VinePhoto<Date> & { observationId: string };
 
 export function listObservationPhotos(db: Db, organisationId: string, observationIds: string[]): Promise<ObservationPhotoRow[]> {
   if (observationIds.length === 0) return Promise.resolve([]);
@@ -407,15 +373,9 @@ export function listObservationPhotos(db: Db, organisationId: string, observatio
     .select({ id: 'id', observationId: 'observation_id', width: 'width', height: 'height', takenAt: db.raw('coalesce(taken_at, created_at)') });
 }
 
-export interface VineNote {
-  id: string;
-  text: string;
-  by: string | null;
-  at: Date;
-}
 
 /** Open flags covering a vine, as the panel lists them: reason, note, who and when. */
-export async function listVineFlags(db: Db, organisationId: string, positionId: string): Promise<VineNote[]> {
+export async function listVineFlags(db: Db, organisationId: string, positionId: string): Promise<VineNote<Date>[]> {
   const flags = await listFlagsOnVine(db, organisationId, positionId);
   return flags
     .filter((f) => f.status === 'open')
@@ -428,7 +388,7 @@ export async function listVineFlags(db: Db, organisationId: string, positionId: 
 }
 
 /** Comments on the vine itself (its findings' threads open from each finding). */
-export async function listVineComments(db: Db, organisationId: string, positionId: string): Promise<VineNote[]> {
+export async function listVineComments(db: Db, organisationId: string, positionId: string): Promise<VineNote<Date>[]> {
   const comments = await listComments(db, organisationId, 'vine', positionId);
   return comments.map((c) => ({ id: c.id, text: c.body, by: c.authorName, at: c.createdAt }));
 }

@@ -69,3 +69,11 @@ export function listMembers(db: Db, organisationId: string) {
 export function updateSeasonStartMonth(db: Db, organisationId: string, month: number) {
   return db('organisations').where({ id: organisationId }).update({ season_start_month: month });
 }
+
+/** The role of the member with this e-mail in the organisation, if they are one. */
+export function findMemberRoleByEmail(db: Db, organisationId: string, email: string): Promise<{ role: string } | undefined> {
+  return db('memberships as m')
+    .join('users as u', 'u.id', 'm.user_id')
+    .where({ 'm.organisation_id': organisationId, 'u.email': email })
+    .first('m.role');
+}

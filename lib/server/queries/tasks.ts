@@ -1,4 +1,5 @@
 import 'server-only';
+import type { BlockTaskProgress, TaskItemView, TaskView } from '@/lib/contracts/tasks';
 import type { Role } from '@/lib/roles';
 import type { Db } from '@/lib/server/db';
 import type { TaskPriority, TaskStatus } from '@/lib/validation/task';
@@ -61,27 +62,6 @@ export function slotsInRuns(trx: Db, blockId: string, runs: { row: number; from:
     .then((r) => r.rows);
 }
 
-export interface TaskView {
-  id: string;
-  blockId: string;
-  blockName: string;
-  vinesPerPanel: number | null;
-  title: string;
-  note: string;
-  assigneeId: string | null;
-  assigneeName: string | null;
-  assignedAt: Date | null;
-  dueOn: string | null;
-  priority: TaskPriority;
-  status: TaskStatus;
-  createdBy: string | null;
-  createdByName: string | null;
-  createdAt: Date;
-  closedAt: Date | null;
-  vines: number;
-  vinesDone: number;
-  overdue: boolean;
-}
 
 function taskQuery(db: Db, organisationId: string) {
   return db('tasks as t')
@@ -122,7 +102,7 @@ export function listTasks(
   organisationId: string,
   f: { status: TaskStatus | 'all'; assigneeId?: string; block?: string; priority?: TaskPriority; overdue?: boolean },
   limit = 1000,
-): Promise<TaskView[]> {
+): Promise<TaskView<Date>[]> {
   const q = taskQuery(db, organisationId)
     .orderByRaw(`t.due_on nulls last, case t.priority when 'high' then 0 when 'normal' then 1 else 2 end, t.created_at`)
     .limit(limit);
@@ -135,26 +115,12 @@ export function listTasks(
   return q;
 }
 
-export function getTask(db: Db, organisationId: string, id: string): Promise<TaskView | undefined> {
+export function getTask(db: Db, organisationId: string, id: string): Promise<TaskView<Date> | undefined> {
   return taskQuery(db, organisationId).andWhere('t.id', id).first();
 }
 
-export interface TaskItemView {
-  taskId: string;
-  positionId: string;
-  row: number;
-  position: number;
-  sequence: number;
-  status: 'open' | 'done';
-  doneAt: Date | null;
-  doneByName: string | null;
-  note: string;
-  observationId: string | null;
-  /** The flags of the task that cover this vine: why it is in the task. */
-  flags: { id: string; reason: string; note: string }[];
-}
 
-export function listTaskItems(db: Db, taskIds: string[]): Promise<TaskItemView[]> {
+export function listTaskItems(db: Db, taskIds: string[]): Promise<TaskItemView<Date>[]> {
   if (taskIds.length === 0) return Promise.resolve([]);
   return db('task_items as i')
     .leftJoin('users as u', 'u.id', 'i.done_by')
@@ -265,19 +231,11 @@ export async function completeFinishedTasks(trx: Db, taskIds: string[]) {
   return result.rows.map((r) => r.id);
 }
 
-export interface BlockProgress {
-  blockId: string;
-  blockName: string;
-  openTasks: number;
-  overdueTasks: number;
-  vines: number;
-  vinesDone: number;
-}
 
 /** Per block: open tasks, how many are overdue, and their vines done so far. */
-export function blockProgress(db: Db, organisationId: string): Promise<BlockProgress[]> {
+export function blockProgress(db: Db, organisationId: string): Promise<BlockTaskProgress[]> {
   return db
-    .raw<{ rows: BlockProgress[] }>(
+    .raw<{ rows: BlockTaskProgress[] }>(
       `select b.id as "blockId", b.name as "blockName",
               count(distinct t.id)::int as "openTasks",
               count(distinct t.id) filter (where t.due_on < (now() at time zone 'utc')::date)::int as "overdueTasks",

@@ -45,3 +45,7 @@ export async function updateUser(
   const [row] = await db<UserRow>('users').where({ id }).update(patch).returning('*');
   return row;
 }
+
+export async function userExists(db: Db, id: string) {
+  return !!(await db('users').where({ id }).first('id'));
+}

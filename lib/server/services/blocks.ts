@@ -25,9 +25,9 @@ import {
   type BlockColumns,
   type BlockRow,
   type LayoutRowSpec,
-  type SlotStatus,
   type StatusCounts,
 } from '@/lib/server/queries/blocks';
+import type { BlockView, LayoutSummary } from '@/lib/contracts/blocks';
 import type { Db } from '@/lib/server/db';
 import { vinesPerAreaFor } from '@/lib/units';
 import {
@@ -38,34 +38,8 @@ import {
   type SlotStatusInput,
 } from '@/lib/validation/block';
 
-export interface BlockView {
-  id: string;
-  name: string;
-  variety: string;
-  clone: string | null;
-  rootstock: string | null;
-  plantingYear: number | null;
-  trainingSystem: 'cane' | 'spur' | 'other';
-  rowSpacingM: number;
-  vineSpacingM: number;
-  rowCount: number;
-  vinesPerRow: number;
-  vinesPerPanel: number | null;
-  firstRow: number;
-  rowOrder: 'ascending' | 'descending';
-  positionOrigin: string | null;
-  rowBearingDeg: number | null;
-  notes: string | null;
-  archivedAt: string | null;
-  updatedAt: string;
-  /** Planting slots, whatever stands in them. */
-  vineCount: number;
-  counts: StatusCounts;
-  /** Slots × row spacing × vine spacing: the planted area, headlands left out. */
-  areaM2: number;
-  vinesPerHa: number;
-  vinesPerAcre: number;
-}
+
+export type { BlockView, LayoutSummary };
 
 export function toBlockView(row: BlockRow, counts: StatusCounts = emptyCounts()): BlockView {
   const rowSpacingM = Number(row.row_spacing_m);
@@ -343,13 +317,6 @@ export async function setSlotStatus(member: Member, blockId: string, rowNumber: 
   });
 }
 
-export interface LayoutSummary {
-  applied: boolean;
-  rows: { before: number; after: number; added: number[]; removed: number[]; resized: { row: number; from: number; to: number }[] };
-  slots: { before: number; after: number; added: number; removed: number; statusChanged: number };
-  statusChanges: { from: SlotStatus; to: SlotStatus; count: number }[];
-  after: StatusCounts;
-}
 
 /** The most common row length, which becomes the block's vines-per-row default after an import. */
 function commonLength(rows: LayoutRowSpec[]) {

@@ -15,6 +15,7 @@ import {
   markDeskSeen,
   recordDeskLook,
 } from '@/lib/server/queries/desk';
+import { setLocalStatementTimeout } from '@/lib/server/queries/health';
 import { listUndeliveredMail } from '@/lib/server/queries/mail-outbox';
 import { listMembers } from '@/lib/server/queries/organisations';
 import { listSpraysInForce } from '@/lib/server/queries/sprays';
@@ -30,7 +31,7 @@ const iso = (d: Date) => d.toISOString();
 async function withDeadline<T>(fn: (trx: Db) => Promise<T>): Promise<T> {
   try {
     return await db().transaction(async (trx) => {
-      await trx.raw(`set local statement_timeout = ${DESK_DEADLINE_MS}`);
+      await setLocalStatementTimeout(trx, DESK_DEADLINE_MS);
       return fn(trx);
     });
   } catch (err) {

@@ -17,7 +17,7 @@ import {
   markInvitationAccepted,
   markInvitationRevoked,
 } from '@/lib/server/queries/invitations';
-import { upsertMembership } from '@/lib/server/queries/organisations';
+import { findMemberRoleByEmail, upsertMembership } from '@/lib/server/queries/organisations';
 import { getUserByEmail, insertUser } from '@/lib/server/queries/users';
 
 export const INVITATION_DAYS = 7;
@@ -26,10 +26,7 @@ const DAY_MS = 24 * 3600 * 1000;
 const hashToken = (token: string) => createHash('sha256').update(token).digest('hex');
 
 export async function createInvitation(member: Member, input: { email: string; role: Role }) {
-  const existing = await db()('memberships as m')
-    .join('users as u', 'u.id', 'm.user_id')
-    .where({ 'm.organisation_id': member.organisationId, 'u.email': input.email })
-    .first('m.role');
+  const existing = await findMemberRoleByEmail(db(), member.organisationId, input.email);
   if (existing) {
     throw new AppError('conflict', `${input.email} is already a member of ${member.organisationName}.`, {
       email: ['Already a member'],

@@ -1,10 +1,11 @@
 import 'server-only';
 import { planFromObservations } from '@/lib/grid/vine-plan';
+import type { CheckedVine, PrunerDeviation, PruningCheckReport, TaskDetail, TaskView } from '@/lib/contracts/tasks';
 import { can } from '@/lib/roles';
 import type { Member } from '@/lib/server/auth/guard';
 import { db, type Db } from '@/lib/server/db';
 import { AppError } from '@/lib/server/errors';
-import { attachFlagsToTask, closeTaskFlags, lockOpenFlags, releaseTaskFlags } from '@/lib/server/queries/flags';
+import { attachFlagsToTask, closeTaskFlags, existingFlagIds, lockOpenFlags, releaseTaskFlags } from '@/lib/server/queries/flags';
 import {
   completeFinishedTasks,
   findTaskItems,
@@ -22,7 +23,6 @@ import {
   slotsInRuns,
   updateTaskRow,
   type TaskUpdateInsert,
-  type TaskView,
 } from '@/lib/server/queries/tasks';
 import { wakeMailWorker } from '@/lib/server/services/mail-worker';
 import { queueAssignmentMail } from '@/lib/server/services/notifications';
@@ -63,7 +63,7 @@ function titleFor(reasons: FlagReason[], rows: number[]) {
  * order. Flags already worked by an open task, closed flags and other organisations' ids are refused
  * as a whole, so nothing is half made.
  */
-export async function createTasks(member: Member, input: CreateTasksInput): Promise<TaskView[]> {
+export async function createTasks(member: Member, input: CreateTasksInput): Promise<TaskView<Date>[]> {
   const ids = [...new Set(input.flagIds)];
   const created = await db().transaction(async (trx) => {
     const assignee = await requireAssignee(trx, member, input.assigneeId);
@@ -71,7 +71,7 @@ export async function createTasks(member: Member, input: CreateTasksInput): Prom
     if (flags.length !== ids.length) {
       const found = new Set(flags.map((f) => f.id));
       const missing = ids.filter((id) => !found.has(id));
-      const closed = await trx('flags').where({ organisation_id: member.organisationId }).whereIn('id', missing).pluck('id');
+      const closed = await existingFlagIds(trx, member.organisationId, missing);
       if (closed.length) throw new AppError('conflict', `${closed.length === 1 ? 'A flag was' : `${closed.length} flags were`} closed meanwhile; reload the list.`);
       throw new AppError('not-found', 'No such flag in your organisation.');
     }
@@ -120,7 +120,7 @@ export async function createTasks(member: Member, input: CreateTasksInput): Prom
   return Promise.all(created.map(async (id) => (await getTask(db(), member.organisationId, id))!));
 }
 
-export async function getTaskDetail(member: Member, id: string) {
+export async function getTaskDetail(member: Member, id: string): Promise<TaskDetail<Date>> {
   const task = await getTask(db(), member.organisationId, id);
   if (!task) throw new AppError('not-found', 'No such task in your organisation.');
   return { task, items: await listTaskItems(db(), [id]) };
@@ -229,40 +229,7 @@ export async function syncTaskUpdates(member: Member, records: unknown[]): Promi
   return results;
 }
 
-export interface CheckedVine {
-  id: string;
-  blockId: string;
-  blockName: string;
-  row: number;
-  position: number;
-  observedAt: string;
-  checkedByName: string | null;
-  prunerId: string;
-  budsLeft: number;
-  renewalSpurs: number;
-  budTarget: number | null;
-  /** Against the block's target, in percent of it; negative when too few buds were left. */
-  targetDeviationPercent: number | null;
-  /** Against the vine's own plan (planVine from its latest cane measurements), when it has one. */
-  planBuds: number | null;
-  planRenewalSpurs: number | null;
-  planDeviationBuds: number | null;
-}
 
-export interface PrunerDeviation {
-  prunerId: string;
-  prunerName: string | null;
-  vines: number;
-  budsLeftMean: number;
-  /** Mean signed deviation from the block target over the checks that had one. */
-  targetDeviationMeanPercent: number | null;
-  /** Share of those checks further off target than the "fine" band of the pruning-record rule. */
-  offTargetShare: number | null;
-  renewalSpursMean: number;
-  planChecks: number;
-  planDeviationMeanBuds: number | null;
-  planSpurDeviationMean: number | null;
-}
 
 const mean = (xs: number[]) => (xs.length ? xs.reduce((a, b) => a + b, 0) / xs.length : null);
 const round1 = (x: number | null) => (x === null ? null : Math.round(x * 10) / 10);
@@ -272,7 +239,7 @@ const round1 = (x: number | null) => (x === null ? null : Math.round(x * 10) / 1
  * block's target (as the crew was told it) and against each vine's plan, so the crew lead sees early
  * who leaves too many or too few.
  */
-export async function pruningCheckReport(member: Member, f: { block?: string; from?: string; to?: string }) {
+export async function pruningCheckReport(member: Member, f: { block?: string; from?: string; to?: string }): Promise<PruningCheckReport> {
   const checks = await listPruningChecks(db(), member.organisationId, f);
   const measurements = await listPlanMeasurements(db(), member.organisationId, checks.map((c) => c.positionId));
   const fine = DEFAULT_SETTINGS.pruningRecord.fineWithinPercent;

@@ -1,7 +1,7 @@
 'use client';
 
 import { useState } from 'react';
-import { api } from '@/components/blocks/api';
+import { apiSend } from '@/lib/api-client';
 import { Button } from '@/components/ui/button';
 import { Notice } from '@/components/ui/field';
 import { NOTIFICATION_KINDS, type NotificationKind, type Preferences } from '@/lib/validation/notification';
@@ -23,7 +23,7 @@ export function PreferencesForm({ initial }: { initial: Preferences }) {
     setSaving(true);
     setState(undefined);
     try {
-      const { preferences } = await api<{ preferences: Preferences }>('/api/notifications/preferences', { method: 'PUT', body: prefs });
+      const { preferences } = await apiSend<{ preferences: Preferences }>('PUT', '/api/notifications/preferences', prefs);
       setPrefs(preferences);
       setState({ tone: 'ok', message: 'Saved.' });
     } catch (err) {

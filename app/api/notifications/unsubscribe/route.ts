@@ -3,6 +3,7 @@ import { AppError } from '@/lib/server/errors';
 import { JSON_TYPE, mediaType, readLimitedText } from '@/lib/server/boundary';
 import { publicRoute } from '@/lib/server/http';
 import { savePreferences } from '@/lib/server/queries/notifications';
+import { userExists } from '@/lib/server/queries/users';
 import { verifyUnsubscribeToken } from '@/lib/server/services/notifications';
 import { unsubscribeSchema } from '@/lib/validation/notification';
 
@@ -26,8 +27,7 @@ export const POST = publicRoute({ accepts: ACCEPTS }, async ({ req }) => {
   const { token } = unsubscribeSchema.parse({ token: fromBody ?? req.nextUrl.searchParams.get('token') ?? undefined });
   const userId = verifyUnsubscribeToken(token);
   if (!userId) throw new AppError('not-found', 'This unsubscribe link is not valid. Sign in and change your notification settings instead.');
-  const exists = await db()('users').where({ id: userId }).first('id');
-  if (!exists) throw new AppError('not-found', 'This unsubscribe link is not valid. Sign in and change your notification settings instead.');
+  if (!(await userExists(db(), userId))) throw new AppError('not-found', 'This unsubscribe link is not valid. Sign in and change your notification settings instead.');
   await savePreferences(db(), userId, { digest: false });
   return { digest: false };
 });

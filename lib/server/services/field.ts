@@ -1,0 +1,48 @@
+import 'server-only';
+import type { FieldLayout, FieldVineHistory } from '@/lib/contracts/field';
+import type { Sendable } from '@/lib/contracts/http';
+import type { Member } from '@/lib/server/auth/guard';
+import { db } from '@/lib/server/db';
+import { AppError } from '@/lib/server/errors';
+import { getBlock } from '@/lib/server/queries/blocks';
+import { getFieldLayout, listVineObservations } from '@/lib/server/queries/field';
+import { listSamplingPlans } from '@/lib/server/queries/sampling-plans';
+import { listRecentSprays } from '@/lib/server/queries/sprays';
+
+async function requireBlock(member: Member, blockId: string) {
+  const block = await getBlock(db(), member.organisationId, blockId);
+  if (!block) throw new AppError('not-found', 'No such block in your organisation.');
+  return block;
+}
+
+/** The block as the phone walks it: slots, open findings, recent sprays and sampling plans. */
+export async function fieldLayout(member: Member, blockId: string): Promise<Sendable<FieldLayout>> {
+  const block = await requireBlock(member, blockId);
+  const [layout, sprays, plans] = await Promise.all([
+    getFieldLayout(db(), block.id),
+    listRecentSprays(db(), member.organisationId, block.id),
+    listSamplingPlans(db(), member.organisationId, block.id),
+  ]);
+  return {
+    block: {
+      id: block.id,
+      name: block.name,
+      variety: block.variety,
+      trainingSystem: block.training_system,
+      vinesPerPanel: block.vines_per_panel,
+      rowCount: block.row_count,
+      positionOrigin: block.position_origin,
+      unitSystem: member.unitSystem,
+    },
+    ...layout,
+    sprays,
+    plans: plans.map((p) => ({ id: p.id, name: p.name, addresses: p.addresses })),
+    fetchedAt: new Date().toISOString(),
+  };
+}
+
+/** A vine's recent observations, found by its address in a block of the member's organisation. */
+export async function fieldVineHistory(member: Member, blockId: string, row: number, position: number): Promise<Sendable<FieldVineHistory>> {
+  const block = await requireBlock(member, blockId);
+  return { observations: await listVineObservations(db(), block.id, row, position) };
+}
