@@ -1,6 +1,7 @@
 'use client';
 
 import { useQuery } from '@tanstack/react-query';
+import type { ViticultureSettings } from '@/lib/viticulture';
 
 export interface FieldLayout {
   block: {
@@ -18,6 +19,8 @@ export interface FieldLayout {
   findings: [number, number, number, number][];
   sprays: { id: string; product: string; appliedAt: string; reiHours: number; reentryAt: string }[];
   plans: { id: string; name: string; addresses: { row: number; position: number }[] }[];
+  /** The block's effective judgement settings; absent from a copy cached before they were sent. */
+  settings?: ViticultureSettings;
   fetchedAt: string;
 }
 

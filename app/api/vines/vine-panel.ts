@@ -3,6 +3,7 @@ import { describeData } from '@/lib/grid/labels';
 import { planFromObservations } from '@/lib/grid/vine-plan';
 import type { Member } from '@/lib/server/auth/guard';
 import { db } from '@/lib/server/db';
+import { settingsForBlock } from '@/lib/server/services/settings';
 import {
   listObservationPhotos,
   listPlantings,
@@ -15,11 +16,12 @@ import {
 /** Everything the vine panel shows, for a slot already checked to belong to the member's organisation. */
 export async function vinePanel(member: Member, vine: VineRow) {
   const org = member.organisationId;
-  const [plantings, observations, flags, comments] = await Promise.all([
+  const [plantings, observations, flags, comments, { settings }] = await Promise.all([
     listPlantings(db(), vine.positionId),
     listVineObservations(db(), org, vine.positionId),
     listVineFlags(db(), org, vine.positionId),
     listVineComments(db(), org, vine.positionId),
+    settingsForBlock(db(), org, vine.blockId),
   ]);
   const photos = await listObservationPhotos(db(), org, observations.map((o) => o.id));
   const readings = observations.map((o) => ({ kind: o.kind, data: o.data, observedAt: o.observedAt.toISOString() }));
@@ -32,7 +34,7 @@ export async function vinePanel(member: Member, vine: VineRow) {
       summary: describeData(o.kind, o.data, member.unitSystem),
       photos: photos.filter((p) => p.observationId === o.id).map(({ observationId: _, ...p }) => p),
     })),
-    plan: planFromObservations(vine.trainingSystem, readings, vine.vineSpacingM),
+    plan: planFromObservations(vine.trainingSystem, readings, vine.vineSpacingM, settings),
     flags,
     comments,
     units: member.unitSystem,
