@@ -176,3 +176,9 @@ export async function saveBlockSettings(member: Member, blockId: string, overrid
   });
   return loadBlockSettings(member, blockId);
 }
+
+/** The settings screen: the organisation's view and the blocks a manager can pick instead. */
+export async function loadSettingsScreen(member: Member) {
+  const [organisation, blocks] = await Promise.all([loadOrganisationSettings(member), listBlocks(db(), member.organisationId)]);
+  return { organisation, blocks: blocks.map((b) => ({ id: b.id, name: b.name })) };
+}
