@@ -133,7 +133,7 @@ export function JudgementSettings({ initial, blocks, canEdit }: { initial: Setti
         </Notice>
       ))}
       {groups.map((group) => (
-        <fieldset key={group} className="rounded-xl border-2 border-line p-3">
+        <fieldset key={group} className="rounded-xl border-2 border-line p-3" disabled={busy}>
           <legend className="px-1 font-bold">{group}</legend>
           <ul className="flex flex-col gap-3">
             {view.settings

@@ -20,6 +20,7 @@ test("a manager sets a block's shade-cane internode, and a scout's phone judges 
   await signInAs(page, 'manager@example.com');
   await page.goto('/settings');
   await page.getByTestId('settings-level').selectOption({ label: `Block: ${block.name}` });
+  await expect(page.getByText(`A value typed here is ${block.name}'s own`)).toBeVisible();
   const setting = page.getByTestId('setting-canes.shadeInternodeAboveMm');
   // The default and its source sit beside the field.
   await expect(setting).toContainText('Default 152.4 mm');
