@@ -4,6 +4,7 @@ import { useTranslations } from 'next-intl';
 import { useEffect, useState } from 'react';
 import { Controller, useForm, type Control } from 'react-hook-form';
 import { Choice } from '@/components/field/choice';
+import { useFieldSettings } from '@/components/field/field-settings';
 import { Button } from '@/components/ui/button';
 import { Field, Input } from '@/components/ui/field';
 import { memberLabel, useCrew } from '@/components/tasks/use-crew';
@@ -16,7 +17,6 @@ import {
   budInjuryAdjustment,
   CANE_INJURY_CAUSES,
   caneReasonCode,
-  DEFAULT_SETTINGS,
   inToMm,
   isWeakBudbreak,
   lbToKg,
@@ -316,15 +316,16 @@ function CrewField({ control, error }: { control: Control<Values>; error?: strin
 
 function CheckFeedback({ values }: { values: Values }) {
   const t = useTranslations('feedback');
+  const settings = useFieldSettings();
   const { canesKept, budsOnCanes, renewalSpurs, budTarget } = values;
   const counts = [canesKept, budsOnCanes, renewalSpurs];
   if (!counts.every((n) => typeof n === 'number' && Number.isInteger(n) && n >= 0)) return null;
-  const left = pruningCheckBuds({ canesKept: canesKept as number, budsOnCanes: budsOnCanes as number, renewalSpurs: renewalSpurs as number });
+  const left = pruningCheckBuds({ canesKept: canesKept as number, budsOnCanes: budsOnCanes as number, renewalSpurs: renewalSpurs as number }, settings);
   const target = typeof budTarget === 'number' && Number.isInteger(budTarget) && budTarget > 0 ? budTarget : undefined;
   const percent = target ? Math.round(budDeviationPercent(left, target)) : 0;
   return (
     <div
-      className={`rounded-lg border-2 p-3 ${Math.abs(percent) > DEFAULT_SETTINGS.pruningRecord.fineWithinPercent ? 'border-cut bg-cut-tint' : 'border-rootstock bg-rootstock-tint'}`}
+      className={`rounded-lg border-2 p-3 ${Math.abs(percent) > settings.pruningRecord.fineWithinPercent ? 'border-cut bg-cut-tint' : 'border-rootstock bg-rootstock-tint'}`}
       aria-live="polite"
       data-testid="check-feedback"
     >
@@ -338,11 +339,12 @@ function CheckFeedback({ values }: { values: Values }) {
 
 function CaneFeedback({ values }: { values: Record<string, unknown> }) {
   const t = useTranslations('feedback');
+  const settings = useFieldSettings();
   const diameter = values.diameterMm;
   if (typeof diameter !== 'number' || !(diameter > 0) || diameter > 40) return null;
   const internode = typeof values.longestInternodeMm === 'number' && values.longestInternodeMm > 0 ? values.longestInternodeMm : undefined;
-  const verdict = assessCane({ ...(values as object), baseDiameterMm: diameter, longestInternodeMm: internode } as Parameters<typeof assessCane>[0]);
-  const buds = recommendedBudsPerCane(diameter);
+  const verdict = assessCane({ ...(values as object), baseDiameterMm: diameter, longestInternodeMm: internode } as Parameters<typeof assessCane>[0], settings);
+  const buds = recommendedBudsPerCane(diameter, settings);
   const tone = verdict.verdict === 'fruit-cane' ? 'border-rootstock bg-rootstock-tint' : verdict.verdict === 'remove' ? 'border-alarm bg-alarm-tint' : 'border-cut bg-cut-tint';
   return (
     <div className={`rounded-lg border-2 p-3 ${tone}`} aria-live="polite" data-testid="cane-feedback">
@@ -360,8 +362,9 @@ function CaneFeedback({ values }: { values: Record<string, unknown> }) {
 
 function BudbreakFeedback({ retained, pushed }: { retained: unknown; pushed: unknown }) {
   const t = useTranslations('feedback');
+  const settings = useFieldSettings();
   if (typeof retained !== 'number' || typeof pushed !== 'number' || !(retained > 0) || pushed < 0 || pushed > retained) return null;
-  const weak = isWeakBudbreak(retained, pushed);
+  const weak = isWeakBudbreak(retained, pushed, settings);
   return (
     <div className={`rounded-lg border-2 p-3 ${weak ? 'border-cut bg-cut-tint' : 'border-rootstock bg-rootstock-tint'}`} aria-live="polite" data-testid="budbreak-feedback">
       <p className="text-lg font-extrabold">{t('budbreak', { percent: Math.round(budbreakPercent(retained, pushed)) })}</p>
@@ -372,9 +375,10 @@ function BudbreakFeedback({ retained, pushed }: { retained: unknown; pushed: unk
 
 function BudInjuryFeedback({ cut, dead }: { cut: unknown; dead: unknown }) {
   const t = useTranslations('feedback');
+  const settings = useFieldSettings();
   if (typeof cut !== 'number' || typeof dead !== 'number' || !(cut > 0) || dead < 0 || dead > cut) return null;
   const percent = primaryBudKillPercent(cut, dead);
-  const { advice } = budInjuryAdjustment(100, percent);
+  const { advice } = budInjuryAdjustment(100, percent, settings);
   return (
     <div className="rounded-lg border-2 border-cut bg-cut-tint p-3" aria-live="polite">
       <p className="text-lg font-extrabold">{t('kill', { percent: Math.round(percent) })}</p>

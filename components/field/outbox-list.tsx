@@ -3,6 +3,7 @@
 import { useTranslations } from 'next-intl';
 import { useEffect, useState } from 'react';
 import dynamic from 'next/dynamic';
+import { BlockSettingsProvider } from '@/components/field/field-settings';
 import { Button } from '@/components/ui/button';
 import { Notice } from '@/components/ui/field';
 import {
@@ -42,18 +43,20 @@ export function OutboxList({ owner, imperial }: { owner: string; imperial: boole
 
   if (editing) {
     return (
-      <ObservationForm
-        kind={editing.record.kind as ObservationKind}
-        imperial={imperial}
-        allowNext={false}
-        initial={{ data: editing.record.data as Record<string, unknown>, note: String(editing.record.note ?? '') }}
-        onCancel={() => setEditing(undefined)}
-        onSave={async (saved) => {
-          await replaceObservation({ ...editing.record, data: saved.data, note: saved.note });
-          setEditing(undefined);
-          void syncNow();
-        }}
-      />
+      <BlockSettingsProvider blockId={String(editing.record.blockId)}>
+        <ObservationForm
+          kind={editing.record.kind as ObservationKind}
+          imperial={imperial}
+          allowNext={false}
+          initial={{ data: editing.record.data as Record<string, unknown>, note: String(editing.record.note ?? '') }}
+          onCancel={() => setEditing(undefined)}
+          onSave={async (saved) => {
+            await replaceObservation({ ...editing.record, data: saved.data, note: saved.note });
+            setEditing(undefined);
+            void syncNow();
+          }}
+        />
+      </BlockSettingsProvider>
     );
   }
 

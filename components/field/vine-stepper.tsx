@@ -5,6 +5,7 @@ import { useFormatter, useTranslations } from 'next-intl';
 import { useCallback, useEffect, useMemo, useState } from 'react';
 import dynamic from 'next/dynamic';
 import type { SavedObservation } from '@/components/field/observation-form';
+import { FieldSettingsProvider } from '@/components/field/field-settings';
 import { ReiWarning } from '@/components/field/rei-warning';
 import { TaskStep } from '@/components/tasks/task-step';
 import { useMyTasks } from '@/components/tasks/use-my-tasks';
@@ -235,7 +236,9 @@ export function VineStepper({ blockId, owner }: { blockId: string; owner: string
           }}
         />
       ) : kind ? (
-        <ObservationForm kind={kind} imperial={layout.block.unitSystem === 'imperial'} onSave={save} onCancel={() => setKind(undefined)} />
+        <FieldSettingsProvider settings={layout.settings}>
+          <ObservationForm kind={kind} imperial={layout.block.unitSystem === 'imperial'} onSave={save} onCancel={() => setKind(undefined)} />
+        </FieldSettingsProvider>
       ) : flagging ? (
         <FlagForm
           owner={owner}

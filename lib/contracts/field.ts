@@ -1,5 +1,5 @@
 /** The phone's reads: what /api/field/blocks/** answer (the service worker keeps the last answer). */
-import type { ObservationKind } from '@/lib/viticulture';
+import type { ObservationKind, ViticultureSettings } from '@/lib/viticulture';
 import type { RowWorkPass } from '@/lib/work/passes';
 import type { TrainingSystem } from '@/lib/validation/block';
 
@@ -20,6 +20,8 @@ export interface FieldLayout {
   findings: [number, number, number, number][];
   sprays: { id: string; product: string; appliedAt: string; reiHours: number; reentryAt: string }[];
   plans: { id: string; name: string; addresses: { row: number; position: number }[] }[];
+  /** The block's effective judgement settings; absent from a copy cached before they were sent. */
+  settings?: ViticultureSettings;
   fetchedAt: string;
 }
 

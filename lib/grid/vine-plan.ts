@@ -3,7 +3,16 @@
  * any were measured (cane-diameter records, and shade-cane records that carry a diameter), and the
  * latest pruning weight from a pruning record. The plan itself is lib/viticulture's planVine.
  */
-import { checkBudLoad, planVine, type BudLoadCheck, type CaneInput, type Exposure, type VinePlan, type WoodOrigin } from '@/lib/viticulture';
+import {
+  checkBudLoad,
+  planVine,
+  type BudLoadCheck,
+  type CaneInput,
+  type Exposure,
+  type SettingsOverride,
+  type VinePlan,
+  type WoodOrigin,
+} from '@/lib/viticulture';
 
 export interface MeasuredObservation {
   kind: string;
@@ -41,9 +50,15 @@ function caneFrom(o: MeasuredObservation): CaneInput | null {
 
 /**
  * `vineSpacingM`, where known, caps a spur plan at the spurs its cordon holds (a bilateral cordon
- * fills the vine spacing) and reads the plan's buds per foot of row.
+ * fills the vine spacing) and reads the plan's buds per foot of row. `settings` are the block's
+ * (lib/server/services/settings.ts); left out, the defaults.
  */
-export function planFromObservations(trainingSystem: string, observations: readonly MeasuredObservation[], vineSpacingM?: number): VinePlanReading {
+export function planFromObservations(
+  trainingSystem: string,
+  observations: readonly MeasuredObservation[],
+  vineSpacingM?: number,
+  settings?: SettingsOverride,
+): VinePlanReading {
   const measured = observations
     .map((o) => ({ o, cane: caneFrom(o) }))
     .filter((m): m is { o: MeasuredObservation; cane: CaneInput } => m.cane !== null);
@@ -69,8 +84,9 @@ export function planFromObservations(trainingSystem: string, observations: reado
       canes,
       ...(pruningWeightKg !== null ? { pruningWeight: pruningWeightKg, weightUnit: 'kg' as const } : {}),
       ...(spacing !== undefined && trainingSystem === 'spur' ? { cordonLengthM: spacing } : {}),
+      ...(settings ? { settings } : {}),
     });
-    const budLoad = spacing === undefined ? null : checkBudLoad(plan.targetBuds ?? plan.totalBuds, spacing);
+    const budLoad = spacing === undefined ? null : checkBudLoad(plan.targetBuds ?? plan.totalBuds, spacing, settings);
     return { ...base, plan, reason: null, budLoad };
   } catch (err) {
     // Stored data passed the sync schema; a RangeError here means a measurement the plan cannot use.

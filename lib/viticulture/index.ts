@@ -61,9 +61,20 @@ export { estimatePruningLabour, type LabourEstimate, type LabourInput } from './
 export { SEVERITIES, budDeviationPercent, observationSeverity, pruningCheckBuds, type Severity } from './severity';
 export {
   DEFAULT_SETTINGS,
+  layerSettings,
   mergeSettings,
+  overlaySettings,
+  overriddenKeys,
+  SETTING_KEYS,
+  SETTINGS_META,
+  settingValue,
   type BudRange,
+  type LayeredSettings,
+  type SettingKey,
+  type SettingLevel,
+  type SettingMeta,
   type SettingsOverride,
+  type SettingValue,
   type ViticultureSettings,
 } from './settings';
 export * from './observations';

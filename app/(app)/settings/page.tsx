@@ -2,6 +2,8 @@ import type { Metadata } from 'next';
 import { can } from '@/lib/roles';
 import { memberForPage } from '@/lib/server/auth/guard';
 import { loadPayBasis } from '@/lib/server/services/row-work';
+import { loadSettingsScreen } from '@/lib/server/services/settings';
+import { JudgementSettings } from '@/components/settings/judgement-settings';
 import { MONTHS, seasonBounds, seasonOf } from '@/lib/reports/season';
 import { formatAreaM2, formatLengthM } from '@/lib/units';
 import { SeasonForm } from './season-form';
@@ -14,6 +16,7 @@ export default async function SettingsPage() {
   const member = await memberForPage();
   const season = seasonOf(new Date(), member.seasonStartMonth);
   const { from, to } = seasonBounds(season, member.seasonStartMonth);
+  const screen = await loadSettingsScreen(member);
   return (
     <div className="flex max-w-3xl flex-col gap-6">
       <div>
@@ -47,6 +50,17 @@ export default async function SettingsPage() {
         )}
       </section>
       <PayBasisSection member={member} pay={await loadPayBasis(member.organisationId)} />
+      <section className="rounded-2xl border-2 border-line bg-panel p-4" aria-labelledby="judgement-title">
+        <h2 id="judgement-title" className="mb-2 text-xl font-bold">
+          Judgements
+        </h2>
+        <p className="mb-3">
+          The limits behind the verdicts on the phone, the grid and the reports: cane sizes, bud loads, Ravaz ranges and the rest. Each default names its source;
+          where sources disagree, set the organisation&apos;s own or a block&apos;s own. Phones pick up a block&apos;s settings with its layout, so they apply offline
+          from the next time the block is opened with signal.
+        </p>
+        <JudgementSettings initial={screen.organisation} blocks={screen.blocks} canEdit={can(member.role, 'manage-organisation')} />
+      </section>
     </div>
   );
 }

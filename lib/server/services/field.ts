@@ -8,6 +8,7 @@ import { getBlock } from '@/lib/server/queries/blocks';
 import { getFieldLayout, listVineObservations } from '@/lib/server/queries/field';
 import { listSamplingPlans } from '@/lib/server/queries/sampling-plans';
 import { listRecentSprays } from '@/lib/server/queries/sprays';
+import { settingsForBlock } from '@/lib/server/services/settings';
 
 async function requireBlock(member: Member, blockId: string) {
   const block = await getBlock(db(), member.organisationId, blockId);
@@ -18,10 +19,11 @@ async function requireBlock(member: Member, blockId: string) {
 /** The block as the phone walks it: slots, open findings, recent sprays and sampling plans. */
 export async function fieldLayout(member: Member, blockId: string): Promise<Sendable<FieldLayout>> {
   const block = await requireBlock(member, blockId);
-  const [layout, sprays, plans] = await Promise.all([
+  const [layout, sprays, plans, { settings }] = await Promise.all([
     getFieldLayout(db(), block.id),
     listRecentSprays(db(), member.organisationId, block.id),
     listSamplingPlans(db(), member.organisationId, block.id),
+    settingsForBlock(db(), member.organisationId, block.id),
   ]);
   return {
     block: {
@@ -37,6 +39,8 @@ export async function fieldLayout(member: Member, blockId: string): Promise<Send
     ...layout,
     sprays,
     plans: plans.map((p) => ({ id: p.id, name: p.name, addresses: p.addresses })),
+    // The block's judgement settings, so the phone's verdicts match the report's, offline too.
+    settings,
     fetchedAt: new Date().toISOString(),
   };
 }

@@ -21,6 +21,7 @@ import {
   loadGrid,
 } from '@/lib/server/queries/grid';
 import { listPhotoLog } from '@/lib/server/queries/photo-log';
+import { settingsForBlock } from '@/lib/server/services/settings';
 
 /** The block's row grid and its summary, with the time its SQL took (for Server-Timing). */
 export async function gridView(member: Member, blockId: string, filters: GridFilters): Promise<{ grid: GridResponse; sqlMs: number }> {
@@ -54,11 +55,12 @@ export async function gridView(member: Member, blockId: string, filters: GridFil
 /** Everything the vine panel shows, for a slot already checked to belong to the member's organisation. */
 async function vinePanel(member: Member, vine: VineRow): Promise<Sendable<VinePanelResponse>> {
   const org = member.organisationId;
-  const [plantings, observations, flags, comments] = await Promise.all([
+  const [plantings, observations, flags, comments, { settings }] = await Promise.all([
     listPlantings(db(), vine.positionId),
     listVineObservations(db(), org, vine.positionId),
     listVineFlags(db(), org, vine.positionId),
     listVineComments(db(), org, vine.positionId),
+    settingsForBlock(db(), org, vine.blockId),
   ]);
   const photos = await listObservationPhotos(db(), org, observations.map((o) => o.id));
   const readings = observations.map((o) => ({ kind: o.kind, data: o.data, observedAt: o.observedAt.toISOString() }));
@@ -71,7 +73,7 @@ async function vinePanel(member: Member, vine: VineRow): Promise<Sendable<VinePa
       summary: describeData(o.kind, o.data, member.unitSystem),
       photos: photos.filter((p) => p.observationId === o.id).map(({ observationId: _, ...p }) => p),
     })),
-    plan: planFromObservations(vine.trainingSystem, readings, vine.vineSpacingM),
+    plan: planFromObservations(vine.trainingSystem, readings, vine.vineSpacingM, settings),
     flags,
     comments,
     units: member.unitSystem,

@@ -28,7 +28,8 @@ import {
 import { loadRecordedLabour } from '@/lib/server/services/row-work';
 import { weightKg, type MeasurementInput, type MeasurementView } from '@/lib/validation/measurement';
 import type { ReportOptions } from '@/lib/validation/report';
-import { DEFAULT_SETTINGS } from '@/lib/viticulture';
+import { settingsForBlocks } from '@/lib/server/services/settings';
+import type { ViticultureSettings } from '@/lib/viticulture';
 
 const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 
@@ -38,8 +39,14 @@ async function blockOf(database: Db, member: Member, blockId: string): Promise<B
   return block;
 }
 
-async function blockSeason(database: Db, member: Member, block: BlockRow, season: number, options: ReportOptions): Promise<BlockReport> {
-  const settings = DEFAULT_SETTINGS;
+async function blockSeason(
+  database: Db,
+  member: Member,
+  block: BlockRow,
+  season: number,
+  options: ReportOptions,
+  settings: ViticultureSettings,
+): Promise<BlockReport> {
   const org = member.organisationId;
   const month = member.seasonStartMonth;
   const period = seasonBounds(season, month);
@@ -95,13 +102,14 @@ export async function loadBlockReport(member: Member, blockId: string, options: 
   const seasons = await listSeasons(database, member.organisationId, block.id, month);
   const season = options.season ?? defaultSeason(seasons, now, month);
   const previous = options.compare === 'none' ? null : (options.compare ?? season - 1);
-  const report = await blockSeason(database, member, block, season, options);
+  const settings = (await settingsForBlocks(database, member.organisationId, [block.id]))(block.id);
+  const report = await blockSeason(database, member, block, season, options, settings);
   let comparison: Comparison | null = null;
   if (previous !== null && previous !== season) {
     // The other season is read from its own records; only the inputs a person chose carry over.
     const { budsPerVine: _b, budbreakPercent: _p, budTarget: _t, ...shared } = options;
     const [before, persisted] = await Promise.all([
-      blockSeason(database, member, block, previous, shared),
+      blockSeason(database, member, block, previous, shared, settings),
       listPersistedProblems(database, member.organisationId, block.id, seasonBounds(season, month), seasonBounds(previous, month)),
     ]);
     comparison = compareReports(report, before, persisted);
@@ -120,10 +128,10 @@ export async function loadEstateReport(member: Member, options: ReportOptions, n
   const seasons = await listSeasons(database, member.organisationId, undefined, member.seasonStartMonth);
   const season = options.season ?? defaultSeason(seasons, now, member.seasonStartMonth);
   const { budsPerVine: _b, budbreakPercent: _p, budTarget: _t, minutesPerVine: _m, ...shared } = options;
-  const all = await listBlocks(database, member.organisationId);
+  const [all, settingsOf] = await Promise.all([listBlocks(database, member.organisationId), settingsForBlocks(database, member.organisationId)]);
   const blocks: BlockReport[] = [];
   for (let i = 0; i < all.length; i += BLOCKS_AT_ONCE) {
-    blocks.push(...(await Promise.all(all.slice(i, i + BLOCKS_AT_ONCE).map((block) => blockSeason(database, member, block, season, shared)))));
+    blocks.push(...(await Promise.all(all.slice(i, i + BLOCKS_AT_ONCE).map((block) => blockSeason(database, member, block, season, shared, settingsOf(block.id))))));
   }
   return { ...buildEstateReport(season, blocks), seasons };
 }

@@ -15,6 +15,7 @@ import {
 } from '@/lib/server/queries/observations';
 import { memberIdsAmong } from '@/lib/server/queries/tasks';
 import { observationRecordSchema, type ObservationRecord } from '@/lib/validation/observation';
+import { settingsForBlocks } from '@/lib/server/services/settings';
 import { observationSeverity, type ObservationKind } from '@/lib/viticulture';
 
 export type SyncStatus = 'created' | 'duplicate' | 'conflict' | 'rejected';
@@ -132,7 +133,11 @@ export async function syncObservations(member: Member, records: unknown[]): Prom
   const blocks = await ownedBlockIds(db(), member.organisationId, [...new Set(unresolved.map((v) => v.record.blockId))]);
 
   const checked = valid.flatMap((v) => (v.record.kind === 'pruning-check' ? [String(v.record.data.prunedBy)] : []));
-  const crew = await memberIdsAmong(db(), member.organisationId, checked);
+  const [crew, settingsOf] = await Promise.all([
+    memberIdsAmong(db(), member.organisationId, checked),
+    // Severity is judged with each block's own settings, as the phone judged it.
+    settingsForBlocks(db(), member.organisationId, [...new Set(valid.map((v) => v.record.blockId))]),
+  ]);
 
   const rows: ObservationInsert[] = [];
   const pending: typeof valid = [];
@@ -168,7 +173,7 @@ export async function syncObservations(member: Member, records: unknown[]): Prom
       note: r.note,
       observed_at: r.observedAt,
       recorded_by: member.userId,
-      severity: observationSeverity(r.kind as ObservationKind, r.data as never),
+      severity: observationSeverity(r.kind as ObservationKind, r.data as never, settingsOf(r.blockId)),
       payload_sha256: v.hash,
     });
     pending.push(v);

@@ -29,7 +29,8 @@ import { queueAssignmentMail } from '@/lib/server/services/notifications';
 import { hashPayload, rejected, settleOnce, validateRecords, type SyncResult, type ValidRecord } from '@/lib/server/services/sync';
 import { REASON_LABELS, type FlagReason } from '@/lib/validation/flag';
 import { taskUpdateRecordSchema, type CreateTasksInput, type TaskUpdateRecord, type UpdateTaskInput } from '@/lib/validation/task';
-import { budDeviationPercent, DEFAULT_SETTINGS, pruningCheckBuds } from '@/lib/viticulture';
+import { settingsForBlocks } from '@/lib/server/services/settings';
+import { budDeviationPercent, pruningCheckBuds } from '@/lib/viticulture';
 
 /** The person who will do the work: a member of this organisation whose role completes tasks. */
 async function requireAssignee(trx: Db, member: Member, assigneeId: string) {
@@ -241,15 +242,21 @@ const round1 = (x: number | null) => (x === null ? null : Math.round(x * 10) / 1
  */
 export async function pruningCheckReport(member: Member, f: { block?: string; from?: string; to?: string }): Promise<PruningCheckReport> {
   const checks = await listPruningChecks(db(), member.organisationId, f);
-  const measurements = await listPlanMeasurements(db(), member.organisationId, checks.map((c) => c.positionId));
-  const fine = DEFAULT_SETTINGS.pruningRecord.fineWithinPercent;
+  const [measurements, settingsOf] = await Promise.all([
+    listPlanMeasurements(db(), member.organisationId, checks.map((c) => c.positionId)),
+    settingsForBlocks(db(), member.organisationId, [...new Set(checks.map((c) => c.blockId))]),
+  ]);
+  // Each check is judged by its own block's band; the one shown is the block's asked for, else the organisation's.
+  const fineOf = new Map<string, number>();
   const vines: CheckedVine[] = checks.map((c) => {
-    const budsLeft = pruningCheckBuds(c.data);
+    const settings = settingsOf(c.blockId);
+    fineOf.set(c.id, settings.pruningRecord.fineWithinPercent);
+    const budsLeft = pruningCheckBuds(c.data, settings);
     const target = c.data.budTarget ?? null;
     const readings = measurements
       .filter((m) => m.positionId === c.positionId && m.observedAt <= c.observedAt)
       .map((m) => ({ kind: m.kind, data: m.data, observedAt: m.observedAt.toISOString() }));
-    const { plan } = planFromObservations(c.trainingSystem, readings);
+    const { plan } = planFromObservations(c.trainingSystem, readings, undefined, settings);
     return {
       id: c.id,
       blockId: c.blockId,
@@ -271,15 +278,15 @@ export async function pruningCheckReport(member: Member, f: { block?: string; fr
   const names = new Map(checks.map((c) => [c.data.prunedBy, c.prunerName]));
   const pruners: PrunerDeviation[] = [...new Set(vines.map((v) => v.prunerId))].map((prunerId) => {
     const mine = vines.filter((v) => v.prunerId === prunerId);
-    const targeted = mine.filter((v) => v.targetDeviationPercent !== null).map((v) => v.targetDeviationPercent!);
+    const targeted = mine.filter((v) => v.targetDeviationPercent !== null);
     const planned = mine.filter((v) => v.planBuds !== null);
     return {
       prunerId,
       prunerName: names.get(prunerId) ?? null,
       vines: mine.length,
       budsLeftMean: round1(mean(mine.map((v) => v.budsLeft)))!,
-      targetDeviationMeanPercent: round1(mean(targeted)),
-      offTargetShare: targeted.length ? round1(targeted.filter((d) => Math.abs(d) > fine).length / targeted.length) : null,
+      targetDeviationMeanPercent: round1(mean(targeted.map((v) => v.targetDeviationPercent!))),
+      offTargetShare: targeted.length ? round1(targeted.filter((v) => Math.abs(v.targetDeviationPercent!) > fineOf.get(v.id)!).length / targeted.length) : null,
       renewalSpursMean: round1(mean(mine.map((v) => v.renewalSpurs)))!,
       planChecks: planned.length,
       planDeviationMeanBuds: round1(mean(planned.map((v) => v.planDeviationBuds!))),
@@ -287,5 +294,5 @@ export async function pruningCheckReport(member: Member, f: { block?: string; fr
     };
   });
   pruners.sort((a, b) => Math.abs(b.targetDeviationMeanPercent ?? 0) - Math.abs(a.targetDeviationMeanPercent ?? 0) || (a.prunerName ?? '').localeCompare(b.prunerName ?? ''));
-  return { finePercent: fine, pruners, checks: vines };
+  return { finePercent: settingsOf(f.block ?? '').pruningRecord.fineWithinPercent, pruners, checks: vines };
 }

@@ -12,6 +12,8 @@ describe('settings', () => {
     expect(DEFAULT_SETTINGS.budLoad).toEqual({ minBudsPerFt: 4, maxBudsPerFt: 6 }); // Ohio State 2023: "approximately 4-6 buds per foot"
     expect(DEFAULT_SETTINGS.canes.thinBelowMm).toBeCloseTo((5 / 16) * 25.4, 12); // Westover, Wines & Vines May 2016: "between 5/16 and a half inch"
     expect(DEFAULT_SETTINGS.canes.bullAboveMm).toBeCloseTo(0.5 * 25.4, 12); // eXtension: "large diameter (greater than ½ inch)"
+    // The middle of the published 1/4–1/2 in range (grovida.us "1/4 inch or more"; Yuma Sun 2022 "1/4-1/2 inch").
+    expect(DEFAULT_SETTINGS.canes.idealMm).toBeCloseTo(((1 / 4 + 1 / 2) / 2) * 25.4, 12);
     expect(DEFAULT_SETTINGS.canes.shadeInternodeAboveMm).toBeCloseTo(6 * 25.4, 12); // eXtension: "very long internodes (5-6 inches or more)"
     expect(DEFAULT_SETTINGS.plan.minSpurSpacingMm).toBeCloseTo(3 * 25.4, 12); // Klodd, UMN Extension: "one spur every 3-5 inches"
     expect(DEFAULT_SETTINGS.crop.lagPhaseMultiplier).toBe(2); // Fiola, UMD: "cluster weights will double from lag phase to harvest"

@@ -103,6 +103,14 @@ describe('observationSeverity', () => {
     expect(record(0)).toBe(3);
   });
 
+  it('puts the pruning-record steps at 10, 25 and 50 % off target, each limit counted on the nearer side (common practice, no source)', () => {
+    // One cane of n buds against a target of 100: n − 100 percent off.
+    const off = (n: number) => observationSeverity('pruning-record', { canesKept: 1, budsPerCane: n, renewalSpurs: 0, budTarget: 100 });
+    expect([off(110), off(111), off(90), off(89)]).toEqual([0, 1, 0, 1]);
+    expect([off(125), off(126), off(75), off(74)]).toEqual([1, 2, 1, 2]);
+    expect([off(150), off(151), off(50), off(49)]).toEqual([2, 3, 2, 3]);
+  });
+
   it('derives the target from a pruning weight in kilograms with the settings\' formula (vinifera 20 + 20 by default)', () => {
     // 0.6803886 kg is 1.5 lb: 30 buds under 20 + 20.
     expect(observationSeverity('pruning-record', { canesKept: 2, budsPerCane: 13, renewalSpurs: 2, pruningWeightKg: 0.6803886 })).toBe(0);

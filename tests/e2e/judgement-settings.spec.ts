@@ -1,0 +1,63 @@
+import { expect, test } from '@playwright/test';
+import { closeTestDb, makeBlock, testDb } from '../helpers/fixtures';
+import { signInAs, waitForServiceWorker } from './helpers/session';
+
+const DEMO_ORG = 'Ninefold Ridge Estate';
+let block: { id: string; name: string };
+
+test.beforeAll(async () => {
+  const org = await testDb()('organisations').where({ name: DEMO_ORG }).first('id');
+  // A block of its own, so no other test's demo block reads a changed setting.
+  block = await makeBlock(org.id, { rows: 1, vinesPerRow: 3, name: `Settings Test ${Date.now() % 100000}` });
+});
+test.afterAll(async () => {
+  await testDb()('blocks').where({ id: block.id }).delete();
+  await closeTestDb();
+});
+
+test("a manager sets a block's shade-cane internode, and a scout's phone judges with it offline", async ({ page, browser }) => {
+  test.setTimeout(180_000);
+  await signInAs(page, 'manager@example.com');
+  await page.goto('/settings');
+  await page.getByTestId('settings-level').selectOption({ label: `Block: ${block.name}` });
+  await expect(page.getByText(`A value typed here is ${block.name}'s own`)).toBeVisible();
+  const setting = page.getByTestId('setting-canes.shadeInternodeAboveMm');
+  // The default and its source sit beside the field.
+  await expect(setting).toContainText('Default 152.4 mm');
+  await expect(setting).toContainText('eXtension');
+  // 5 in (127 mm), the low end of eXtension's "5-6 inches or more".
+  await setting.getByRole('spinbutton').fill('127');
+  await page.getByTestId('save-settings').click();
+  await expect(page.getByText(`Saved. ${block.name}'s judgements now use these settings.`)).toBeVisible();
+  await expect(setting).toContainText('In use: 127 mm (block)');
+
+  // A bad value is refused next to its field, and nothing changes.
+  await page.getByTestId('setting-canes.thinBelowMm').getByRole('spinbutton').fill('13');
+  await page.getByTestId('save-settings').click();
+  await expect(page.getByTestId('setting-canes.thinBelowMm').getByRole('alert')).toContainText('thinBelowMm');
+  expect((await testDb()('block_settings').where({ block_id: block.id }).first()).overrides).toEqual({ canes: { shadeInternodeAboveMm: 127 } });
+
+  const phone = await browser.newContext();
+  const scout = await phone.newPage();
+  await signInAs(scout, 'scout@example.com');
+  await scout.goto('/field');
+  await waitForServiceWorker(scout);
+  await scout.goto(`/field/blocks/${block.id}`);
+  await expect(scout.getByRole('heading', { name: block.name })).toBeVisible();
+  await scout.goto(`/field/blocks/${block.id}/walk?row=1&position=1`);
+  await expect(scout.getByTestId('vine-address')).toContainText('Row 1 · Vine 1');
+
+  await phone.setOffline(true);
+  await scout.reload();
+  await expect(scout.getByTestId('connection')).toHaveText('Offline');
+  await scout.getByRole('button', { name: 'Cane diameter' }).click();
+  await scout.getByLabel('Base diameter (mm)').fill('9.5');
+  await scout.getByLabel('Longest internode (mm)').fill('140');
+  // 140 mm is an ordinary cane by the default (6 in) and a shade cane by the block's 127 mm.
+  const feedback = scout.getByTestId('cane-feedback');
+  await expect(feedback).toContainText('Use only if nothing better');
+  await expect(feedback).toContainText('Shade cane: long internodes');
+  await scout.getByLabel('Longest internode (mm)').fill('120');
+  await expect(feedback).toContainText('Good fruit cane');
+  await phone.close();
+});
