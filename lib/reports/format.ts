@@ -32,17 +32,3 @@ export function formatWeightKg(kg: number, units: UnitSystem, digits = 1): strin
 export const weightUnit = (units: UnitSystem) => (units === 'metric' ? 'kg' : 'lb');
 
 export { formatCount };
-
-/** How a figure was computed, as code a reader can check: `wilsonInterval(3, 40, 0.95)`. */
-export function call(fn: string, ...args: unknown[]): string {
-  return `${fn}(${args.map(arg).join(', ')})`;
-}
-
-function arg(value: unknown): string {
-  if (typeof value === 'number') return Number.isInteger(value) ? String(value) : String(Number(value.toPrecision(6)));
-  if (typeof value === 'string') return `'${value}'`;
-  if (value && typeof value === 'object') {
-    return `{ ${Object.entries(value as Record<string, unknown>).map(([k, v]) => `${k}: ${arg(v)}`).join(', ')} }`;
-  }
-  return String(value);
-}
