@@ -19,7 +19,7 @@ export function formatPercent(value: number, digits = 1): string {
 }
 
 export function formatInterval(interval: { estimate: number; lower: number; upper: number }): string {
-  return `${formatShare(interval.estimate)} (95% CI ${formatShare(interval.lower)}–${formatShare(interval.upper)})`;
+  return `${formatShare(interval.estimate)} (95% range ${formatShare(interval.lower)}–${formatShare(interval.upper)})`;
 }
 
 /** A weight from kilograms: "12.4 kg" or "27.3 lb"; large ones in tonnes or short tons. */
