@@ -68,12 +68,12 @@ export function GridSummary({ summary, onGoToRow }: GridSummaryProps) {
       )}
 
       <div>
-        <h3 className="mb-1 font-bold">By kind</h3>
+        <h3 className="mb-1 font-bold">Findings by kind</h3>
         {summary.kinds.length === 0 ? (
           <p>No findings match these filters.</p>
         ) : (
           <div className="overflow-x-auto">
-            <table className="w-full border-collapse text-left text-sm">
+            <table className="w-full border-collapse text-left text-sm" data-testid="grid-findings-table">
               <caption className="sr-only">Findings by kind: counts by severity and incidence among vines scouted</caption>
               <thead>
                 <tr className="border-b-2 border-line">
@@ -129,9 +129,39 @@ export function GridSummary({ summary, onGoToRow }: GridSummaryProps) {
         <p className="mt-2 text-xs text-bark-soft">
           Columns 0–3 count findings by severity (fine, watch, act this season, act now). Incidence: vines with a finding of that kind at
           watch or worse, out of the vines scouted in this period (missing or dead vines: out of every slot), with its 95% interval
-          (Wilson).
+          (Wilson). Pruning records and checks are not findings and have no incidence.
         </p>
       </div>
+
+      {summary.records.length > 0 && (
+        <div>
+          <h3 className="mb-1 font-bold">Records of the work</h3>
+          <div className="overflow-x-auto">
+            <table className="w-full border-collapse text-left text-sm" data-testid="grid-records-table">
+              <caption className="sr-only">Pruning records, pruning checks and notes: how many, and how many vines were left off the bud target</caption>
+              <thead>
+                <tr className="border-b-2 border-line">
+                  <th scope="col" className="py-1 pr-2">Record</th>
+                  <th scope="col" className="px-1 text-right">Records</th>
+                  <th scope="col" className="pl-2 text-right">Vines off target</th>
+                </tr>
+              </thead>
+              <tbody>
+                {summary.records.map((k) => (
+                  <tr key={k.kind} className="border-b border-line align-top" data-kind={k.kind}>
+                    <th scope="row" className="py-1 pr-2 font-bold">
+                      {kindLabel(k.kind)}
+                    </th>
+                    <td className="px-1 text-right tabular-nums">{formatCount(k.observations)}</td>
+                    <td className="pl-2 text-right tabular-nums">{k.kind === 'note' ? '—' : formatCount(k.vinesAffected)}</td>
+                  </tr>
+                ))}
+              </tbody>
+            </table>
+          </div>
+          <p className="mt-2 text-xs text-bark-soft">Off target: buds left more than the usual margin away from the vine&apos;s bud target (the season report gives buds kept against the target).</p>
+        </div>
+      )}
     </section>
   );
 }

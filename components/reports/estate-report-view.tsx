@@ -3,7 +3,8 @@ import type { EstateReportResponse } from '@/lib/reports/api';
 import { formatCount, formatInterval, formatNumber, formatShare, formatWeightKg } from '@/lib/reports/format';
 import type { UnitSystem } from '@/lib/units';
 import { ChartFrame, CompareChart } from './charts';
-import { FigureCard, How, ReportTable, Section, StockTable } from './figure';
+import { SOURCES } from '@/lib/reports/block/sources';
+import { FigureCard, ReportTable, Section, StockTable, Working } from './figure';
 import { ReportToolbar } from './report-toolbar';
 
 /** Every block's season on one page: the estate's incidence, each block's headline figures, totals and the nursery order. */
@@ -127,7 +128,7 @@ export function EstateReportView({
                     <th scope="row">{k.label}</th>
                     <td>
                       {formatInterval(k.incidence)}
-                      <How how={k.how} />
+                      <Working how={k.how} source={SOURCES.wilson} />
                     </td>
                     {blocks.map((b) => {
                       const i = k.byBlock[b.block.id];

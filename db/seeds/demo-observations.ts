@@ -243,6 +243,19 @@ function otherBlocks(out: Draft[]) {
     }
   }
 
+  // A spring budbreak count on a spread sample of vines, for the crop estimate: a count of weak vines
+  // alone would understate the block. Its own sequence, so the records above and below stay as they were.
+  const counts = random(53);
+  for (let row = 2; row <= terrace.rowCount; row += 4) {
+    for (let position = 5; position <= rowLength(terrace, row); position += 12) {
+      const retained = 24 + Math.floor(counts() * 6);
+      out.push({
+        key: `ut:budbreak-sample:${row}:${position}`, block: terrace, row, position, kind: 'weak-budbreak',
+        data: { budsRetained: retained, budsPushed: Math.round((retained * between(counts, 78, 96)) / 100) }, day: addDays('2026-04-24', row % 3), by: SCOUT,
+      });
+    }
+  }
+
   const slope = byName('Schoolhouse Slope');
   rand = random(23);
   // Cold air drains to the foot of the slope (vine 1 end): primary buds died there in January.
@@ -255,6 +268,17 @@ function otherBlocks(out: Draft[]) {
         key: `ss:bud:${row}:${position}`, block: slope, row, position, kind: 'bud-injury',
         data: { budsCut, primariesDead: killed }, day: addDays('2026-01-06', row % 4), by: SCOUT,
         photo: row % 12 === 1 && position === 2,
+      });
+    }
+  }
+
+  // The same spring count up the slope, above the cold pocket, where the primaries came through.
+  for (let row = 2; row <= slope.rowCount; row += 3) {
+    for (let position = 10; position <= rowLength(slope, row); position += 8) {
+      const retained = 22 + Math.floor(counts() * 6);
+      out.push({
+        key: `ss:budbreak-sample:${row}:${position}`, block: slope, row, position, kind: 'weak-budbreak',
+        data: { budsRetained: retained, budsPushed: Math.round((retained * between(counts, 78, 94)) / 100) }, day: addDays('2026-04-27', row % 3), by: SCOUT,
       });
     }
   }

@@ -2,30 +2,10 @@
 import type { Level, Slot } from '@/lib/grid/cells';
 import { formatAddress } from '@/lib/address';
 import { formatLengthMm, type UnitSystem } from '@/lib/units';
-import { budbreakPercent, kgToLb, primaryBudKillPercent, type Severity } from '@/lib/viticulture';
+import { SEVERITY_LABELS } from '@/lib/labels';
+import { budbreakPercent, kgToLb, primaryBudKillPercent } from '@/lib/viticulture';
 
-const KIND_LABELS: Record<string, string> = {
-  'cane-diameter': 'Cane diameter',
-  'shade-cane': 'Shade cane',
-  'weak-budbreak': 'Weak budbreak',
-  'trunk-injury': 'Trunk injury',
-  'cane-injury': 'Cane injury',
-  'missing-vine': 'Missing or dead vine',
-  'bud-injury': 'Winter bud injury',
-  'pruning-record': 'Pruning record',
-  'pruning-check': 'Pruning check',
-  note: 'Note',
-};
-
-/** A kind's name; a kind added later reads from its code until it gets one. */
-export const kindLabel = (kind: string) => KIND_LABELS[kind] ?? kind.charAt(0).toUpperCase() + kind.slice(1).replace(/-/g, ' ');
-
-export const SEVERITY_LABELS: Record<Severity, string> = {
-  0: 'Fine',
-  1: 'Watch',
-  2: 'Act this season',
-  3: 'Act now',
-};
+export { kindLabel, SEVERITY_LABELS } from '@/lib/labels';
 
 export const levelLabel = (level: Level) => (level === null ? 'Nothing recorded' : SEVERITY_LABELS[level]);
 

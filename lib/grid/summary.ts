@@ -3,6 +3,7 @@
  * incidence per kind with its Wilson interval, the rows with the most problem vines, and slot counts.
  */
 import { cellLevel, cellSlot, SLOTS, type Slot } from '@/lib/grid/cells';
+import { isFindingKind } from '@/lib/labels';
 import { wilsonInterval, type ObservationKind, type ProportionInterval } from '@/lib/viticulture';
 
 export interface KindCounts {
@@ -34,7 +35,13 @@ export interface GridSummary {
    */
   vinesScouted: number;
   byLevel: { watch: number; act: number; urgent: number };
+  /** Findings: what scouts found on the vines, each with its incidence. */
   kinds: KindSummary[];
+  /**
+   * Records of the work (pruning records, pruning checks) and notes: counted, never an incidence,
+   * since their severity says how far a pruner was off the bud target, not that a vine has a problem.
+   */
+  records: KindSummary[];
   worstRows: RowProblems[];
   slots: Record<Slot, number>;
 }
@@ -68,15 +75,14 @@ export function summariseGrid(rows: readonly number[], cells: readonly (readonly
   return {
     vinesScouted,
     byLevel,
-    kinds: kinds.map((k) => ({
-      ...k,
-      observations: k.bySeverity.reduce((a, b) => a + b, 0),
-      incidence: incidenceOf(k, vinesScouted, slotCount),
-    })),
+    kinds: kinds.filter((k) => isFindingKind(k.kind)).map((k) => ({ ...k, observations: total(k), incidence: incidenceOf(k, vinesScouted, slotCount) })),
+    records: kinds.filter((k) => !isFindingKind(k.kind)).map((k) => ({ ...k, observations: total(k), incidence: null })),
     worstRows: perRow.slice(0, WORST_ROWS),
     slots,
   };
 }
+
+const total = (k: KindCounts) => k.bySeverity.reduce((a, b) => a + b, 0);
 
 /**
  * Incidence as the season report counts it: a kind over the vines scouted; missing or dead vines

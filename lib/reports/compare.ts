@@ -3,7 +3,7 @@
  * problems persisted (the same kind at "watch" or worse in both seasons).
  */
 import type { BlockReport, PersistedVine } from './block-report';
-import { kindLabel } from '@/lib/grid/labels';
+import { isFindingKind, kindLabel } from '@/lib/labels';
 import { formatNumber, formatShare, formatWeightKg } from './format';
 
 export interface CompareRow {
@@ -63,6 +63,13 @@ export function compareReports(now: BlockReport, before: BlockReport, persisted:
     previous: before.season,
     rows,
     kinds: [...kinds.values()].sort((a, b) => (b.now ?? 0) - (a.now ?? 0) || a.label.localeCompare(b.label)),
-    persisted: { total: persisted.total, byKind: persisted.byKind.map((k) => ({ ...k, label: kindLabel(k.kind) })), vines: persisted.vines, shown: persisted.vines.length },
+    persisted: problemsOnly(persisted),
   };
+}
+
+/** Persisting problems are findings: a pruner off target two winters running is not a vine's problem. */
+function problemsOnly(persisted: { byKind: { kind: string; vines: number }[]; vines: PersistedVine[] }): Comparison['persisted'] {
+  const byKind = persisted.byKind.filter((k) => isFindingKind(k.kind)).map((k) => ({ ...k, label: kindLabel(k.kind) }));
+  const vines = persisted.vines.filter((v) => isFindingKind(v.kind));
+  return { total: byKind.reduce((a, k) => a + k.vines, 0), byKind, vines, shown: vines.length };
 }

@@ -1,7 +1,7 @@
 /** The estate's season across all blocks: each block's headline figures and the estate totals. */
 import { wilsonInterval, type ProportionInterval } from '@/lib/viticulture';
 import { baseOf, type BlockReport, type IncidenceBase } from './block-report';
-import { call } from './format';
+import { shareWorking } from './block/common';
 
 export interface EstateKind {
   kind: string;
@@ -68,7 +68,7 @@ export function buildEstateReport(season: number, blocks: BlockReport[]): Estate
       base,
       outOf,
       incidence: wilsonInterval(affected, outOf),
-      how: call('wilsonInterval', affected, outOf, 0.95),
+      how: shareWorking(affected, outOf, base === 'slots' ? 'slots had it' : 'vines scouted had it', wilsonInterval(affected, outOf)),
       byBlock: Object.fromEntries(
         blocks.map((b) => {
           const found = b.incidence.kinds.find((x) => x.kind === k.kind);

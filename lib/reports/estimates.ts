@@ -13,7 +13,7 @@ import {
   SQ_M_PER_HA,
   type ViticultureSettings,
 } from '@/lib/viticulture';
-import { call } from './format';
+import { formatCount, formatNumber } from './format';
 
 export type TrainingSystem = 'cane' | 'spur' | 'other';
 
@@ -72,7 +72,7 @@ export function cropEstimate(basis: CropBasis, inputs: CropInputs): CropEstimate
   if (lag === null) needed.push(['clusterWeightG', inputs.clusterWeightG]);
   const missing = needed.filter(([, v]) => v?.value === null || v?.value === undefined).map(([k]) => k);
   if (missing.length) {
-    return { kg: null, kgPerVine: null, tonnesPerHa: null, shortTonsPerAcre: null, missing, how: 'estimateCropKg needs every input' };
+    return { kg: null, kgPerVine: null, tonnesPerHa: null, shortTonsPerAcre: null, missing, how: `The estimate needs ${missing.map(inputWords).join(' and ')}.` };
   }
   const multiplier = basis.lagPhaseMultiplier ?? DEFAULT_SETTINGS.crop.lagPhaseMultiplier;
   const clusterWeightG = lag !== null ? harvestClusterWeightG(lag, { crop: { lagPhaseMultiplier: multiplier } }) : inputs.clusterWeightG.value!;
@@ -88,16 +88,34 @@ export function cropEstimate(basis: CropBasis, inputs: CropInputs): CropEstimate
         };
   const kg = estimateCropKg(input);
   const areaHa = basis.areaM2 / SQ_M_PER_HA;
-  const lagHow = lag !== null ? `; clusterWeightG = ${call('harvestClusterWeightG', lag)} = ${lag} g × ${multiplier}` : '';
+  const tonnesPerHa = areaHa > 0 ? cropTonnesPerHa(kg, areaHa) : null;
+  const clusters =
+    direct !== null
+      ? `${formatNumber(direct, 1)} clusters counted a vine`
+      : `${formatNumber(inputs.budsPerVine.value!, 1)} buds kept a vine × ${formatNumber(inputs.budbreakPercent.value!, 1)}% budbreak × ${formatNumber(inputs.clustersPerShoot.value!, 2)} clusters a shoot`;
+  const lagHow = lag !== null ? ` The harvest cluster weight is ${formatNumber(lag, 1)} g at lag phase × ${formatNumber(multiplier, 2)} = ${formatNumber(clusterWeightG, 1)} g.` : '';
+  const perArea = tonnesPerHa !== null ? ` Over ${formatNumber(areaHa, 2)} ha of planted slots that is ${formatNumber(tonnesPerHa, 1)} t/ha.` : '';
   return {
     kg,
     kgPerVine: basis.vines > 0 ? kg / basis.vines : null,
-    tonnesPerHa: areaHa > 0 ? cropTonnesPerHa(kg, areaHa) : null,
+    tonnesPerHa,
     shortTonsPerAcre: areaHa > 0 ? cropShortTonsPerAcre(kg, haToAc(areaHa)) : null,
     missing: [],
-    how: call('estimateCropKg', input) + lagHow,
+    how: `${formatCount(basis.vines)} bearing vines × ${clusters} × ${formatNumber(clusterWeightG, 1)} g a cluster = ${formatNumber(kg, 0)} kg.${lagHow}${perArea}`,
   };
 }
+
+const INPUT_WORDS: Record<string, string> = {
+  budsPerVine: 'the buds kept per vine',
+  budbreakPercent: 'the budbreak',
+  clustersPerShoot: 'the clusters per shoot',
+  clusterWeightG: 'the cluster weight',
+  clustersPerVine: 'the clusters counted per vine',
+  lagClusterWeightG: 'the cluster weight at lag phase',
+};
+
+/** An estimate input named in words: "the clusters per shoot". */
+export const inputWords = (key: string) => INPUT_WORDS[key] ?? key;
 
 /** The inputs the estimate uses and where each came from: counted clusters stand in for their components, a lag-phase weight for the harvest weight. */
 export function cropRestsOn(inputs: CropInputs): string {
@@ -107,7 +125,7 @@ export function cropRestsOn(inputs: CropInputs): string {
   ]);
   return (Object.entries(inputs) as [string, InputValue | undefined][])
     .filter(([k, v]) => v && v.value !== null && !unused.has(k))
-    .map(([k, v]) => `${k}: ${v!.source}`)
+    .map(([k, v]) => `${inputWords(k).replace(/^the /, '')} ${formatNumber(v!.value!, 2)}: ${v!.source}`)
     .join('; ');
 }
 
@@ -142,7 +160,7 @@ export function labourEstimate(basis: LabourBasis, inputs: LabourInputs, setting
   const minutes = inputs.minutesPerVine.value;
   const hourlyCost = inputs.hourlyCost.value;
   if (minutes === null || hourlyCost === null) {
-    return { hours: null, cost: null, hoursPerHa: null, hoursPerAcre: null, alternative: null, how: 'estimatePruningLabour needs every input' };
+    return { hours: null, cost: null, hoursPerHa: null, hoursPerAcre: null, alternative: null, how: 'The estimate needs the minutes per vine and the hourly cost.' };
   }
   const input = { vines: basis.vines, minutesPerVine: minutes, hourlyCost };
   const { hours, cost } = estimatePruningLabour(input);
@@ -156,8 +174,14 @@ export function labourEstimate(basis: LabourBasis, inputs: LabourInputs, setting
     hoursPerHa: areaHa > 0 ? hours / areaHa : null,
     hoursPerAcre: areaHa > 0 ? hours / haToAc(areaHa) : null,
     alternative: { trainingSystem: other, minutesPerVine: otherMinutes, hours: alt.hours, cost: alt.cost },
-    how: call('estimatePruningLabour', input),
+    how: labourWorking(basis.vines, minutes, hourlyCost),
   };
+}
+
+/** "1,386 vines × 1.75 min = 40 h; at 25 an hour, 1,011". */
+export function labourWorking(vines: number, minutesPerVine: number, hourlyCost: number): string {
+  const { hours, cost } = estimatePruningLabour({ vines, minutesPerVine, hourlyCost });
+  return `${formatCount(vines)} vines × ${formatNumber(minutesPerVine, 2)} min = ${formatNumber(hours, hours < 10 ? 1 : 0)} h; at ${formatNumber(hourlyCost, 2)} an hour, ${formatNumber(cost, 0)}`;
 }
 
 /** Acres in a number of square metres, for the per-acre figures. */

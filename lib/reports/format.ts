@@ -19,7 +19,7 @@ export function formatPercent(value: number, digits = 1): string {
 }
 
 export function formatInterval(interval: { estimate: number; lower: number; upper: number }): string {
-  return `${formatShare(interval.estimate)} (95% CI ${formatShare(interval.lower)}–${formatShare(interval.upper)})`;
+  return `${formatShare(interval.estimate)} (95% range ${formatShare(interval.lower)}–${formatShare(interval.upper)})`;
 }
 
 /** A weight from kilograms: "12.4 kg" or "27.3 lb"; large ones in tonnes or short tons. */
@@ -32,17 +32,3 @@ export function formatWeightKg(kg: number, units: UnitSystem, digits = 1): strin
 export const weightUnit = (units: UnitSystem) => (units === 'metric' ? 'kg' : 'lb');
 
 export { formatCount };
-
-/** How a figure was computed, as code a reader can check: `wilsonInterval(3, 40, 0.95)`. */
-export function call(fn: string, ...args: unknown[]): string {
-  return `${fn}(${args.map(arg).join(', ')})`;
-}
-
-function arg(value: unknown): string {
-  if (typeof value === 'number') return Number.isInteger(value) ? String(value) : String(Number(value.toPrecision(6)));
-  if (typeof value === 'string') return `'${value}'`;
-  if (value && typeof value === 'object') {
-    return `{ ${Object.entries(value as Record<string, unknown>).map(([k, v]) => `${k}: ${arg(v)}`).join(', ')} }`;
-  }
-  return String(value);
-}

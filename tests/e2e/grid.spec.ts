@@ -40,6 +40,10 @@ test('a manager opens the large demo block, filters to one kind, clicks a red ce
   await expect(page.getByRole('heading', { name: 'Creek Flat: row grid' })).toBeVisible();
   const grid = page.getByRole('grid', { name: /Row grid of Creek Flat: 150 rows/ });
   await expect(grid).toBeVisible();
+  // Findings and records kept apart: pruning records are counted as work done, with no incidence.
+  await expect(page.getByTestId('grid-findings-table').getByRole('rowheader', { name: 'Trunk injury' })).toBeVisible();
+  await expect(page.getByTestId('grid-findings-table').getByRole('rowheader', { name: 'Pruning record' })).toHaveCount(0);
+  await expect(page.getByTestId('grid-records-table').getByRole('rowheader', { name: 'Pruning record' })).toBeVisible();
 
   await page.getByText('Filters', { exact: false }).first().click();
   await page.getByLabel('Trunk injury').check();

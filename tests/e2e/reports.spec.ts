@@ -1,5 +1,14 @@
+import AxeBuilder from '@axe-core/playwright';
 import { expect, test, type Page } from '@playwright/test';
+import { codeWords } from '../helpers/code-words';
 import { signInAs } from './helpers/session';
+
+const WCAG_22_AA = ['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa', 'wcag22aa'];
+
+async function axeViolations(page: Page) {
+  const result = await new AxeBuilder({ page }).withTags(WCAG_22_AA).analyze();
+  return result.violations.map((v) => `${v.id}: ${v.help} (${v.nodes.map((n) => n.target.join(' ')).join(', ')})`);
+}
 
 // A desk page: the service worker's first-install reload would only race the typing.
 test.use({ serviceWorkers: 'block' });
@@ -33,9 +42,13 @@ test('a manager opens the demo block’s report, changes the crop inputs, sees t
   await expect(page.getByRole('heading', { level: 1, name: /^Creek Flat: season \d{4}$/ })).toBeVisible();
   await expect(page.getByTestId('block-facts')).toContainText('Sauvignon Blanc');
 
-  // Figures name the calculation and its inputs.
-  await expect(page.getByTestId('fig-weak')).toContainText(/wilsonInterval\(\d+, \d+, 0\.95\)/);
-  await expect(page.getByTestId('incidence-trunk-injury')).toContainText('95% CI');
+  // Figures give their working in words, with the published source, behind a disclosure.
+  const weak = page.getByTestId('fig-weak');
+  await expect(weak.getByText(/by Wilson's score interval/)).toBeHidden();
+  await weak.getByText('How this is worked out').click();
+  await expect(weak.getByText(/\d+ of \d+ vines checked were weak: \d+ ÷ \d+ = [\d.]+%; the 95% range around it, by Wilson's score interval/)).toBeVisible();
+  await expect(weak.getByText(/^Source: E\. B\. Wilson \(1927\)/)).toBeVisible();
+  await expect(page.getByTestId('incidence-trunk-injury')).toContainText('95% range');
   await expect(page.getByRole('heading', { name: /side by side/ })).toBeVisible();
   await expect(page.getByTestId('persisted-table')).toContainText('Trunk injury');
 
@@ -43,7 +56,7 @@ test('a manager opens the demo block’s report, changes the crop inputs, sees t
   const total = page.getByTestId('crop-total');
   await expect(total).toHaveText(/\d/);
   const before = (await total.textContent())!;
-  await expect(estimate).toContainText('clustersPerShoot: 1.5');
+  await expect(estimate).toContainText('clusters per shoot 1.5: default');
 
   const clusters = page.getByLabel('Clusters per shoot');
   await clusters.fill('-1');
@@ -52,10 +65,10 @@ test('a manager opens the demo block’s report, changes the crop inputs, sees t
   await expect(estimate).toContainText('Enter the clusters per shoot');
 
   await clusters.fill('2');
-  await expect(estimate).toContainText('clustersPerShoot: 2,');
+  await expect(estimate).toContainText('clusters per shoot 2: entered');
   await expect(total).not.toHaveText(before);
   await page.getByLabel('Cluster weight').fill('130');
-  await expect(estimate).toContainText('clusterWeightG: 130');
+  await expect(estimate).toContainText('cluster weight 130: entered');
   await expect(page).toHaveURL(/clustersPerShoot=2/);
   await expect(page).toHaveURL(/clusterWeightG=130/);
   const after = (await total.textContent())!;
@@ -68,15 +81,15 @@ test('a manager opens the demo block’s report, changes the crop inputs, sees t
 
   // The report says what the estimate rests on and how many vines next season's sample needs
   // (Wolpert & Vilas: from the CV of vine yields), and reads the bud load per foot of row.
-  await expect(page.getByTestId('crop-rests-on')).toContainText('budsPerVine: mean buds kept on');
+  await expect(page.getByTestId('crop-rests-on')).toContainText(/buds kept per vine [\d.]+: mean buds kept on/);
   await expect(page.getByTestId('crop-sampling')).toContainText(/weigh or count \d+ vines/);
   await expect(page.getByTestId('bud-density')).toContainText(/buds kept per foot of row/);
   // Counted clusters replace buds × budbreak × clusters per shoot; a lag-phase weight is doubled (UMD).
   await page.getByLabel('Clusters counted per vine').fill('40');
   await page.getByLabel('Weight of a cluster at lag phase').fill('65');
-  await expect(estimate).toContainText('clustersPerVine: 40');
-  await expect(estimate).toContainText('harvestClusterWeightG(65) = 65 g × 2');
-  await expect(page.getByTestId('crop-rests-on')).toHaveText('Rests on: clustersPerVine: entered; lagClusterWeightG: entered.');
+  await expect(estimate).toContainText('× 40 clusters counted a vine × 130 g a cluster');
+  await expect(estimate).toContainText('The harvest cluster weight is 65 g at lag phase × 2 = 130 g.');
+  await expect(page.getByTestId('crop-rests-on')).toHaveText('Rests on: clusters counted per vine 40: entered; cluster weight at lag phase 65: entered.');
   await page.getByLabel('Clusters counted per vine').fill('');
   await page.getByLabel('Weight of a cluster at lag phase').fill('');
   await expect(total).toHaveText(after);
@@ -103,6 +116,60 @@ test('a manager opens the demo block’s report, changes the crop inputs, sees t
     const pages = pdfPages(pdf);
     expect(pages, format).toBeGreaterThanOrEqual(3);
     expect(pages, format).toBeLessThanOrEqual(30);
+  }
+});
+
+test('the demo block’s report opens with a contents list that reaches every section, keeps records out of the incidence, estimates the crop in kg and shows no code', async ({ page }) => {
+  await signInAs(page, 'manager@example.com');
+  await page.goto('/reports');
+  await page.getByRole('link', { name: 'Creek Flat' }).click();
+  await expect(page.getByRole('heading', { level: 1, name: /^Creek Flat: season \d{4}$/ })).toBeVisible();
+
+  const contents = page.getByRole('navigation', { name: 'Contents' });
+  const links = contents.getByRole('link');
+  expect(await links.count()).toBeGreaterThanOrEqual(13);
+  for (const name of ['Incidence by problem', 'Pruning checks', 'Crop estimate', 'How these figures are made']) {
+    const link = contents.getByRole('link', { name, exact: true });
+    const href = (await link.getAttribute('href'))!;
+    await link.click();
+    await expect(page).toHaveURL(new RegExp(`${href}$`));
+    await expect(page.locator(`section${href}`).getByRole('heading', { level: 2, name, exact: true })).toBeInViewport();
+  }
+  // Every link names a section that is on the page.
+  for (const href of await links.evaluateAll((as) => as.map((a) => a.getAttribute('href')!))) {
+    await expect(page.locator(`section${href}`)).toHaveCount(1);
+  }
+
+  // Incidence is over findings only; pruning records are reported as buds kept against the target.
+  const incidence = page.getByTestId('incidence-table');
+  await expect(incidence.getByRole('rowheader', { name: 'Trunk injury' })).toBeVisible();
+  await expect(incidence.getByRole('rowheader', { name: /Pruning (record|check)/ })).toHaveCount(0);
+  await expect(page.getByTestId('kept-on-vines')).toContainText(/Kept on a vine, on average: [\d.]+ canes of [\d.]+ buds each and [\d.]+ renewal spurs/);
+
+  // The demo's crop estimate has a figure, in kg.
+  await expect(page.getByTestId('crop-total')).toHaveText(/^[\d.,]+ (kg|t)$/);
+  await expect(page.getByTestId('fig-crop-value')).toHaveText(/^[\d.,]+ (kg|t)$/);
+
+  // No function names, settings paths or arrows anywhere in the report, working included.
+  for (const summary of await page.locator('.vw-report details > summary').all()) await summary.click();
+  const text = await page.getByTestId('block-report').innerText();
+  expect(text).toContain('How this is worked out');
+  expect(codeWords(text)).toEqual([]);
+  expect(await axeViolations(page)).toEqual([]);
+
+  // On paper the contents list stays, before the sections.
+  await page.emulateMedia({ media: 'print' });
+  await expect(contents).toBeVisible();
+  await expect(contents.getByText('Crop estimate')).toBeVisible();
+});
+
+test('every demo block’s crop estimate shows a figure', async ({ page }) => {
+  await signInAs(page, 'manager@example.com');
+  for (const name of ['Upper Terrace', 'Schoolhouse Slope', 'North Bench']) {
+    await page.goto('/reports');
+    await page.getByRole('link', { name }).click();
+    await expect(page.getByRole('heading', { level: 1, name: new RegExp(`^${name}: season`) })).toBeVisible();
+    await expect(page.getByTestId('crop-total'), name).toHaveText(/^[\d.,]+ (kg|t)$/);
   }
 });
 

@@ -94,11 +94,12 @@ describe('GET /api/grid/:blockId', () => {
     expect(summary.vinesScouted).toBe(8);
     expect(summary.byLevel).toEqual({ watch: 1, act: 2, urgent: 2 });
     const kinds = Object.fromEntries(summary.kinds.map((k: { kind: string }) => [k.kind, k]));
-    expect(Object.keys(kinds).sort()).toEqual(['missing-vine', 'note', 'trunk-injury', 'weak-budbreak']);
+    // Findings only: a note is a remark, not a problem, and is counted apart with no incidence.
+    expect(Object.keys(kinds).sort()).toEqual(['missing-vine', 'trunk-injury', 'weak-budbreak']);
     expect(kinds['weak-budbreak']).toMatchObject({ bySeverity: [2, 1, 1, 1], observations: 5, vinesAffected: 3 });
     expect(kinds['trunk-injury']).toMatchObject({ bySeverity: [0, 1, 0, 1], observations: 2, vinesAffected: 2 });
     expect(kinds['missing-vine']).toMatchObject({ bySeverity: [0, 0, 1, 0], vinesAffected: 1 });
-    expect(kinds.note).toMatchObject({ bySeverity: [1, 0, 0, 0], vinesAffected: 0 });
+    expect(summary.records).toEqual([{ kind: 'note', bySeverity: [1, 0, 0, 0], vinesAffected: 0, observations: 1, incidence: null }]);
     expect(kinds['trunk-injury'].incidence).toEqual(wilsonInterval(2, 8));
     expect(kinds['weak-budbreak'].incidence).toEqual(wilsonInterval(3, 8));
     // Holes are over every slot: 6 + 6 + 4.

@@ -1,7 +1,21 @@
 import { randomUUID } from 'node:crypto';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { closeTestDb, makeBlock, makeTeam, PASSWORD, testDb } from '../helpers/fixtures';
+import { codeWords, stringsIn } from '../helpers/code-words';
 import { Client } from '../helpers/http';
+
+/** What a reader sees of a page: the HTML without its scripts, styles and tags, entities read. */
+function pageText(html: string) {
+  const body = html.replace(/<script[\s\S]*?<\/script>/g, ' ').replace(/<style[\s\S]*?<\/style>/g, ' ').replace(/<head[\s\S]*?<\/head>/, ' ');
+  return body
+    .replace(/<[^>]+>/g, ' ')
+    .replace(/&#x27;|&#39;/g, "'")
+    .replace(/&quot;/g, '"')
+    .replace(/&lt;/g, '<')
+    .replace(/&gt;/g, '>')
+    .replace(/&amp;/g, '&')
+    .replace(/\s+/g, ' ');
+}
 
 afterAll(closeTestDb);
 
@@ -93,6 +107,8 @@ beforeAll(async () => {
   await record(pruner, 'r1v1-pruning', 1, 1, 'pruning-record', { canesKept: 2, budsPerCane: 12, renewalSpurs: 2, pruningWeightKg: 1 }, '2024-01-22');
   await record(pruner, 'r2v1-pruning', 2, 1, 'pruning-record', { canesKept: 2, budsPerCane: 14, renewalSpurs: 1 }, '2024-01-22');
   await record(pruner, 'r3v1-pruning', 3, 1, 'pruning-record', { canesKept: 2, budsPerCane: 10, renewalSpurs: 2 }, '2024-01-22');
+  // The manager checks the pruner's work on vine 1/1: 34 buds on 2 canes + 2 renewal spurs = 38 against 28, 36% over.
+  await record(manager, 'r1v1-check', 1, 1, 'pruning-check', { prunedBy: team.pruner.id, canesKept: 2, budsOnCanes: 34, renewalSpurs: 2, budTarget: 28 }, '2024-01-23');
   await weigh(pruner, { kind: 'pruning-weight', row: 2, position: 1, weight: 0.8, measuredOn: '2024-01-22' });
   await weigh(pruner, { kind: 'pruning-weight', row: 3, vines: 10, weight: 9, measuredOn: '2024-01-23' });
   // The 2024 harvest on vine 1/1, and that vine's wood weighed at the 2025 pruning: Ravaz 6 / 0.75.
@@ -115,7 +131,7 @@ async function report(query = '', client = manager) {
 }
 
 describe('GET /api/reports/blocks/:blockId', () => {
-  it('counts incidence per kind over the vines scouted, with Wilson bounds, closed records in and deleted ones out', async () => {
+  it('counts incidence per finding kind over the vines scouted, with Wilson bounds, closed records in, deleted ones and records of the work out', async () => {
     const { report: r } = await report();
     // Vines with a live 2024 record other than a missing-vine one: r1 v1–v4, r2 v1–v5 and v9, r3 v1 and v5.
     expect(r.scouting.vinesScouted).toBe(12);
@@ -127,7 +143,7 @@ describe('GET /api/reports/blocks/:blockId', () => {
       'bud-injury': [2, 12], // 35% and 45% kill
       'shade-cane': [1, 12],
       'cane-diameter': [1, 12], // the 5.5 mm cane is thin
-      'pruning-record': [1, 12], // r1v1 kept 28 buds against a target of 44
+      // Not 'pruning-record' (r1v1 kept 28 buds against a target of 44) nor 'pruning-check': records of the work, not problems.
       'missing-vine': [2, 30], // r2v9, r3v10, out of the block's 30 slots
     };
     expect(Object.keys(kinds).sort()).toEqual(Object.keys(expected).sort());
@@ -161,7 +177,7 @@ describe('GET /api/reports/blocks/:blockId', () => {
     expect(r.budbreak.weakShare.lower).toBeCloseTo(wilson(3, 6).lower, 12);
     expect(r.budbreak.weakShare.upper).toBeCloseTo(wilson(3, 6).upper, 12);
     expect(r.budbreak.histogram.map((h: { count: number }) => h.count)).toEqual([0, 1, 0, 1, 0, 0, 0, 1, 1, 2]);
-    expect(r.budbreak.pooled.how).toBe(`budbreakPercent(${retained}, ${pushed})`);
+    expect(r.budbreak.pooled.how).toBe(`${pushed} of ${retained} buds retained pushed a shoot: ${pushed} ÷ ${retained} × 100 = ${(Math.round((pushed / retained) * 1000) / 10).toString()}%`);
   });
 
   it('sets buds kept against the balanced-pruning target from the record’s, the vine’s or the row sample’s weight', async () => {
@@ -212,10 +228,10 @@ describe('GET /api/reports/blocks/:blockId', () => {
     // 28 vines × 40 clusters × 55 g × 2 (University of Maryland Extension).
     expect(r.crop.estimate.kg).toBeCloseTo((28 * 40 * 110) / 1000, 9);
     expect(r.crop.inputs.clustersPerVine).toMatchObject({ value: 40, source: 'entered' });
-    expect(r.crop.restsOn).toBe('clustersPerVine: entered; lagClusterWeightG: entered');
+    expect(r.crop.restsOn).toBe('clusters counted per vine 40: entered; cluster weight at lag phase 55: entered');
     // Without them, the budbreak rests on every count of the season: 6 live vines' latest checks, weak or not.
     const { report: plain } = await report();
-    expect(plain.crop.restsOn).toMatch(/budbreakPercent: budbreakPercent\(158, 109\) over every budbreak count of 2024: 6 vines, 3 of them weak/);
+    expect(plain.crop.restsOn).toMatch(/budbreak 69: 109 of 158 buds pushed over every budbreak count of 2024: 6 vines, 3 of them weak/);
   });
 
   it('estimates the crop and the pruning labour from the block, with the inputs shown and their sources', async () => {
@@ -294,6 +310,32 @@ describe('GET /api/reports/blocks/:blockId', () => {
   it('lets an advisor read the report, and lists the seasons with records', async () => {
     const { seasons } = await report('', advisor);
     expect(seasons).toEqual([2025, 2024, 2023]);
+  });
+
+  it('reports the pruning check as buds left against the crew’s target, and the pruning records as canes and spurs kept', async () => {
+    const { report: r } = await report();
+    expect(r.incidence.kinds.map((k: { kind: string }) => k.kind)).not.toContain('pruning-check');
+    expect(r.pruningChecks).toMatchObject({ checks: 1, pruners: 1, withTarget: 1, within: 0, over: 1, under: 0, meanTarget: 28 });
+    expect(r.pruningChecks.meanLeft.value).toBe(38);
+    expect(r.pruningChecks.kept).toEqual({ canes: 2, budsOnCanes: 34, renewalSpurs: 2 });
+    // Pruning records: (2 + 2 + 2) / 3 canes, (12 + 14 + 10) / 3 buds a cane, (2 + 1 + 2) / 3 renewal spurs.
+    expect(r.budLoad.kept.canes).toBe(2);
+    expect(r.budLoad.kept.budsPerCane).toBeCloseTo(12, 12);
+    expect(r.budLoad.kept.renewalSpurs).toBeCloseTo(5 / 3, 12);
+  });
+
+  it('says every figure in words on the page a manager reads: no calls, settings paths or arrows', async () => {
+    const res = await manager.fetch(`/reports/${block.id}?season=${SEASON}`);
+    expect(res.status).toBe(200);
+    const text = pageText(await res.text());
+    // The page itself, with its working: the sections are there before the check means anything.
+    expect(text).toContain('Contents');
+    expect(text).toContain('How this is worked out');
+    expect(text).toMatch(/buds retained pushed a shoot: \d+ ÷ \d+ × 100 = /);
+    expect(text).toMatch(/29 vines × 1\.75 min = 0\.8 h; at 25 an hour, 21/);
+    expect(codeWords(text)).toEqual([]);
+    const { report: r } = await report();
+    expect(stringsIn(r).filter(({ path }) => !/\.missing\[/.test(path)).flatMap(({ path, text: t }) => codeWords(t).map((w) => `${path}: ${w}`))).toEqual([]);
   });
 
   it('answers 404 for another organisation’s block or a malformed id, 401 when signed out, and 422 for an input it cannot read', async () => {

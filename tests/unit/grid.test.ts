@@ -85,6 +85,24 @@ describe('the grid summary', () => {
     expect(summariseGrid(rows, cells, kinds, 0).kinds[0]!.incidence).toBeNull();
   });
 
+  it('keeps pruning records, pruning checks and notes out of the findings: counted, with no incidence', () => {
+    const sev = (n: number) => [n, 0, 1, 0] as [number, number, number, number];
+    const kinds = [
+      { kind: 'pruning-record' as const, bySeverity: sev(10), vinesAffected: 1 },
+      { kind: 'trunk-injury' as const, bySeverity: sev(0), vinesAffected: 1 },
+      { kind: 'pruning-check' as const, bySeverity: sev(3), vinesAffected: 1 },
+      { kind: 'note' as const, bySeverity: sev(0), vinesAffected: 0 },
+    ];
+    const s = summariseGrid(rows, cells, kinds, 40);
+    expect(s.kinds.map((k) => k.kind)).toEqual(['trunk-injury']);
+    expect(s.kinds[0]!.incidence).toEqual(wilsonInterval(1, 40));
+    expect(s.records.map((k) => [k.kind, k.observations, k.incidence])).toEqual([
+      ['pruning-record', 11, null],
+      ['pruning-check', 4, null],
+      ['note', 1, null],
+    ]);
+  });
+
   it('counts missing or dead vines over every slot, scouted or not, as the season report does', () => {
     const holes = [{ kind: 'missing-vine' as const, bySeverity: [0, 0, 2, 0] as [number, number, number, number], vinesAffected: 2 }];
     // 10 slots in the two rows (7 planted, 1 replant, 1 missing, 1 dead), though only 3 vines were scouted.

@@ -15,7 +15,7 @@ import { seasonBounds, seasonShiftMonths, type SeasonBounds } from '@/lib/report
 import type { Db } from '@/lib/server/db';
 
 /** Kinds whose data the report reads record by record; the rest are counted in SQL. */
-export const MEASURED_KINDS = ['weak-budbreak', 'cane-diameter', 'shade-cane', 'pruning-record', 'bud-injury'] as const;
+export const MEASURED_KINDS = ['weak-budbreak', 'cane-diameter', 'shade-cane', 'pruning-record', 'pruning-check', 'bud-injury'] as const;
 
 /** The season (lib/reports/season.ts) of a UTC date and time or a date, in SQL: the year of it moved on by the shift. */
 const seasonOfSql = (utc: string, startMonth: number) => `extract(year from ${utc} + interval '1 month' * ${seasonShiftMonths(startMonth)})::int`;
