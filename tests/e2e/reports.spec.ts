@@ -44,10 +44,12 @@ test('a manager opens the demo block’s report, changes the crop inputs, sees t
 
   // Figures give their working in words, with the published source, behind a disclosure.
   const weak = page.getByTestId('fig-weak');
-  await expect(weak.getByText(/by Wilson's score interval/)).toBeHidden();
-  await weak.getByText('How this is worked out').click();
-  await expect(weak.getByText(/\d+ of \d+ vines checked were weak: \d+ ÷ \d+ = [\d.]+%; the 95% range around it, by Wilson's score interval/)).toBeVisible();
-  await expect(weak.getByText(/^Source: E\. B\. Wilson \(1927\)/)).toBeVisible();
+  // The working is in the disclosure on screen and printed apart on paper: look inside the disclosure.
+  const working = weak.locator('details');
+  await expect(working.getByText(/by Wilson's score interval/)).toBeHidden();
+  await working.getByText('How this is worked out').click();
+  await expect(working.getByText(/\d+ of \d+ vines checked were weak: \d+ ÷ \d+ = [\d.]+%; the 95% range around it, by Wilson's score interval/)).toBeVisible();
+  await expect(working.getByText(/^Source: E\. B\. Wilson \(1927\)/)).toBeVisible();
   await expect(page.getByTestId('incidence-trunk-injury')).toContainText('95% range');
   await expect(page.getByRole('heading', { name: /side by side/ })).toBeVisible();
   await expect(page.getByTestId('persisted-table')).toContainText('Trunk injury');
@@ -152,7 +154,13 @@ test('the demo block’s report opens with a contents list that reaches every se
 
   // No function names, settings paths or arrows anywhere in the report, working included.
   for (const summary of await page.locator('.vw-report details > summary').all()) await summary.click();
-  const text = await page.getByTestId('block-report').innerText();
+  // Text nodes one by one, outside the charts: innerText runs a chart's axis labels together.
+  const text = await page.getByTestId('block-report').evaluate((root) => {
+    const walker = document.createTreeWalker(root, NodeFilter.SHOW_TEXT);
+    const parts: string[] = [];
+    for (let node = walker.nextNode(); node; node = walker.nextNode()) if (!node.parentElement?.closest('svg')) parts.push(node.textContent ?? '');
+    return parts.join(' ');
+  });
   expect(text).toContain('How this is worked out');
   expect(codeWords(text)).toEqual([]);
   expect(await axeViolations(page)).toEqual([]);
