@@ -4,7 +4,7 @@ import { useQuery } from '@tanstack/react-query';
 import { useTranslations } from 'next-intl';
 import { Notice } from '@/components/ui/field';
 
-interface BlockSummary {
+export interface BlockSummary {
   id: string;
   name: string;
   variety: string;
@@ -12,7 +12,8 @@ interface BlockSummary {
   vineCount: number;
 }
 
-export function FieldBlockList() {
+/** `initial` is the page's own render of the list, so the blocks show in the first paint. */
+export function FieldBlockList({ initial }: { initial?: BlockSummary[] }) {
   const t = useTranslations('field');
   const { data, isPending, isError } = useQuery({
     queryKey: ['blocks'],
@@ -22,6 +23,7 @@ export function FieldBlockList() {
       return ((await res.json()) as { blocks: BlockSummary[] }).blocks;
     },
     networkMode: 'always',
+    initialData: initial,
   });
   if (isPending) return <p>{t('loading')}</p>;
   if (isError) return <Notice tone="warn">{t('offlineNoBlock')}</Notice>;

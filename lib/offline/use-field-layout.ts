@@ -22,7 +22,7 @@ export interface FieldLayout {
 }
 
 /** The walkable layout of a block; served from the service worker's copy when there is no signal. */
-export function useFieldLayout(blockId: string) {
+export function useFieldLayout(blockId: string, initial?: FieldLayout) {
   return useQuery({
     queryKey: ['field-layout', blockId],
     queryFn: async () => {
@@ -32,6 +32,9 @@ export function useFieldLayout(blockId: string) {
     },
     networkMode: 'always',
     staleTime: 60_000,
+    // The walk page's own render of the layout, so the vine shows before any request.
+    initialData: initial,
+    initialDataUpdatedAt: initial ? Date.parse(initial.fetchedAt) : undefined,
   });
 }
 
