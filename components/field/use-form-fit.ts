@@ -64,9 +64,11 @@ export function useFormFit(form: RefObject<HTMLElement | null>, bar: RefObject<H
     const lift = () => {
       const el = bar.current;
       if (!el) return;
-      // What the keyboard (or a pinch-zoom) hides of the layout viewport's bottom.
-      const hidden = vv ? Math.max(0, window.innerHeight - vv.height - vv.offsetTop) : 0;
-      el.style.transform = hidden ? `translateY(-${hidden}px)` : '';
+      // Where the bar would sit, against what still shows above the keyboard (or a pinch-zoom).
+      el.style.transform = '';
+      const visibleBottom = vv ? vv.offsetTop + vv.height : window.innerHeight;
+      const under = el.getBoundingClientRect().bottom - visibleBottom;
+      if (under > 0) el.style.transform = `translateY(-${under}px)`;
     };
     const follow = () => {
       const active = document.activeElement;

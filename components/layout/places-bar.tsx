@@ -5,8 +5,7 @@ import { cn } from '@/lib/cn';
 
 /**
  * The field places at the thumb for scouts and pruners on a phone. Plain links: a full page load
- * is served by the service worker's copy when there is no signal. Hidden while a text field has
- * focus (globals.css), when the keyboard needs the room.
+ * is served by the service worker's copy when there is no signal.
  */
 export function PlacesBar({ places }: { places: { href: string; label: string; icon: string }[] }) {
   const path = usePathname();
@@ -15,7 +14,7 @@ export function PlacesBar({ places }: { places: { href: string; label: string; i
       aria-label="Field places"
       data-sticky-bottom
       data-testid="places-bar"
-      className="places-bar fixed inset-x-0 bottom-0 z-20 grid auto-cols-fr grid-flow-col border-t-2 border-bark bg-panel sm:hidden print:hidden"
+      className="fixed inset-x-0 bottom-0 z-20 grid auto-cols-fr grid-flow-col border-t-2 border-bark bg-panel sm:hidden print:hidden"
     >
       {places.map((p) => (
         <a
