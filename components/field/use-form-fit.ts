@@ -20,11 +20,13 @@ function clearBand(except?: Element | null) {
     const r = bar.getBoundingClientRect();
     if (r.height > 0 && r.top <= top + 1) top = Math.max(top, r.bottom);
   }
-  for (const bar of document.querySelectorAll(BOTTOM_BARS)) {
-    if (bar === except || bar.contains(except ?? null)) continue;
-    const r = bar.getBoundingClientRect();
-    if (r.height > 0 && r.top < bottom && r.bottom >= bottom - 1) bottom = Math.min(bottom, r.top);
-  }
+  // Lowest first: a form's bar sits on the field places bar, which sits on the screen's edge.
+  const bars = [...document.querySelectorAll(BOTTOM_BARS)]
+    .filter((bar) => !bar.contains(except ?? null))
+    .map((bar) => bar.getBoundingClientRect())
+    .filter((r) => r.height > 0)
+    .sort((a, b) => b.bottom - a.bottom);
+  for (const r of bars) if (r.top < bottom && r.bottom >= bottom - 1) bottom = r.top;
   return { top, bottom };
 }
 
