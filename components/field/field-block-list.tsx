@@ -5,7 +5,7 @@ import { useTranslations } from 'next-intl';
 import { Notice } from '@/components/ui/field';
 import { apiGet } from '@/lib/api-client';
 
-interface BlockSummary {
+export interface BlockSummary {
   id: string;
   name: string;
   variety: string;
@@ -13,12 +13,14 @@ interface BlockSummary {
   vineCount: number;
 }
 
-export function FieldBlockList() {
+/** `initial` is the page's own render of the list, so the blocks show in the first paint. */
+export function FieldBlockList({ initial }: { initial?: BlockSummary[] }) {
   const t = useTranslations('field');
   const { data, isPending, isError } = useQuery({
     queryKey: ['blocks'],
     queryFn: async () => (await apiGet<{ blocks: BlockSummary[] }>('/api/blocks')).blocks,
     networkMode: 'always',
+    initialData: initial,
   });
   if (isPending) return <p>{t('loading')}</p>;
   if (isError) return <Notice tone="warn">{t('offlineNoBlock')}</Notice>;

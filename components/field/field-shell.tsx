@@ -12,7 +12,7 @@ export function FieldShell({ owner, children }: { owner: string; children: React
   return (
     <>
       <SyncStatusBar />
-      <div className="mx-auto max-w-md px-3 py-4">{children}</div>
+      <div className="mx-auto max-w-md py-2 sm:px-3 sm:py-4">{children}</div>
     </>
   );
 }

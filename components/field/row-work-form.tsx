@@ -1,8 +1,9 @@
 'use client';
 
 import { useTranslations } from 'next-intl';
-import { useEffect, useState } from 'react';
+import { useEffect, useRef, useState } from 'react';
 import { Choice } from '@/components/field/choice';
+import { FORM_BAR, useFormFit } from '@/components/field/use-form-fit';
 import { Button } from '@/components/ui/button';
 import { Field, Input } from '@/components/ui/field';
 import { enqueueRowWork, readCrewDefaults, saveCrewDefaults } from '@/lib/offline/row-work';
@@ -53,6 +54,9 @@ export function RowWorkForm({ owner, blockId, row, vineCount, pass: shown, onSav
   const [note, setNote] = useState('');
   const [errors, setErrors] = useState<Errors>({});
   const [saving, setSaving] = useState(false);
+  const formRef = useRef<HTMLFormElement>(null);
+  const barRef = useRef<HTMLDivElement>(null);
+  useFormFit(formRef, barRef);
 
   useEffect(() => {
     const last = readCrewDefaults(owner);
@@ -105,7 +109,7 @@ export function RowWorkForm({ owner, blockId, row, vineCount, pass: shown, onSav
   }
 
   return (
-    <form onSubmit={(e) => e.preventDefault()} className="flex flex-col gap-4" noValidate aria-label={t('formTitle', { row })}>
+    <form ref={formRef} onSubmit={(e) => e.preventDefault()} className="flex flex-col gap-4" noValidate aria-label={t('formTitle', { row })}>
       <h2 className="text-2xl font-extrabold">{t('formTitle', { row })}</h2>
       <Choice<RowWorkPass>
         label={t('pass')}
@@ -178,11 +182,11 @@ export function RowWorkForm({ owner, blockId, row, vineCount, pass: shown, onSav
       <Field id="rw-note" label={t('note')}>
         <textarea id="rw-note" value={note} onChange={(e) => setNote(e.target.value)} rows={2} className="rounded-lg border-2 border-line bg-panel p-3" />
       </Field>
-      <div className="grid grid-cols-2 gap-2">
-        <Button type="button" variant="secondary" onClick={onCancel} className="min-h-20 text-lg">
+      <div ref={barRef} data-sticky-bottom className={FORM_BAR}>
+        <Button type="button" variant="secondary" onClick={onCancel} className="min-h-14 flex-1 text-lg">
           {tForm('cancel')}
         </Button>
-        <Button type="button" onClick={() => void save()} disabled={saving} className="min-h-20 text-lg">
+        <Button type="button" onClick={() => void save()} disabled={saving} className="min-h-14 flex-1 text-lg">
           ✓ {t('save')}
         </Button>
       </div>

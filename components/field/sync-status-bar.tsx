@@ -14,40 +14,48 @@ export function SyncStatusBar() {
     <section
       aria-label="Sync"
       data-testid="sync-status"
+      data-sticky-top
       data-waiting={s.counted ? s.waiting : undefined}
       data-photos-waiting={s.counted ? s.photosWaiting : undefined}
-      className={cn('sticky top-0 z-20 border-b-2 px-3 py-2 text-sm', s.online ? 'border-line bg-panel' : 'border-cut bg-cut-tint')}
+      className={cn('sticky top-0 z-20 -mx-3 border-b-2 px-3 py-1 text-sm sm:mx-0', s.online ? 'border-line bg-panel' : 'border-cut bg-cut-tint')}
     >
-      <div className="mx-auto flex max-w-md flex-wrap items-center gap-x-3 gap-y-1">
-        <span className="flex items-center gap-1 font-bold" data-testid="connection">
+      {/* One line in the usual case; a second only while sending or when something needs a person. */}
+      <div className="mx-auto flex max-w-md items-center gap-x-3">
+        <span className="flex shrink-0 items-center gap-1 font-bold" data-testid="connection">
           <span aria-hidden className={cn('inline-block size-3 rounded-full', s.online ? 'bg-rootstock' : 'border-2 border-cut')} />
           {s.online ? t('online') : t('offline')}
         </span>
         {/* Never "nothing waiting" before the outbox is read: a record on the phone would look sent. */}
-        <span data-testid="waiting">{s.counted ? t('waiting', { count: s.waiting }) : t('counting')}</span>
-        {s.photosWaiting > 0 && <span data-testid="photos-waiting">{t('photosWaiting', { count: s.photosWaiting })}</span>}
+        <span className="shrink-0 font-bold" data-testid="waiting">
+          {s.counted ? t('waiting', { count: s.waiting }) : t('counting')}
+        </span>
+        {s.photosWaiting > 0 && (
+          <span className="shrink-0" data-testid="photos-waiting">
+            {t('photosWaiting', { count: s.photosWaiting })}
+          </span>
+        )}
+        <span className="min-w-0 flex-1 truncate text-bark-soft" aria-live="polite">
+          {s.progress
+            ? t('sending', {
+                records: s.progress.records,
+                recordsTotal: s.progress.recordsTotal,
+                kb: Math.round(s.progress.bytes / 1024),
+                kbTotal: Math.round(s.progress.bytesTotal / 1024),
+              })
+            : s.lastSyncedAt
+              ? t('lastSynced', { time: format.relativeTime(s.lastSyncedAt) })
+              : t('never')}
+        </span>
         <button
           type="button"
           onClick={() => void syncNow()}
           disabled={s.running}
-          className="ml-auto min-h-10 rounded-lg border-2 border-rootstock px-3 font-bold text-rootstock disabled:opacity-60"
+          className="min-h-11 shrink-0 rounded-lg border-2 border-rootstock bg-panel px-3 font-bold text-rootstock disabled:opacity-60"
         >
           {t('syncNow')}
         </button>
       </div>
-      <div className="mx-auto max-w-md" aria-live="polite">
-        {s.progress ? (
-          <p>
-            {t('sending', {
-              records: s.progress.records,
-              recordsTotal: s.progress.recordsTotal,
-              kb: Math.round(s.progress.bytes / 1024),
-              kbTotal: Math.round(s.progress.bytesTotal / 1024),
-            })}
-          </p>
-        ) : (
-          <p className="text-bark-soft">{s.lastSyncedAt ? t('lastSynced', { time: format.relativeTime(s.lastSyncedAt) }) : t('never')}</p>
-        )}
+      <div className="mx-auto max-w-md">
         {s.signedOut && (
           <p className="font-bold text-alarm" role="alert">
             {t('signedOut')}{' '}

@@ -15,7 +15,7 @@ import { cn } from '@/lib/cn';
 import { enqueueObservation, enqueuePhoto, listObservations, onOutboxChange } from '@/lib/offline/outbox';
 import { useDoneRows } from '@/lib/offline/row-work';
 import { requestBackgroundSync, syncNow } from '@/lib/offline/sync';
-import { STATUS_BY_LETTER, useFieldLayout } from '@/lib/offline/use-field-layout';
+import { STATUS_BY_LETTER, useFieldLayout, type FieldLayout } from '@/lib/offline/use-field-layout';
 import { can, type Role } from '@/lib/roles';
 import { OBSERVATION_KINDS, type ObservationKind } from '@/lib/viticulture';
 import { ROW_WORK_PASSES } from '@/lib/work/passes';
@@ -62,10 +62,21 @@ function useQueuedHere(blockId: string, at: Address | undefined) {
   return count;
 }
 
-export function VineStepper({ blockId, owner }: { blockId: string; owner: string }) {
+export function VineStepper({
+  blockId,
+  owner,
+  initialLayout,
+  initialAddress,
+}: {
+  blockId: string;
+  owner: string;
+  /** The server's render of the layout and the address in the link: the vine in the first paint. */
+  initialLayout?: FieldLayout;
+  initialAddress?: Address;
+}) {
   const t = useTranslations();
-  const { data: layout, isPending, isError } = useFieldLayout(blockId);
-  const [at, setAt] = useState<Address>();
+  const { data: layout, isPending, isError } = useFieldLayout(blockId, initialLayout);
+  const [at, setAt] = useState<Address | undefined>(initialAddress);
   const [planId, setPlanId] = useState<string>();
   const [taskId, setTaskId] = useState<string>();
   const [flagging, setFlagging] = useState(false);
@@ -197,7 +208,7 @@ export function VineStepper({ blockId, owner }: { blockId: string; owner: string
   }
 
   return (
-    <div className="flex flex-col gap-3 pb-28">
+    <div className="flex flex-col gap-3 pb-24">
       <ReiWarning sprays={layout.sprays} />
       <header className={cn('rounded-xl border-4 bg-panel p-3', SEVERITY_STYLE[finding?.[2] ?? 0])} data-testid="vine-address">
         <p className="text-sm font-bold text-bark-soft">{layout.block.name}</p>
@@ -342,12 +353,12 @@ export function VineStepper({ blockId, owner }: { blockId: string; owner: string
       )}
 
       {!kind && !flagging && !markingRow && (
-        <nav className="fixed inset-x-0 bottom-0 z-10 border-t-2 border-line bg-ground p-2" aria-label="Vines">
+        <nav className="fixed inset-x-0 bottom-[var(--places-h,0px)] z-10 border-t-2 border-line bg-ground p-2" aria-label="Vines" data-sticky-bottom>
           <div className="mx-auto grid max-w-md grid-cols-2 gap-2">
-            <button type="button" onClick={() => step(-1)} className="min-h-20 rounded-xl border-2 border-rootstock bg-panel text-xl font-extrabold text-rootstock">
+            <button type="button" onClick={() => step(-1)} className="min-h-16 rounded-xl border-2 border-rootstock bg-panel text-xl font-extrabold text-rootstock">
               ◀ {t('field.previous')}
             </button>
-            <button type="button" onClick={() => step(1)} className="min-h-20 rounded-xl bg-rootstock text-xl font-extrabold text-white">
+            <button type="button" onClick={() => step(1)} className="min-h-16 rounded-xl bg-rootstock text-xl font-extrabold text-white">
               {t('field.next')} ▶
             </button>
           </div>

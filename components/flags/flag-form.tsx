@@ -1,8 +1,9 @@
 'use client';
 
 import { useTranslations } from 'next-intl';
-import { useState } from 'react';
+import { useRef, useState } from 'react';
 import { Choice } from '@/components/field/choice';
+import { FORM_BAR, useFormFit } from '@/components/field/use-form-fit';
 import { Button } from '@/components/ui/button';
 import { Field } from '@/components/ui/field';
 import { enqueueRecord } from '@/lib/offline/outbox';
@@ -31,6 +32,9 @@ export function FlagForm({ owner, blockId, row, position, lastPosition, onSaved,
   const [note, setNote] = useState('');
   const [errors, setErrors] = useState<Partial<Record<'reason' | 'toPosition' | 'note', string>>>({});
   const [saving, setSaving] = useState(false);
+  const formRef = useRef<HTMLFormElement>(null);
+  const barRef = useRef<HTMLDivElement>(null);
+  useFormFit(formRef, barRef);
   const max = Math.min(lastPosition, position + MAX_FLAG_RUN - 1);
 
   async function save() {
@@ -61,7 +65,7 @@ export function FlagForm({ owner, blockId, row, position, lastPosition, onSaved,
   const step = (delta: number) => setToPosition((p) => Math.max(position, Math.min(max, p + delta)));
 
   return (
-    <form onSubmit={(e) => e.preventDefault()} className="flex flex-col gap-4" noValidate aria-label={t('title')}>
+    <form ref={formRef} onSubmit={(e) => e.preventDefault()} className="flex flex-col gap-4" noValidate aria-label={t('title')}>
       <h2 className="text-2xl font-extrabold">{t('title')}</h2>
       <Choice<FlagReason>
         label={t('reason')}
@@ -91,12 +95,12 @@ export function FlagForm({ owner, blockId, row, position, lastPosition, onSaved,
       <Field id="flag-note" label={t('note')} error={errors.note}>
         <textarea id="flag-note" value={note} onChange={(e) => setNote(e.target.value)} rows={2} maxLength={2000} className="rounded-lg border-2 border-line bg-panel p-2" />
       </Field>
-      <div className="sticky bottom-0 flex flex-col gap-2 bg-ground py-2">
-        <Button type="button" size="large" disabled={saving} onClick={() => void save()}>
-          {t('save')}
-        </Button>
-        <Button type="button" variant="quiet" onClick={onCancel}>
+      <div ref={barRef} data-sticky-bottom className={FORM_BAR}>
+        <Button type="button" variant="quiet" className="flex-none px-2" onClick={onCancel}>
           {tForm('cancel')}
+        </Button>
+        <Button type="button" className="min-h-14 flex-1" disabled={saving} onClick={() => void save()}>
+          {t('save')}
         </Button>
       </div>
     </form>

@@ -1,6 +1,6 @@
 'use client';
 
-import { Workbox } from 'workbox-window';
+import type { Workbox } from 'workbox-window';
 import { useEffect, useRef, useState } from 'react';
 
 /**
@@ -12,18 +12,31 @@ export function ServiceWorker({ labels }: { labels: { update: string; reload: st
   const accepted = useRef(false);
   useEffect(() => {
     if (!('serviceWorker' in navigator) || process.env.NODE_ENV !== 'production') return;
-    const wb = new Workbox('/sw.js', { scope: '/' });
-    wb.addEventListener('waiting', () => setWaiting(wb));
-    // Reload only for an update the person accepted: the first worker takes over quietly, so a
-    // half-filled form is never wiped.
-    wb.addEventListener('controlling', () => {
-      if (accepted.current) window.location.reload();
-    });
-    // Blocked or unsupported (private modes, some managed phones): the app still works online.
-    wb.register().catch(() => undefined);
-    const check = () => void wb.update().catch(() => undefined);
-    const interval = window.setInterval(check, 30 * 60 * 1000);
-    return () => window.clearInterval(interval);
+    let interval: number | undefined;
+    let stopped = false;
+    // workbox-window loads after the page has shown, so it costs the first paint nothing.
+    const start = async () => {
+      const { Workbox } = await import('workbox-window');
+      if (stopped) return;
+      const wb = new Workbox('/sw.js', { scope: '/' });
+      wb.addEventListener('waiting', () => setWaiting(wb));
+      // Reload only for an update the person accepted: the first worker takes over quietly, so a
+      // half-filled form is never wiped.
+      wb.addEventListener('controlling', () => {
+        if (accepted.current) window.location.reload();
+      });
+      // Blocked or unsupported (private modes, some managed phones): the app still works online.
+      wb.register().catch(() => undefined);
+      interval = window.setInterval(() => void wb.update().catch(() => undefined), 30 * 60 * 1000);
+    };
+    const begin = () => void start().catch(() => undefined);
+    if (document.readyState === 'complete') begin();
+    else window.addEventListener('load', begin, { once: true });
+    return () => {
+      stopped = true;
+      window.removeEventListener('load', begin);
+      window.clearInterval(interval);
+    };
   }, []);
   if (!waiting) return null;
   return (

@@ -12,6 +12,8 @@ test('the demo manager signs in through the page and lands on the desk', async (
   await expect(page).toHaveURL(/\/desk$/);
   await expect(page.getByRole('heading', { name: 'Desk' })).toBeVisible();
   await expect(page.getByText('Ninefold Ridge Estate').first()).toBeVisible();
+  // On a phone the desk pages are behind the header's menu.
+  await page.getByText('Menu', { exact: true }).click();
   await expect(page.getByRole('link', { name: 'Team', exact: true })).toBeVisible();
 });
 

@@ -7,13 +7,15 @@ import { isLocale } from '@/i18n/locales';
 import { memberForPage } from '@/lib/server/auth/guard';
 import { db } from '@/lib/server/db';
 import { getUserById } from '@/lib/server/queries/users';
+import { listBlockViews } from '@/lib/server/services/blocks';
 
 export const metadata: Metadata = { title: 'Field' };
 
 export default async function FieldPage() {
   const member = await memberForPage();
   const t = await getTranslations('field');
-  const user = await getUserById(db(), member.userId);
+  const [user, blocks] = await Promise.all([getUserById(db(), member.userId), listBlockViews(member)]);
+  const initial = blocks.map((b) => ({ id: b.id, name: b.name, variety: b.variety, rowCount: b.rowCount, vineCount: b.vineCount }));
   return (
     <div className="flex flex-col gap-4">
       <div>
@@ -23,7 +25,7 @@ export default async function FieldPage() {
       </div>
       <LanguageSwitch saved={isLocale(user?.locale) ? user.locale : 'en'} />
       <h2 className="text-xl font-bold">{t('chooseBlock')}</h2>
-      <FieldBlockList />
+      <FieldBlockList initial={initial} />
       <ButtonLink href="/field/outbox" variant="secondary">
         {t('outbox')}
       </ButtonLink>

@@ -50,3 +50,11 @@ export async function fieldVineHistory(member: Member, blockId: string, row: num
   const block = await requireBlock(member, blockId);
   return { observations: await listVineObservations(db(), block.id, row, position) };
 }
+
+/**
+ * The same view as the phone receives it from the route (dates as ISO strings), for the walk page
+ * itself, so that the vine shows in the page's first paint.
+ */
+export async function fieldLayoutJson(member: Member, blockId: string): Promise<FieldLayout> {
+  return JSON.parse(JSON.stringify(await fieldLayout(member, blockId))) as FieldLayout;
+}
