@@ -72,7 +72,7 @@ export function GridSummary({ summary, onGoToRow }: GridSummaryProps) {
         {summary.kinds.length === 0 ? (
           <p>No findings match these filters.</p>
         ) : (
-          <div className="overflow-x-auto">
+          <div className="overflow-x-auto" role="region" aria-label="Findings by kind" tabIndex={0}>
             <table className="w-full border-collapse text-left text-sm">
               <caption className="sr-only">Findings by kind: counts by severity and incidence among vines scouted</caption>
               <thead>

@@ -5,8 +5,9 @@ import type { Page } from '@playwright/test';
 export const WCAG_22_AA = ['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa', 'wcag22a', 'wcag22aa'];
 
 /** One line per failing element, so a test's diff names the rule, the element and what is wrong. */
+// Legacy mode runs axe in the page itself: no blank page per run, and the app has no frames.
 export async function axeViolations(page: Page, where = new URL(page.url()).pathname): Promise<string[]> {
-  const { violations } = await new AxeBuilder({ page }).withTags(WCAG_22_AA).analyze();
+  const { violations } = await new AxeBuilder({ page }).withTags(WCAG_22_AA).setLegacyMode().analyze();
   return violations.flatMap((v) =>
     v.nodes.map((n) => `${where} · ${v.id} (${v.impact}): ${n.target.join(' ')} · ${n.failureSummary?.split('\n').slice(0, 2).join(' ').trim() ?? v.help}`),
   );
