@@ -45,23 +45,26 @@ export function SignInForm({ callbackUrl, initialError }: { callbackUrl: string;
   return (
     <form onSubmit={onSubmit} noValidate className="flex flex-col gap-4" aria-describedby={message ? 'signin-message' : undefined}>
       <h1 className="text-2xl font-extrabold">Sign in</h1>
-      <div role="tablist" aria-label="How to sign in" className="grid grid-cols-2 gap-2">
-        {(['password', 'link'] as const).map((m) => (
-          <button
-            key={m}
-            type="button"
-            role="tab"
-            aria-selected={mode === m}
-            onClick={() => {
-              setMode(m);
-              setMessage(undefined);
-            }}
-            className={`min-h-touch rounded-lg border-2 font-bold ${mode === m ? 'border-rootstock bg-rootstock-tint' : 'border-line'}`}
-          >
-            {m === 'password' ? 'Password' : 'E-mail me a link'}
-          </button>
-        ))}
-      </div>
+      {/* The same pressed-button choice as the field forms: a labelled group, one button pressed. */}
+      <fieldset className="flex flex-col gap-1">
+        <legend className="mb-1 font-bold">How to sign in</legend>
+        <div className="grid grid-cols-2 gap-2">
+          {(['password', 'link'] as const).map((m) => (
+            <button
+              key={m}
+              type="button"
+              aria-pressed={mode === m}
+              onClick={() => {
+                setMode(m);
+                setMessage(undefined);
+              }}
+              className={`min-h-touch rounded-lg border-2 px-2 font-bold ${mode === m ? 'border-rootstock bg-rootstock-tint' : 'border-line bg-panel'}`}
+            >
+              {m === 'password' ? 'Password' : 'E-mail me a link'}
+            </button>
+          ))}
+        </div>
+      </fieldset>
       <Field id="email" label="E-mail" error={errors.email?.message}>
         <Input id="email" type="email" autoComplete="email" inputMode="email" {...form.register('email')} />
       </Field>

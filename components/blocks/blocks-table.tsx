@@ -106,7 +106,7 @@ export function BlocksTable({ units }: { units: UnitSystem }) {
       {list.isPending ? (
         <p aria-busy="true">Loading blocks…</p>
       ) : (
-        <div className="overflow-x-auto rounded-lg border-2 border-line bg-panel">
+        <div className="overflow-x-auto rounded-lg border-2 border-line bg-panel" role="region" aria-label="Blocks" tabIndex={0}>
           <table className="w-full border-collapse text-left">
             <SortableHead table={table} stickyColumn="name" />
             <tbody>

@@ -107,7 +107,7 @@ export function LayoutImport({ blockId, blockName, firstRow }: { blockId: string
       <section className="rounded-2xl border-2 border-line bg-panel p-4">
         <h2 className="text-xl font-bold">The file</h2>
         <p className="mt-1">A CSV file with one line per row of {blockName}, after this header:</p>
-        <pre className="mt-2 overflow-x-auto rounded-lg bg-ground p-3 font-mono text-sm">
+        <pre className="mt-2 overflow-x-auto rounded-lg bg-ground p-3 font-mono text-sm" tabIndex={0} aria-label="Example file">
           {`row,vines,statuses\n${firstRow},60,PPPPMPPPPPPPPPPPDPPPPPPPPRPPPP…\n${firstRow + 1},58,`}
         </pre>
         <ul className="mt-2 list-disc pl-5">

@@ -137,7 +137,7 @@ export function FlagsTable({ canManage, initialBlock = '', initialUntasked = fal
       {list.isPending ? (
         <p aria-busy="true">Loading flags…</p>
       ) : (
-        <div className="overflow-x-auto rounded-lg border-2 border-line bg-panel">
+        <div className="overflow-x-auto rounded-lg border-2 border-line bg-panel" role="region" aria-label="Flags" tabIndex={0}>
           <table className="w-full border-collapse text-left">
             <SortableHead table={table} />
             <tbody>

@@ -72,7 +72,7 @@ export function GridSummary({ summary, onGoToRow }: GridSummaryProps) {
         {summary.kinds.length === 0 ? (
           <p>No findings match these filters.</p>
         ) : (
-          <div className="overflow-x-auto">
+          <div className="overflow-x-auto" role="region" aria-label="Findings by kind" tabIndex={0}>
             <table className="w-full border-collapse text-left text-sm" data-testid="grid-findings-table">
               <caption className="sr-only">Findings by kind: counts by severity and incidence among vines scouted</caption>
               <thead>
@@ -136,7 +136,7 @@ export function GridSummary({ summary, onGoToRow }: GridSummaryProps) {
       {summary.records.length > 0 && (
         <div>
           <h3 className="mb-1 font-bold">Records of the work</h3>
-          <div className="overflow-x-auto">
+          <div className="overflow-x-auto" role="region" aria-label="Records of the work" tabIndex={0}>
             <table className="w-full border-collapse text-left text-sm" data-testid="grid-records-table">
               <caption className="sr-only">Pruning records, pruning checks and notes: how many, and how many vines were left off the bud target</caption>
               <thead>

@@ -63,7 +63,7 @@ export function Section({ id, title, intro, children }: { id: string; title: str
 /** A table that scrolls sideways on a phone and never breaks across a printed page when it fits on one. */
 export function ReportTable({ caption, children, testId }: { caption: ReactNode; children: ReactNode; testId?: string }) {
   return (
-    <div className="vw-table overflow-x-auto print:overflow-visible">
+    <div className="vw-table overflow-x-auto print:overflow-visible" role="region" aria-label={typeof caption === 'string' ? caption : 'Table'} tabIndex={0}>
       <table
         className="w-full border-collapse text-left text-sm [&_tbody_th]:border-b [&_tbody_th]:border-line [&_tbody_th]:font-bold [&_td]:border-b [&_td]:border-line [&_td]:px-2 [&_td]:py-1 [&_th]:px-2 [&_th]:py-1 [&_thead_th]:border-b-2 [&_thead_th]:border-bark [&_thead_th]:align-bottom"
         data-testid={testId}

@@ -5,6 +5,7 @@ import Link from 'next/link';
 import { useState } from 'react';
 import { apiGet } from '@/lib/api-client';
 import { Field, Input, Notice, Select } from '@/components/ui/field';
+import { ScrollArea } from '@/components/ui/scroll-area';
 import { cn } from '@/lib/cn';
 import { formatDay } from '@/lib/grid/labels';
 import type { PruningCheckReport as Report } from '@/lib/contracts/tasks';
@@ -55,7 +56,7 @@ export function PruningCheckReport({ blocks }: { blocks: { id: string; name: str
             <p className="mb-2 text-sm text-bark-soft">
               Buds left include renewal spurs. Off target means more than {fine}% from the block’s target; the plan is each vine’s own, from its measured canes.
             </p>
-            <div className="overflow-x-auto rounded-lg border-2 border-line bg-panel">
+            <ScrollArea label="By pruner" className="rounded-lg border-2 border-line bg-panel">
               <table className="w-full border-collapse text-left">
                 <thead>
                   <tr className="border-b-2 border-line">
@@ -85,7 +86,7 @@ export function PruningCheckReport({ blocks }: { blocks: { id: string; name: str
                   })}
                 </tbody>
               </table>
-            </div>
+            </ScrollArea>
           </section>
           <section aria-labelledby="checks-heading">
             <h2 id="checks-heading" className="mb-2 text-xl font-bold">

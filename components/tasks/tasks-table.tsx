@@ -134,7 +134,7 @@ export function TasksTable() {
       {list.isPending ? (
         <p aria-busy="true">Loading tasks…</p>
       ) : (
-        <div className="overflow-x-auto rounded-lg border-2 border-line bg-panel">
+        <div className="overflow-x-auto rounded-lg border-2 border-line bg-panel" role="region" aria-label="Tasks" tabIndex={0}>
           <table className="w-full border-collapse text-left">
             <SortableHead table={table} />
             <tbody>

@@ -11,7 +11,7 @@ export function EstateProgressTable({ blocks, season }: { blocks: BlockProgress[
   const pass = (b: BlockProgress, p: RowWorkPass) => b.passes.find((x) => x.pass === p)!;
   const total = (b: BlockProgress) => b.passes.reduce((s, p) => (p.costToDate === null || s === null ? null : s + p.costToDate), 0 as number | null);
   return (
-    <div className="overflow-x-auto">
+    <div className="overflow-x-auto" role="region" aria-label="Progress by block" tabIndex={0}>
       <table className="w-full min-w-[640px] text-left" data-testid="estate-progress">
         <caption className="sr-only">Row work per block, season {season}</caption>
         <thead>

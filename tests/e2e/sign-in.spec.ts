@@ -46,3 +46,23 @@ test('an advisor switching organisation without a connection is told so and stay
   await expect(picker).toHaveValue(before);
   await page.context().setOffline(false);
 });
+
+test('the way to sign in is a labelled pair of pressed buttons, not tabs', async ({ page }) => {
+  await page.goto('/signin');
+  const choice = page.getByRole('group', { name: 'How to sign in' });
+  const password = choice.getByRole('button', { name: 'Password' });
+  const link = choice.getByRole('button', { name: 'E-mail me a link' });
+  await expect(page.getByRole('tablist')).toHaveCount(0);
+  await expect(password).toHaveAttribute('aria-pressed', 'true');
+  await expect(link).toHaveAttribute('aria-pressed', 'false');
+  await link.click();
+  await expect(link).toHaveAttribute('aria-pressed', 'true');
+  await expect(password).toHaveAttribute('aria-pressed', 'false');
+  await expect(page.getByLabel('Password')).toHaveCount(0);
+  await expect(page.getByRole('button', { name: 'Send me a sign-in link' })).toBeVisible();
+  // A keyboard reaches both with Tab and presses with Space, as any button.
+  await password.focus();
+  await page.keyboard.press('Space');
+  await expect(password).toHaveAttribute('aria-pressed', 'true');
+  await expect(page.getByLabel('Password')).toBeVisible();
+});

@@ -35,7 +35,7 @@ export default async function SpraysPage() {
         {sprays.length === 0 ? (
           <p className="text-bark-soft">No sprays recorded.</p>
         ) : (
-          <div className="overflow-x-auto">
+          <div className="overflow-x-auto" role="region" aria-label="Sprays" tabIndex={0}>
             <table className="w-full border-collapse text-left">
               <thead>
                 <tr className="border-b-2 border-line">
