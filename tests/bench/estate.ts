@@ -101,9 +101,9 @@ export async function makeEstate(db: Knex, size: EstateSize, log: (line: string)
            case when h < 55 then 0 when h < 80 then 1 when h < 95 then 2 else 3 end,
            case when g % 7 = 0 then 'closed' else 'open' end, case when g % 7 = 0 then timestamptz '${SEASON}-09-01Z' end,
            'estate-' || g
-         from generate_series(1, ?) g
-         cross join lateral (select abs(hashint4(g)) % 100 as h, abs(hashint4(g * 31)) % (? * ?) as slot, (?::text[])[1 + (g % 9)] as kind) k
-         join vine_positions vp on vp.block_id = ? and vp.row_number = 1 + k.slot / ? and vp.position = 1 + k.slot % ?`,
+         from generate_series(1, ?::int) g
+         cross join lateral (select abs(hashint4(g)) % 100 as h, abs(hashint4(g * 31)) % (?::int * ?::int) as slot, (?::text[])[1 + (g % 9)] as kind) k
+         join vine_positions vp on vp.block_id = ? and vp.row_number = 1 + k.slot / ?::int and vp.position = 1 + k.slot % ?::int`,
         [ESTATE_ORG, scout.id, perBlock, size.side, size.side, KINDS, id, size.side, size.side],
       );
     }
