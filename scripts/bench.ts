@@ -5,6 +5,9 @@
  * `default async function (ctx: BenchContext)` and prints its own lines through ctx.report.
  *
  *   npm run bench -- grid     runs only benches whose file name contains "grid"
+ *   npm run bench -- scale --scale=full
+ *                             the estate-wide benches (scale, load) at full size: about 200,000 vines,
+ *                             1,000,000 observations, 100,000 photos; a small estate without it
  */
 import { readdirSync } from 'node:fs';
 import path from 'node:path';
@@ -43,6 +46,7 @@ async function main() {
       appUrl: env.APP_URL!,
       env,
       distDir: path.join(root, env.NEXT_DIST_DIR ?? '.next'),
+      scale: process.argv.includes('--scale=full') ? 'full' : 'small',
       report(line: string) {
         lines.push(line);
         console.log(`  ${line}`);

@@ -60,6 +60,12 @@ export function ensureChromium() {
   if (!existsSync('/usr/bin/chromium')) apt(['chromium']);
 }
 
+/** The load bench's reverse proxy in front of several app servers. */
+export function ensureHaproxy() {
+  if (!existsSync('/usr/sbin/haproxy')) apt(['haproxy']);
+  return '/usr/sbin/haproxy';
+}
+
 /** Runs a PostgreSQL tool as the postgres user when we are root (the server refuses root). */
 function pgTool(bin: string, tool: string, args: string[], quiet = true) {
   const full = path.join(bin, tool);

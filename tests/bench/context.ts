@@ -8,6 +8,8 @@ export interface BenchContext {
   distDir: string;
   /** Prints one figure line, e.g. "grid route p95 84 ms (target < 150 ms) ratio 1.9 to bare SQL". */
   report(line: string): void;
+  /** `npm run bench -- --scale=full`: the full-scale benches make an estate of the size DESIGN.md promises. */
+  scale: 'small' | 'full';
 }
 
 export function percentile(sortedMs: number[], p: number) {

@@ -3,31 +3,71 @@ import type { FlagView } from '@/lib/contracts/flags';
 import type { Db } from '@/lib/server/db';
 import type { FlagReason } from '@/lib/validation/flag';
 
-export interface FlagInsert {
+export function getStoredFlagHashes(db: Db, ids: string[]) {
+  if (ids.length === 0) return Promise.resolve([]);
+  return db('flags').whereIn('id', ids).select<{ id: string; organisation_id: string; payload_sha256: string }[]>('id', 'organisation_id', 'payload_sha256');
+}
+
+export interface FlagCandidate {
   id: string;
-  organisation_id: string;
   block_id: string;
-  position_id: string;
   row_number: number;
   position: number;
   to_position: number;
   reason: FlagReason;
   note: string;
   flagged_at: string;
-  flagged_by: string;
   payload_sha256: string;
 }
 
-/** Inserts once by id; answers the ids that were new. */
-export async function insertFlagsOnce(db: Db, rows: FlagInsert[]): Promise<Set<string>> {
-  if (rows.length === 0) return new Set();
-  const inserted = await db('flags').insert(rows).onConflict('id').ignore().returning('id');
-  return new Set(inserted.map((r: { id: string }) => r.id));
+export interface IngestOutcome {
+  ord: number;
+  inserted: boolean;
+  storedOrg: string | null;
+  storedHash: string | null;
 }
 
-export function getStoredFlagHashes(db: Db, ids: string[]) {
-  if (ids.length === 0) return Promise.resolve([]);
-  return db('flags').whereIn('id', ids).select<{ id: string; organisation_id: string; payload_sha256: string }[]>('id', 'organisation_id', 'payload_sha256');
+export interface FlagOutcome extends IngestOutcome {
+  blockOk: boolean;
+  positionId: string | null;
+  toOk: boolean;
+}
+
+/**
+ * One statement per batch: ids stored before are answered from what is stored; the new ones are
+ * checked against the member's blocks and vines (first and last vine of the span) and inserted
+ * once by id. Rows another transaction stored meanwhile are not seen (the statement's snapshot).
+ */
+export async function ingestFlags(db: Db, organisationId: string, flaggedBy: string, records: FlagCandidate[]): Promise<FlagOutcome[]> {
+  if (records.length === 0) return [];
+  const { rows } = await db.raw<{ rows: FlagOutcome[] }>(
+    `with input as (
+       select * from jsonb_to_recordset(?::jsonb) as r(ord int, id uuid, block_id uuid, row_number int, "position" int, to_position int,
+         reason text, note text, flagged_at timestamptz, payload_sha256 text)
+     ), facts as (
+       select i.*, b.id is not null as block_ok, p.id as position_id, last.id is not null as to_ok,
+         s.organisation_id as stored_org, s.payload_sha256 as stored_hash
+       from input i
+       left join flags s on s.id = i.id
+       left join blocks b on b.id = i.block_id and b.organisation_id = ?
+       left join vine_positions p on p.block_id = b.id and p.row_number = i.row_number and p.position = i."position"
+       left join vine_positions last on last.block_id = b.id and last.row_number = i.row_number and last.position = i.to_position
+     ), ins as (
+       insert into flags (id, organisation_id, block_id, position_id, row_number, position, to_position, reason, note, flagged_at, flagged_by, payload_sha256)
+       select distinct on (id) id, ?::uuid, block_id, position_id, row_number, "position", to_position, reason, note, flagged_at, ?::uuid, payload_sha256
+       from facts
+       where stored_org is null and position_id is not null and to_ok
+       order by id, ord
+       on conflict (id) do nothing
+       returning id
+     )
+     select f.ord, f.block_ok as "blockOk", f.position_id as "positionId", f.to_ok as "toOk",
+       exists (select 1 from ins where ins.id = f.id) as inserted, f.stored_org as "storedOrg", f.stored_hash as "storedHash"
+     from facts f
+     order by f.ord`,
+    [JSON.stringify(records.map((r, ord) => ({ ord, ...r }))), organisationId, organisationId, flaggedBy],
+  );
+  return rows;
 }
 
 

@@ -1,31 +1,81 @@
 import 'server-only';
 import type { Db } from '@/lib/server/db';
 
-export interface ObservationInsert {
+export interface ObservationCandidate {
   id: string;
-  organisation_id: string;
   block_id: string;
-  position_id: string;
   row_number: number;
   position: number;
   kind: string;
   data: unknown;
   note: string;
   observed_at: string;
-  recorded_by: string;
   severity: number;
   payload_sha256: string;
 }
 
-/** Inserts once by id; answers the ids that were new. Existing ids are left untouched. */
-export async function insertObservationsOnce(db: Db, rows: ObservationInsert[]): Promise<Set<string>> {
-  if (rows.length === 0) return new Set();
-  const inserted = await db('observations')
-    .insert(rows.map((r) => ({ ...r, data: JSON.stringify(r.data) })))
-    .onConflict('id')
-    .ignore()
-    .returning('id');
-  return new Set(inserted.map((r: { id: string }) => r.id));
+/** What the database knows about one record of a batch, in the batch's order. */
+export interface ObservationOutcome {
+  ord: number;
+  blockOk: boolean;
+  positionOk: boolean;
+  crewOk: boolean;
+  inserted: boolean;
+  storedOrg: string | null;
+  storedHash: string | null;
+}
+
+/**
+ * One statement per batch: resolves every address in the member's organisation, checks each
+ * pruning check's pruner, inserts the records that pass once by id (the first of a repeated id),
+ * and answers per record what it found, with the row stored before this statement (if any) for
+ * telling a retry from a conflict. Rows another transaction stored meanwhile are not seen here
+ * (the statement's snapshot): the caller looks those up.
+ */
+export async function ingestObservations(
+  db: Db,
+  organisationId: string,
+  recordedBy: string,
+  mayCheckPruning: boolean,
+  records: ObservationCandidate[],
+): Promise<ObservationOutcome[]> {
+  if (records.length === 0) return [];
+  const { rows } = await db.raw<{ rows: ObservationOutcome[] }>(
+    `with input as (
+       select * from jsonb_to_recordset(?::jsonb) as r(ord int, id uuid, block_id uuid, row_number int, "position" int, kind text,
+         data jsonb, note text, observed_at timestamptz, severity smallint, payload_sha256 text)
+     ), facts as (
+       select i.*, b.id is not null as block_ok, p.id as position_id,
+         (i.kind <> 'pruning-check' or exists (
+           select 1 from memberships m where m.organisation_id = ? and m.user_id = (i.data->>'prunedBy')::uuid)) as crew_ok
+       from input i
+       left join blocks b on b.id = i.block_id and b.organisation_id = ?
+       left join vine_positions p on p.block_id = b.id and p.row_number = i.row_number and p.position = i."position"
+     ), ins as (
+       insert into observations (id, organisation_id, block_id, position_id, row_number, position, kind, data, note, observed_at,
+         recorded_by, severity, payload_sha256)
+       select distinct on (id) id, ?::uuid, block_id, position_id, row_number, "position", kind, data, note, observed_at, ?::uuid, severity, payload_sha256
+       from facts
+       where position_id is not null and (kind <> 'pruning-check' or (?::boolean and crew_ok))
+       order by id, ord
+       on conflict (id) do nothing
+       returning id
+     )
+     select f.ord, f.block_ok as "blockOk", f.position_id is not null as "positionOk", f.crew_ok as "crewOk",
+       exists (select 1 from ins where ins.id = f.id) as inserted,
+       o.organisation_id as "storedOrg", o.payload_sha256 as "storedHash"
+     from facts f left join observations o on o.id = f.id
+     order by f.ord`,
+    [
+      JSON.stringify(records.map((r, ord) => ({ ord, ...r }))),
+      organisationId,
+      organisationId,
+      organisationId,
+      recordedBy,
+      mayCheckPruning,
+    ],
+  );
+  return rows;
 }
 
 export async function getStoredHashes(db: Db, ids: string[]) {
@@ -33,34 +83,6 @@ export async function getStoredHashes(db: Db, ids: string[]) {
   return db('observations')
     .whereIn('id', ids)
     .select<{ id: string; organisation_id: string; payload_sha256: string }[]>('id', 'organisation_id', 'payload_sha256');
-}
-
-export interface SlotKey {
-  blockId: string;
-  row: number;
-  position: number;
-}
-
-/** Resolves many block/row/position addresses to slot ids in one query. */
-export async function resolveSlots(db: Db, organisationId: string, keys: SlotKey[]) {
-  if (keys.length === 0) return new Map<string, string>();
-  const rows = await db.raw<{ rows: { id: string; block_id: string; row_number: number; position: number }[] }>(
-    `select p.id, p.block_id, p.row_number, p.position
-       from unnest(?::uuid[], ?::int[], ?::int[]) as k(block_id, row_number, position)
-       join vine_positions p on p.block_id = k.block_id and p.row_number = k.row_number and p.position = k.position
-       join blocks b on b.id = p.block_id and b.organisation_id = ?`,
-    [keys.map((k) => k.blockId), keys.map((k) => k.row), keys.map((k) => k.position), organisationId],
-  );
-  return new Map(rows.rows.map((r) => [slotKey({ blockId: r.block_id, row: r.row_number, position: r.position }), r.id]));
-}
-
-export const slotKey = (k: SlotKey) => `${k.blockId}:${k.row}:${k.position}`;
-
-/** The blocks of this organisation among the given ids. */
-export async function ownedBlockIds(db: Db, organisationId: string, blockIds: string[]) {
-  if (blockIds.length === 0) return new Set<string>();
-  const ids = await db('blocks').where({ organisation_id: organisationId }).whereIn('id', blockIds).pluck('id');
-  return new Set<string>(ids);
 }
 
 export function getObservation(db: Db, organisationId: string, id: string) {

@@ -21,36 +21,58 @@ export interface RowWorkInsert {
   payload_sha256: string;
 }
 
-/** Inserts a batch once by id in one statement; answers the ids that were new. */
-export async function insertRowWorkOnce(db: Db, rows: RowWorkInsert[]): Promise<Set<string>> {
-  if (rows.length === 0) return new Set();
-  const inserted = await db('row_work').insert(rows).onConflict('id').ignore().returning('id');
-  return new Set(inserted.map((r: { id: string }) => r.id));
+export interface RowWorkOutcome {
+  ord: number;
+  inserted: boolean;
+  storedOrg: string | null;
+  storedHash: string | null;
+  /** The block's row count when it is the member's block, else null. */
+  rowCount: number | null;
+  /** The row's vine count when the row exists, else null. */
+  rowLength: number | null;
+}
+
+/**
+ * One statement per batch: ids stored before are answered from what is stored; the new ones are
+ * checked against the member's blocks and rows (a span must lie within the row) and inserted once
+ * by id. Rows another transaction stored meanwhile are not seen (the statement's snapshot).
+ */
+export async function ingestRowWork(db: Db, organisationId: string, recordedBy: string, records: Omit<RowWorkInsert, 'organisation_id' | 'recorded_by'>[]): Promise<RowWorkOutcome[]> {
+  if (records.length === 0) return [];
+  const { rows } = await db.raw<{ rows: RowWorkOutcome[] }>(
+    `with input as (
+       select * from jsonb_to_recordset(?::jsonb) as r(ord int, id uuid, block_id uuid, row_number int, pass text, from_position int, to_position int,
+         crew_size int, person_hours numeric, started_at timestamptz, finished_at timestamptz, note text, payload_sha256 text)
+     ), facts as (
+       select i.*, b.row_count, br.vine_count, s.organisation_id as stored_org, s.payload_sha256 as stored_hash
+       from input i
+       left join row_work s on s.id = i.id
+       left join blocks b on b.id = i.block_id and b.organisation_id = ?
+       left join block_rows br on br.block_id = b.id and br.row_number = i.row_number
+     ), ins as (
+       insert into row_work (id, organisation_id, block_id, row_number, pass, from_position, to_position, crew_size, person_hours,
+         started_at, finished_at, note, recorded_by, payload_sha256)
+       select distinct on (id) id, ?::uuid, block_id, row_number, pass, from_position, to_position, crew_size, person_hours,
+         started_at, finished_at, note, ?::uuid, payload_sha256
+       from facts
+       where stored_org is null and vine_count is not null
+         and coalesce(from_position, 0) <= vine_count and coalesce(to_position, 0) <= vine_count
+       order by id, ord
+       on conflict (id) do nothing
+       returning id
+     )
+     select f.ord, exists (select 1 from ins where ins.id = f.id) as inserted, f.stored_org as "storedOrg", f.stored_hash as "storedHash",
+       f.row_count as "rowCount", f.vine_count as "rowLength"
+     from facts f
+     order by f.ord`,
+    [JSON.stringify(records.map((r, ord) => ({ ord, ...r }))), organisationId, organisationId, recordedBy],
+  );
+  return rows;
 }
 
 export function getStoredRowWorkHashes(db: Db, ids: string[]) {
   if (ids.length === 0) return Promise.resolve([]);
   return db('row_work').whereIn('id', ids).select<{ id: string; organisation_id: string; payload_sha256: string }[]>('id', 'organisation_id', 'payload_sha256');
-}
-
-/** The rows (and their lengths) of this organisation's blocks among the given block/row pairs, in one query. */
-export async function resolveRows(db: Db, organisationId: string, keys: { blockId: string; row: number }[]) {
-  if (keys.length === 0) return new Map<string, number>();
-  const found = await db.raw<{ rows: { block_id: string; row_number: number; vine_count: number }[] }>(
-    `select r.block_id, r.row_number, r.vine_count
-       from unnest(?::uuid[], ?::int[]) as k(block_id, row_number)
-       join block_rows r on r.block_id = k.block_id and r.row_number = k.row_number
-       join blocks b on b.id = r.block_id and b.organisation_id = ?`,
-    [keys.map((k) => k.blockId), keys.map((k) => k.row), organisationId],
-  );
-  return new Map(found.rows.map((r) => [`${r.block_id}:${r.row_number}`, r.vine_count]));
-}
-
-/** Each owned block's row count, for the message about a row past the block. */
-export async function blockRowCounts(db: Db, organisationId: string, blockIds: string[]) {
-  if (blockIds.length === 0) return new Map<string, number>();
-  const rows = await db('blocks').where({ organisation_id: organisationId }).whereIn('id', blockIds).select<{ id: string; row_count: number }[]>('id', 'row_count');
-  return new Map(rows.map((r) => [r.id, r.row_count]));
 }
 
 export async function getPayBasis(db: Db, organisationId: string): Promise<PayBasis & { seasonStartMonth: number }> {

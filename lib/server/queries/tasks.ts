@@ -170,52 +170,89 @@ export async function updateTaskRow(
   return row!;
 }
 
-export interface TaskUpdateInsert {
+export interface TaskUpdateCandidate {
   id: string;
-  organisation_id: string;
   task_id: string;
-  position_id: string;
+  block_id: string;
+  row_number: number;
+  position: number;
   note: string;
   observation_id: string | null;
   done_at: string;
-  recorded_by: string;
   payload_sha256: string;
 }
 
-export async function insertTaskUpdatesOnce(trx: Db, rows: TaskUpdateInsert[]): Promise<Set<string>> {
-  if (rows.length === 0) return new Set();
-  const inserted = await trx('task_updates').insert(rows).onConflict('id').ignore().returning('id');
-  return new Set(inserted.map((r: { id: string }) => r.id));
+export interface TaskUpdateOutcome {
+  ord: number;
+  inserted: boolean;
+  storedOrg: string | null;
+  storedHash: string | null;
+  taskFound: boolean;
+  taskBlockId: string | null;
+  taskStatus: TaskStatus | null;
+  assigneeId: string | null;
+  itemFound: boolean;
+  /** The task this record checked a vine off in, when it was stored now. */
+  taskId: string;
+}
+
+/**
+ * One statement per batch: ids stored before are answered from what is stored; the new ones are
+ * checked (the organisation's task, its block, a vine of it, not cancelled, the member's to do),
+ * inserted once by id, and check their vines off (the first record of a vine in the batch wins; a
+ * vine done before stays as it was). Closing finished tasks is the caller's next statement: this
+ * one's snapshot does not see its own item updates.
+ */
+export async function ingestTaskUpdates(
+  trx: Db,
+  organisationId: string,
+  member: { userId: string; mayDoAnyTask: boolean },
+  records: TaskUpdateCandidate[],
+): Promise<TaskUpdateOutcome[]> {
+  if (records.length === 0) return [];
+  const { rows } = await trx.raw<{ rows: TaskUpdateOutcome[] }>(
+    `with input as (
+       select * from jsonb_to_recordset(?::jsonb) as r(ord int, id uuid, task_id uuid, block_id uuid, row_number int, "position" int,
+         note text, observation_id uuid, done_at timestamptz, payload_sha256 text)
+     ), facts as (
+       select i.*, t.id as found_task, t.block_id as task_block, t.status as task_status, t.assignee_id, ti.position_id,
+         s.organisation_id as stored_org, s.payload_sha256 as stored_hash
+       from input i
+       left join task_updates s on s.id = i.id
+       left join tasks t on t.id = i.task_id and t.organisation_id = ?
+       left join task_items ti on ti.task_id = t.id and ti.row_number = i.row_number and ti.position = i."position"
+     ), ins as (
+       insert into task_updates (id, organisation_id, task_id, position_id, note, observation_id, done_at, recorded_by, payload_sha256)
+       select distinct on (id) id, ?::uuid, task_id, position_id, note, observation_id, done_at, ?::uuid, payload_sha256
+       from facts
+       where stored_org is null and found_task is not null and task_block = block_id and position_id is not null
+         and task_status <> 'cancelled' and (assignee_id = ?::uuid or ?::boolean)
+       order by id, ord
+       on conflict (id) do nothing
+       returning id, task_id, position_id, note, observation_id, done_at
+     ), first_per_vine as (
+       select distinct on (ins.task_id, ins.position_id) ins.*
+       from ins join (select id, min(ord) as ord from facts group by id) o on o.id = ins.id
+       order by ins.task_id, ins.position_id, o.ord
+     ), done as (
+       update task_items ti set status = 'done', done_at = v.done_at, done_by = ?::uuid, note = v.note, observation_id = v.observation_id
+       from first_per_vine v
+       where ti.task_id = v.task_id and ti.position_id = v.position_id and ti.status = 'open'
+       returning ti.task_id
+     )
+     select f.ord, exists (select 1 from ins where ins.id = f.id) as inserted, f.stored_org as "storedOrg", f.stored_hash as "storedHash",
+       f.found_task is not null as "taskFound", f.task_block as "taskBlockId", f.task_status as "taskStatus", f.assignee_id as "assigneeId",
+       f.position_id is not null as "itemFound", f.task_id as "taskId"
+     from facts f
+     order by f.ord`,
+    [JSON.stringify(records.map((r, ord) => ({ ord, ...r }))), organisationId, organisationId, member.userId, member.userId, member.mayDoAnyTask, member.userId],
+  );
+  return rows;
 }
 
 export function getStoredTaskUpdateHashes(db: Db, ids: string[]) {
   if (ids.length === 0) return Promise.resolve([]);
   return db('task_updates').whereIn('id', ids).select<{ id: string; organisation_id: string; payload_sha256: string }[]>('id', 'organisation_id', 'payload_sha256');
-}
-
-/** The tasks (of this organisation) and their items at these addresses, for checking task updates. */
-export function findTaskItems(db: Db, organisationId: string, keys: { taskId: string; row: number; position: number }[]) {
-  if (keys.length === 0) return Promise.resolve([]);
-  return db
-    .raw<{
-      rows: { task_id: string; block_id: string; status: TaskStatus; assignee_id: string | null; position_id: string | null; row_number: number; position: number }[];
-    }>(
-      `select t.id as task_id, t.block_id, t.status, t.assignee_id, i.position_id, k.row_number, k.position
-         from unnest(?::uuid[], ?::int[], ?::int[]) as k(task_id, row_number, position)
-         join tasks t on t.id = k.task_id and t.organisation_id = ?
-         left join task_items i on i.task_id = t.id and i.row_number = k.row_number and i.position = k.position`,
-      [keys.map((k) => k.taskId), keys.map((k) => k.row), keys.map((k) => k.position), organisationId],
-    )
-    .then((r) => r.rows);
-}
-
-/** Checks vines off; the first record of work on a vine wins, later ones leave it as it is. */
-export async function markItemsDone(trx: Db, items: { taskId: string; positionId: string; doneAt: string; doneBy: string; note: string; observationId: string | null }[]) {
-  for (const i of items) {
-    await trx('task_items')
-      .where({ task_id: i.taskId, position_id: i.positionId, status: 'open' })
-      .update({ status: 'done', done_at: i.doneAt, done_by: i.doneBy, note: i.note, observation_id: i.observationId });
-  }
 }
 
 /** Marks done the open tasks among these whose every vine is done; answers those it closed. */

@@ -2,9 +2,8 @@ import 'server-only';
 import type { Member } from '@/lib/server/auth/guard';
 import { db } from '@/lib/server/db';
 import { AppError } from '@/lib/server/errors';
-import { getFlag, getStoredFlagHashes, insertFlagsOnce, setFlagStatus, type FlagInsert } from '@/lib/server/queries/flags';
-import { ownedBlockIds, resolveSlots, slotKey } from '@/lib/server/queries/observations';
-import { hashPayload, rejected, settleOnce, validateRecords, type SyncResult, type ValidRecord } from '@/lib/server/services/sync';
+import { getFlag, getStoredFlagHashes, ingestFlags, setFlagStatus } from '@/lib/server/queries/flags';
+import { hashPayload, racedIds, rejected, settleOnce, validateRecords, type StoredHash, type SyncResult, type ValidRecord } from '@/lib/server/services/sync';
 import { flagRecordSchema, type FlagRecord } from '@/lib/validation/flag';
 
 const flagHash = (r: FlagRecord) =>
@@ -26,56 +25,46 @@ const flagHash = (r: FlagRecord) =>
 export async function syncFlags(member: Member, records: unknown[]): Promise<SyncResult[]> {
   const results: SyncResult[] = new Array(records.length);
   const valid = validateRecords(records, flagRecordSchema, flagHash, results);
-  const known = await getStoredFlagHashes(db(), valid.map((v) => v.record.id));
-  const knownIds = new Set(known.map((k) => k.id));
-  const fresh = valid.filter((v) => !knownIds.has(v.record.id));
-
-  const blocks = await ownedBlockIds(db(), member.organisationId, [...new Set(fresh.map((v) => v.record.blockId))]);
-  const inBlocks = fresh.filter((v) => blocks.has(v.record.blockId));
-  const slots = await resolveSlots(db(), member.organisationId, [
-    ...inBlocks.map((v) => ({ blockId: v.record.blockId, row: v.record.row, position: v.record.position })),
-    ...inBlocks.map((v) => ({ blockId: v.record.blockId, row: v.record.row, position: v.record.toPosition ?? v.record.position })),
-  ]);
-
-  const rows: FlagInsert[] = [];
-  const pending: ValidRecord<FlagRecord>[] = valid.filter((v) => knownIds.has(v.record.id));
-  for (const v of fresh) {
-    const r = v.record;
-    const last = r.toPosition ?? r.position;
-    if (!blocks.has(r.blockId)) {
-      results[v.index] = rejected(r.id, [{ field: 'blockId', message: 'No such block in your organisation' }]);
-      continue;
-    }
-    const positionId = slots.get(slotKey({ blockId: r.blockId, row: r.row, position: r.position }));
-    if (!positionId) {
-      results[v.index] = rejected(r.id, [{ field: 'position', message: `Row ${r.row} has no vine position ${r.position} in this block` }]);
-      continue;
-    }
-    if (!slots.has(slotKey({ blockId: r.blockId, row: r.row, position: last }))) {
-      results[v.index] = rejected(r.id, [{ field: 'toPosition', message: `Row ${r.row} has no vine position ${last} in this block` }]);
-      continue;
-    }
-    rows.push({
+  const outcomes = await ingestFlags(
+    db(),
+    member.organisationId,
+    member.userId,
+    valid.map(({ record: r, hash }) => ({
       id: r.id,
-      organisation_id: member.organisationId,
       block_id: r.blockId,
-      position_id: positionId,
       row_number: r.row,
       position: r.position,
-      to_position: last,
+      to_position: r.toPosition ?? r.position,
       reason: r.reason,
       note: r.note,
       flagged_at: r.flaggedAt,
-      flagged_by: member.userId,
-      payload_sha256: v.hash,
-    });
-    pending.push(v);
-  }
+      payload_sha256: hash,
+    })),
+  );
 
-  const created = await insertFlagsOnce(db(), rows);
-  // Ids another request stored between our look-up and our insert.
-  const raced = await getStoredFlagHashes(db(), rows.filter((r) => !created.has(r.id)).map((r) => r.id));
-  settleOnce(pending, created, [...known, ...raced], member.organisationId, results);
+  const pending: ValidRecord<FlagRecord>[] = [];
+  const created = new Set<string>();
+  const stored: StoredHash[] = [];
+  for (const [i, v] of valid.entries()) {
+    const r = v.record;
+    const o = outcomes[i]!;
+    if (o.storedOrg) {
+      stored.push({ id: r.id, organisation_id: o.storedOrg, payload_sha256: o.storedHash! });
+      pending.push(v);
+    } else if (!o.blockOk) {
+      results[v.index] = rejected(r.id, [{ field: 'blockId', message: 'No such block in your organisation' }]);
+    } else if (!o.positionId) {
+      results[v.index] = rejected(r.id, [{ field: 'position', message: `Row ${r.row} has no vine position ${r.position} in this block` }]);
+    } else if (!o.toOk) {
+      results[v.index] = rejected(r.id, [{ field: 'toPosition', message: `Row ${r.row} has no vine position ${r.toPosition ?? r.position} in this block` }]);
+    } else {
+      if (o.inserted) created.add(r.id);
+      pending.push(v);
+    }
+  }
+  // Ids another request stored between this statement's snapshot and its insert.
+  stored.push(...(await getStoredFlagHashes(db(), racedIds(pending, created, stored))));
+  settleOnce(pending, created, stored, member.organisationId, results);
   return results;
 }
 

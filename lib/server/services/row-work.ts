@@ -5,19 +5,16 @@ import type { Member } from '@/lib/server/auth/guard';
 import { db } from '@/lib/server/db';
 import { AppError } from '@/lib/server/errors';
 import {
-  blockRowCounts,
   countCoverage,
   getPayBasis,
   getStoredRowWorkHashes,
-  insertRowWorkOnce,
+  ingestRowWork,
   listDoneRows,
   listProgressBlocks,
   listRowWorkForExport,
   listWorkDays,
-  resolveRows,
-  type RowWorkInsert,
 } from '@/lib/server/queries/row-work';
-import { hashPayload, rejected, settleOnce, validateRecords, type SyncResult, type ValidRecord } from '@/lib/server/services/sync';
+import { hashPayload, racedIds, rejected, settleOnce, validateRecords, type StoredHash, type SyncResult, type ValidRecord } from '@/lib/server/services/sync';
 import { rowWorkRecordSchema, type RowWorkRecord } from '@/lib/validation/row-work';
 import { buildBlockProgress, toContract, type BlockProgress, type PassProgress } from '@/lib/work/progress';
 import type { PayBasis } from '@/lib/work/cost';
@@ -46,40 +43,12 @@ export const rowWorkHash = (r: RowWorkRecord) =>
 export async function syncRowWork(member: Member, records: unknown[]): Promise<SyncResult[]> {
   const results: SyncResult[] = new Array(records.length);
   const valid = validateRecords(records, rowWorkRecordSchema, rowWorkHash, results);
-  const known = await getStoredRowWorkHashes(db(), valid.map((v) => v.record.id));
-  const knownIds = new Set(known.map((k) => k.id));
-  const fresh = valid.filter((v) => !knownIds.has(v.record.id));
-
-  const [rowLengths, blocks] = await Promise.all([
-    resolveRows(db(), member.organisationId, fresh.map((v) => ({ blockId: v.record.blockId, row: v.record.row }))),
-    blockRowCounts(db(), member.organisationId, [...new Set(fresh.map((v) => v.record.blockId))]),
-  ]);
-
-  const rows: RowWorkInsert[] = [];
-  const pending: ValidRecord<RowWorkRecord>[] = valid.filter((v) => knownIds.has(v.record.id));
-  for (const v of fresh) {
-    const r = v.record;
-    if (!blocks.has(r.blockId)) {
-      // Another organisation's block reads exactly like one that does not exist.
-      results[v.index] = rejected(r.id, [{ field: 'blockId', message: 'No such block in your organisation' }]);
-      continue;
-    }
-    const length = rowLengths.get(`${r.blockId}:${r.row}`);
-    if (length === undefined) {
-      results[v.index] = rejected(r.id, [{ field: 'row', message: `This block has no row ${r.row} (it has ${blocks.get(r.blockId)} rows)` }]);
-      continue;
-    }
-    const errors = [
-      ...(r.fromPosition !== undefined && r.fromPosition > length ? [{ field: 'fromPosition', message: `Row ${r.row} has ${length} vine positions` }] : []),
-      ...(r.toPosition !== undefined && r.toPosition > length ? [{ field: 'toPosition', message: `Row ${r.row} has ${length} vine positions` }] : []),
-    ];
-    if (errors.length) {
-      results[v.index] = rejected(r.id, errors);
-      continue;
-    }
-    rows.push({
+  const outcomes = await ingestRowWork(
+    db(),
+    member.organisationId,
+    member.userId,
+    valid.map(({ record: r, hash }) => ({
       id: r.id,
-      organisation_id: member.organisationId,
       block_id: r.blockId,
       row_number: r.row,
       pass: r.pass,
@@ -90,16 +59,45 @@ export async function syncRowWork(member: Member, records: unknown[]): Promise<S
       started_at: r.startedAt ?? null,
       finished_at: r.finishedAt,
       note: r.note,
-      recorded_by: member.userId,
-      payload_sha256: v.hash,
-    });
+      payload_sha256: hash,
+    })),
+  );
+
+  const pending: ValidRecord<RowWorkRecord>[] = [];
+  const created = new Set<string>();
+  const stored: StoredHash[] = [];
+  for (const [i, v] of valid.entries()) {
+    const r = v.record;
+    const o = outcomes[i]!;
+    // A retry of a stored id is answered from what is stored, whatever happened to the block since.
+    if (o.storedOrg) {
+      stored.push({ id: r.id, organisation_id: o.storedOrg, payload_sha256: o.storedHash! });
+      pending.push(v);
+      continue;
+    }
+    if (o.rowCount === null) {
+      // Another organisation's block reads exactly like one that does not exist.
+      results[v.index] = rejected(r.id, [{ field: 'blockId', message: 'No such block in your organisation' }]);
+      continue;
+    }
+    const length = o.rowLength;
+    if (length === null) {
+      results[v.index] = rejected(r.id, [{ field: 'row', message: `This block has no row ${r.row} (it has ${o.rowCount} rows)` }]);
+      continue;
+    }
+    const errors = [
+      ...(r.fromPosition !== undefined && r.fromPosition > length ? [{ field: 'fromPosition', message: `Row ${r.row} has ${length} vine positions` }] : []),
+      ...(r.toPosition !== undefined && r.toPosition > length ? [{ field: 'toPosition', message: `Row ${r.row} has ${length} vine positions` }] : []),
+    ];
+    if (errors.length) {
+      results[v.index] = rejected(r.id, errors);
+      continue;
+    }
+    if (o.inserted) created.add(r.id);
     pending.push(v);
   }
-
-  const created = await insertRowWorkOnce(db(), rows);
-  // Ids another request stored between our look-up and our insert.
-  const raced = await getStoredRowWorkHashes(db(), rows.filter((r) => !created.has(r.id)).map((r) => r.id));
-  settleOnce(pending, created, [...known, ...raced], member.organisationId, results);
+  stored.push(...(await getStoredRowWorkHashes(db(), racedIds(pending, created, stored))));
+  settleOnce(pending, created, stored, member.organisationId, results);
   return results;
 }
 

@@ -5,15 +5,7 @@ import { can } from '@/lib/roles';
 import type { Member } from '@/lib/server/auth/guard';
 import { db } from '@/lib/server/db';
 import { fieldErrors } from '@/lib/server/http';
-import {
-  getStoredHashes,
-  insertObservationsOnce,
-  ownedBlockIds,
-  resolveSlots,
-  slotKey,
-  type ObservationInsert,
-} from '@/lib/server/queries/observations';
-import { memberIdsAmong } from '@/lib/server/queries/tasks';
+import { getStoredHashes, ingestObservations } from '@/lib/server/queries/observations';
 import { observationRecordSchema, type ObservationRecord } from '@/lib/validation/observation';
 import { settingsForBlocks } from '@/lib/server/services/settings';
 import { observationSeverity, type ObservationKind } from '@/lib/viticulture';
@@ -87,6 +79,21 @@ export function validateRecords<R extends { id: string }>(
   return valid;
 }
 
+export interface StoredHash {
+  id: string;
+  organisation_id: string;
+  payload_sha256: string;
+}
+
+/**
+ * Ids that were neither inserted nor found stored: another request stored them between this
+ * statement's snapshot and its insert. Rare; the caller looks them up once more.
+ */
+export function racedIds<R extends { id: string }>(pending: ValidRecord<R>[], created: Set<string>, stored: StoredHash[]) {
+  const known = new Set(stored.map((s) => s.id));
+  return [...new Set(pending.map((v) => v.record.id).filter((id) => !created.has(id) && !known.has(id)))];
+}
+
 /**
  * After an insert-once: "created" for the first record of each new id in the batch, otherwise
  * "duplicate" or "conflict" against what is stored. Another organisation's id reads as a conflict.
@@ -94,7 +101,7 @@ export function validateRecords<R extends { id: string }>(
 export function settleOnce<R extends { id: string }>(
   pending: ValidRecord<R>[],
   created: Set<string>,
-  stored: { id: string; organisation_id: string; payload_sha256: string }[],
+  stored: StoredHash[],
   organisationId: string,
   results: SyncResult[],
 ) {
@@ -116,71 +123,55 @@ export function settleOnce<R extends { id: string }>(
 /**
  * Stores each observation once, by its device-made id: a retry of the same record answers
  * "duplicate", the same id with another payload answers "conflict" and keeps what is stored.
- * Invalid records are rejected one by one; the valid ones of the batch are still stored.
+ * Invalid records are rejected one by one; the valid ones of the batch are still stored. The
+ * database sees one statement per batch (ingestObservations), however many records it holds.
  */
 export async function syncObservations(member: Member, records: unknown[]): Promise<SyncResult[]> {
   const results: SyncResult[] = new Array(records.length);
   const valid = validateRecords(records, observationRecordSchema, payloadHash, results);
-
-  // One query resolves every address; only addresses that fail need the second look that tells
-  // "not your block" from "no such vine in it".
-  const slots = await resolveSlots(
+  // Severity is judged with each block's own settings, as the phone judged it.
+  const settingsOf = await settingsForBlocks(db(), member.organisationId, [...new Set(valid.map((v) => v.record.blockId))]);
+  const outcomes = await ingestObservations(
     db(),
     member.organisationId,
-    valid.map((v) => ({ blockId: v.record.blockId, row: v.record.row, position: v.record.position })),
-  );
-  const unresolved = valid.filter((v) => !slots.has(slotKey({ blockId: v.record.blockId, row: v.record.row, position: v.record.position })));
-  const blocks = await ownedBlockIds(db(), member.organisationId, [...new Set(unresolved.map((v) => v.record.blockId))]);
-
-  const checked = valid.flatMap((v) => (v.record.kind === 'pruning-check' ? [String(v.record.data.prunedBy)] : []));
-  const [crew, settingsOf] = await Promise.all([
-    memberIdsAmong(db(), member.organisationId, checked),
-    // Severity is judged with each block's own settings, as the phone judged it.
-    settingsForBlocks(db(), member.organisationId, [...new Set(valid.map((v) => v.record.blockId))]),
-  ]);
-
-  const rows: ObservationInsert[] = [];
-  const pending: typeof valid = [];
-  for (const v of valid) {
-    const r = v.record;
-    const positionId = slots.get(slotKey({ blockId: r.blockId, row: r.row, position: r.position }));
-    if (!positionId && !blocks.has(r.blockId)) {
-      // Another organisation's block reads exactly like one that does not exist.
-      results[v.index] = rejected(r.id, [{ field: 'blockId', message: 'No such block in your organisation' }]);
-      continue;
-    }
-    if (!positionId) {
-      results[v.index] = rejected(r.id, [{ field: 'position', message: `Row ${r.row} has no vine position ${r.position} in this block` }]);
-      continue;
-    }
-    if (r.kind === 'pruning-check' && !can(member.role, 'check-pruning')) {
-      results[v.index] = rejected(r.id, [{ field: 'kind', message: 'Only a crew lead (pruner) or a manager records pruning checks' }]);
-      continue;
-    }
-    if (r.kind === 'pruning-check' && !crew.has(String(r.data.prunedBy))) {
-      results[v.index] = rejected(r.id, [{ field: 'data.prunedBy', message: 'No such person in your organisation' }]);
-      continue;
-    }
-    rows.push({
+    member.userId,
+    can(member.role, 'check-pruning'),
+    valid.map(({ record: r, hash }) => ({
       id: r.id,
-      organisation_id: member.organisationId,
       block_id: r.blockId,
-      position_id: positionId,
       row_number: r.row,
       position: r.position,
       kind: r.kind,
       data: r.data,
       note: r.note,
       observed_at: r.observedAt,
-      recorded_by: member.userId,
       severity: observationSeverity(r.kind as ObservationKind, r.data as never, settingsOf(r.blockId)),
-      payload_sha256: v.hash,
-    });
-    pending.push(v);
-  }
+      payload_sha256: hash,
+    })),
+  );
 
-  const created = await insertObservationsOnce(db(), rows);
-  const stored = await getStoredHashes(db(), pending.filter((v) => !created.has(v.record.id)).map((v) => v.record.id));
+  const pending: typeof valid = [];
+  const created = new Set<string>();
+  const stored: StoredHash[] = [];
+  for (const [i, v] of valid.entries()) {
+    const r = v.record;
+    const o = outcomes[i]!;
+    if (!o.blockOk) {
+      // Another organisation's block reads exactly like one that does not exist.
+      results[v.index] = rejected(r.id, [{ field: 'blockId', message: 'No such block in your organisation' }]);
+    } else if (!o.positionOk) {
+      results[v.index] = rejected(r.id, [{ field: 'position', message: `Row ${r.row} has no vine position ${r.position} in this block` }]);
+    } else if (r.kind === 'pruning-check' && !can(member.role, 'check-pruning')) {
+      results[v.index] = rejected(r.id, [{ field: 'kind', message: 'Only a crew lead (pruner) or a manager records pruning checks' }]);
+    } else if (!o.crewOk) {
+      results[v.index] = rejected(r.id, [{ field: 'data.prunedBy', message: 'No such person in your organisation' }]);
+    } else {
+      pending.push(v);
+      if (o.inserted) created.add(r.id);
+      if (o.storedOrg) stored.push({ id: r.id, organisation_id: o.storedOrg, payload_sha256: o.storedHash! });
+    }
+  }
+  stored.push(...(await getStoredHashes(db(), racedIds(pending, created, stored))));
   settleOnce(pending, created, stored, member.organisationId, results);
   return results;
 }

@@ -8,25 +8,22 @@ import { AppError } from '@/lib/server/errors';
 import { attachFlagsToTask, closeTaskFlags, existingFlagIds, lockOpenFlags, releaseTaskFlags } from '@/lib/server/queries/flags';
 import {
   completeFinishedTasks,
-  findTaskItems,
   getMembership,
   getStoredTaskUpdateHashes,
   getTask,
   insertTask,
   insertTaskItems,
-  insertTaskUpdatesOnce,
+  ingestTaskUpdates,
   listPlanMeasurements,
   listPruningChecks,
   listTaskItems,
   lockTask,
-  markItemsDone,
   slotsInRuns,
   updateTaskRow,
-  type TaskUpdateInsert,
 } from '@/lib/server/queries/tasks';
 import { wakeMailWorker } from '@/lib/server/services/mail-worker';
 import { queueAssignmentMail } from '@/lib/server/services/notifications';
-import { hashPayload, rejected, settleOnce, validateRecords, type SyncResult, type ValidRecord } from '@/lib/server/services/sync';
+import { hashPayload, racedIds, rejected, settleOnce, validateRecords, type StoredHash, type SyncResult, type ValidRecord } from '@/lib/server/services/sync';
 import { REASON_LABELS, type FlagReason } from '@/lib/validation/flag';
 import { taskUpdateRecordSchema, type CreateTasksInput, type TaskUpdateRecord, type UpdateTaskInput } from '@/lib/validation/task';
 import { settingsForBlocks } from '@/lib/server/services/settings';
@@ -168,8 +165,6 @@ const updateHash = (r: TaskUpdateRecord) =>
     doneAt: new Date(r.doneAt).toISOString(),
   });
 
-const addressKey = (taskId: string, row: number, position: number) => `${taskId}:${row}:${position}`;
-
 /**
  * The phone's "this vine is done" records, once-only like every field record. The assignee (or a
  * manager) checks off vines of an open task; the last vine done closes the task and its flags.
@@ -177,56 +172,47 @@ const addressKey = (taskId: string, row: number, position: number) => `${taskId}
 export async function syncTaskUpdates(member: Member, records: unknown[]): Promise<SyncResult[]> {
   const results: SyncResult[] = new Array(records.length);
   const valid = validateRecords(records, taskUpdateRecordSchema, updateHash, results);
-  const known = await getStoredTaskUpdateHashes(db(), valid.map((v) => v.record.id));
-  const knownIds = new Set(known.map((k) => k.id));
-  const fresh = valid.filter((v) => !knownIds.has(v.record.id));
-  const found = await findTaskItems(
-    db(),
-    member.organisationId,
-    fresh.map((v) => ({ taskId: v.record.taskId, row: v.record.row, position: v.record.position })),
-  );
-  const items = new Map(found.map((f) => [addressKey(f.task_id, f.row_number, f.position), f]));
+  const candidates = valid.map(({ record: r, hash }) => ({
+    id: r.id,
+    task_id: r.taskId,
+    block_id: r.blockId,
+    row_number: r.row,
+    position: r.position,
+    note: r.note,
+    observation_id: r.observationId ?? null,
+    done_at: r.doneAt,
+    payload_sha256: hash,
+  }));
+  const outcomes = await db().transaction(async (trx) => {
+    const found = await ingestTaskUpdates(trx, member.organisationId, { userId: member.userId, mayDoAnyTask: member.role === 'manager' }, candidates);
+    const touched = found.filter((o) => o.inserted).map((o) => o.taskId);
+    const finished = await completeFinishedTasks(trx, touched);
+    await closeTaskFlags(trx, finished, member.userId);
+    return found;
+  });
 
-  const rows: TaskUpdateInsert[] = [];
-  const pending: ValidRecord<TaskUpdateRecord>[] = valid.filter((v) => knownIds.has(v.record.id));
-  for (const v of fresh) {
+  const pending: ValidRecord<TaskUpdateRecord>[] = [];
+  const created = new Set<string>();
+  const stored: StoredHash[] = [];
+  for (const [i, v] of valid.entries()) {
     const r = v.record;
-    const item = items.get(addressKey(r.taskId, r.row, r.position));
+    const o = outcomes[i]!;
     const refuse = (field: string, message: string) => (results[v.index] = rejected(r.id, [{ field, message }]));
-    if (!item) refuse('taskId', 'No such task in your organisation');
-    else if (item.block_id !== r.blockId) refuse('blockId', 'This task is in another block');
-    else if (!item.position_id) refuse('position', `Row ${r.row}, vine ${r.position} is not part of this task`);
-    else if (item.status === 'cancelled') refuse('taskId', 'This task was cancelled; nothing more to do on it');
-    else if (item.assignee_id !== member.userId && member.role !== 'manager') refuse('taskId', 'This task is assigned to someone else');
+    if (o.storedOrg) {
+      stored.push({ id: r.id, organisation_id: o.storedOrg, payload_sha256: o.storedHash! });
+      pending.push(v);
+    } else if (!o.taskFound) refuse('taskId', 'No such task in your organisation');
+    else if (o.taskBlockId !== r.blockId) refuse('blockId', 'This task is in another block');
+    else if (!o.itemFound) refuse('position', `Row ${r.row}, vine ${r.position} is not part of this task`);
+    else if (o.taskStatus === 'cancelled') refuse('taskId', 'This task was cancelled; nothing more to do on it');
+    else if (o.assigneeId !== member.userId && member.role !== 'manager') refuse('taskId', 'This task is assigned to someone else');
     else {
-      rows.push({
-        id: r.id,
-        organisation_id: member.organisationId,
-        task_id: r.taskId,
-        position_id: item.position_id,
-        note: r.note,
-        observation_id: r.observationId ?? null,
-        done_at: r.doneAt,
-        recorded_by: member.userId,
-        payload_sha256: v.hash,
-      });
+      if (o.inserted) created.add(r.id);
       pending.push(v);
     }
   }
-
-  const created = await db().transaction(async (trx) => {
-    const inserted = await insertTaskUpdatesOnce(trx, rows);
-    const done = rows.filter((r) => inserted.has(r.id));
-    await markItemsDone(
-      trx,
-      done.map((r) => ({ taskId: r.task_id, positionId: r.position_id, doneAt: r.done_at, doneBy: member.userId, note: r.note, observationId: r.observation_id })),
-    );
-    const finished = await completeFinishedTasks(trx, done.map((r) => r.task_id));
-    await closeTaskFlags(trx, finished, member.userId);
-    return inserted;
-  });
-  const raced = await getStoredTaskUpdateHashes(db(), rows.filter((r) => !created.has(r.id)).map((r) => r.id));
-  settleOnce(pending, created, [...known, ...raced], member.organisationId, results);
+  stored.push(...(await getStoredTaskUpdateHashes(db(), racedIds(pending, created, stored))));
+  settleOnce(pending, created, stored, member.organisationId, results);
   return results;
 }
 
