@@ -6,20 +6,44 @@ const QUERY_WALL = 'Only lib/server/queries calls the query builder: add a query
 const ioModules = ['fs', 'node:*', 'knex', 'pg', 'react', 'react-dom', 'next', 'next/*', '@aws-sdk/*', 'nodemailer', 'sharp'];
 
 export default tseslint.config(
-  { ignores: ['.next/**', '.next-slot-*/**', 'node_modules/**', '.data/**', 'coverage/**', 'public/sw.js', 'test-results/**', 'playwright-report/**', 'next-env.d.ts'] },
+  {
+    ignores: [
+      '.next/**',
+      '.next-slot-*/**',
+      'node_modules/**',
+      '.data/**',
+      'coverage/**',
+      'public/sw.js',
+      'test-results/**',
+      'playwright-report/**',
+      'next-env.d.ts',
+    ],
+  },
   js.configs.recommended,
   ...tseslint.configs.recommended,
   {
-    languageOptions: { globals: { console: 'readonly', process: 'readonly', window: 'readonly', document: 'readonly', location: 'readonly', fetch: 'readonly', URL: 'readonly', URLSearchParams: 'readonly', setTimeout: 'readonly', Buffer: 'readonly', __dirname: 'readonly' } },
+    languageOptions: {
+      globals: {
+        console: 'readonly',
+        process: 'readonly',
+        window: 'readonly',
+        document: 'readonly',
+        location: 'readonly',
+        fetch: 'readonly',
+        URL: 'readonly',
+        URLSearchParams: 'readonly',
+        setTimeout: 'readonly',
+        Buffer: 'readonly',
+        __dirname: 'readonly',
+      },
+    },
     rules: {
       '@typescript-eslint/no-unused-vars': ['error', { argsIgnorePattern: '^_', varsIgnorePattern: '^_' }],
       '@typescript-eslint/consistent-type-imports': ['error', { fixStyle: 'inline-type-imports' }],
       'no-restricted-imports': [
         'error',
         {
-          patterns: [
-            { group: ['knex', 'pg'], message: 'Database access lives in lib/server/ (queries/ for SQL) and db/ only.' },
-          ],
+          patterns: [{ group: ['knex', 'pg'], message: 'Database access lives in lib/server/ (queries/ for SQL) and db/ only.' }],
         },
       ],
     },
@@ -34,7 +58,12 @@ export default tseslint.config(
     rules: {
       'no-restricted-imports': [
         'error',
-        { patterns: [{ group: ioModules, message: 'lib/viticulture is pure: no I/O, no framework imports.' }, { group: ['@/*'], message: 'lib/viticulture imports only its own modules.' }] },
+        {
+          patterns: [
+            { group: ioModules, message: 'lib/viticulture is pure: no I/O, no framework imports.' },
+            { group: ['@/*'], message: 'lib/viticulture imports only its own modules.' },
+          ],
+        },
       ],
     },
   },
@@ -53,7 +82,14 @@ export default tseslint.config(
     rules: {
       'no-restricted-imports': [
         'error',
-        { patterns: [{ group: ['knex', 'pg', '@/lib/server/db', '@/lib/server/queries/*'], message: 'UI components get data from pages, route handlers or server actions.' }] },
+        {
+          patterns: [
+            {
+              group: ['knex', 'pg', '@/lib/server/db', '@/lib/server/queries/*'],
+              message: 'UI components get data from pages, route handlers or server actions.',
+            },
+          ],
+        },
       ],
     },
   },
@@ -67,8 +103,14 @@ export default tseslint.config(
         {
           patterns: [
             { group: ['knex', 'pg'], message: 'Database access lives in lib/server/ (queries/ for SQL) and db/ only.' },
-            { group: ['@/app/*', '@/app/**', '**/app/*'], message: 'Components and lib/ never import app/: a page passes what they need (server actions as props).' },
-            { group: ['@/lib/server/*', '@/lib/server/**', '**/server/*'], message: 'Client code never imports lib/server, types included: use lib/contracts.' },
+            {
+              group: ['@/app/*', '@/app/**', '**/app/*'],
+              message: 'Components and lib/ never import app/: a page passes what they need (server actions as props).',
+            },
+            {
+              group: ['@/lib/server/*', '@/lib/server/**', '**/server/*'],
+              message: 'Client code never imports lib/server, types included: use lib/contracts.',
+            },
           ],
         },
       ],
@@ -82,7 +124,10 @@ export default tseslint.config(
         {
           patterns: [
             { group: ioModules, message: 'This module is pure: no I/O, no framework imports.' },
-            { group: ['@/app/*', '@/app/**', '@/lib/server/*', '@/lib/server/**', '@/components/*', '@/components/**'], message: 'This module is pure: no app, server or UI imports.' },
+            {
+              group: ['@/app/*', '@/app/**', '@/lib/server/*', '@/lib/server/**', '@/components/*', '@/components/**'],
+              message: 'This module is pure: no app, server or UI imports.',
+            },
           ],
         },
       ],
@@ -99,9 +144,12 @@ export default tseslint.config(
         'error',
         // db()('table'), trx('table'), conn('table'): a query built here instead of in lib/server/queries.
         { selector: "CallExpression[callee.type='CallExpression'][callee.callee.name='db']", message: QUERY_WALL },
-        { selector: "CallExpression[callee.name=/^(trx|conn|knex)$/]", message: QUERY_WALL },
-        { selector: "CallExpression[callee.property.name=/^(raw|schema|fn)$/][callee.object.type='CallExpression'][callee.object.callee.name='db']", message: QUERY_WALL },
-        { selector: "CallExpression[callee.property.name=/^(raw|schema|fn)$/][callee.object.name=/^(trx|conn|knex)$/]", message: QUERY_WALL },
+        { selector: 'CallExpression[callee.name=/^(trx|conn|knex)$/]', message: QUERY_WALL },
+        {
+          selector: "CallExpression[callee.property.name=/^(raw|schema|fn)$/][callee.object.type='CallExpression'][callee.object.callee.name='db']",
+          message: QUERY_WALL,
+        },
+        { selector: 'CallExpression[callee.property.name=/^(raw|schema|fn)$/][callee.object.name=/^(trx|conn|knex)$/]', message: QUERY_WALL },
       ],
     },
   },

@@ -47,7 +47,14 @@ function presignedProblem(method: string, url: string, headers: Record<string, s
   const issued = Date.parse(date.replace(/^(\d{4})(\d{2})(\d{2})T(\d{2})(\d{2})(\d{2})Z$/, '$1-$2-$3T$4:$5:$6Z'));
   if (!(issued + Number(q.get('X-Amz-Expires')) * 1000 > Date.now())) return 'Request has expired';
   const signed = (q.get('X-Amz-SignedHeaders') ?? '').split(';');
-  const canonicalHeaders = signed.map((h) => `${h}:${String(headers[h] ?? '').trim().replace(/\s+/g, ' ')}\n`).join('');
+  const canonicalHeaders = signed
+    .map(
+      (h) =>
+        `${h}:${String(headers[h] ?? '')
+          .trim()
+          .replace(/\s+/g, ' ')}\n`,
+    )
+    .join('');
   const query = [...q.entries()]
     .filter(([k]) => k !== 'X-Amz-Signature')
     .map(([k, v]) => [rfc3986(k), rfc3986(v)])

@@ -119,9 +119,7 @@ const web = http.createServer((req, res) => {
 
 smtp.listen(Number(values['smtp-port']), '127.0.0.1', () => {
   web.listen(Number(values['http-port']), '127.0.0.1', () => {
-    console.log(
-      `smtp-fake listening on smtp://127.0.0.1:${values['smtp-port']}, inbox http://127.0.0.1:${values['http-port']}`,
-    );
+    console.log(`smtp-fake listening on smtp://127.0.0.1:${values['smtp-port']}, inbox http://127.0.0.1:${values['http-port']}`);
   });
 });
 

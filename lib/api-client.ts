@@ -77,7 +77,8 @@ async function request<T>(method: 'GET' | SendMethod, url: string, body: unknown
     throw new ApiError(res.status, error.code ?? 'http-' + res.status, error.message ?? options.fallback ?? `The server answered ${res.status}.`, error.fields);
   }
   // A 200 that is not JSON is a captive portal or a proxy's page, not our answer.
-  if (!parsed) throw new ApiError(res.status, 'bad-response', options.fallback ?? 'The answer was not from Vineward. Try again when you have a steady connection.');
+  if (!parsed)
+    throw new ApiError(res.status, 'bad-response', options.fallback ?? 'The answer was not from Vineward. Try again when you have a steady connection.');
   return data as T;
 }
 

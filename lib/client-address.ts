@@ -15,7 +15,13 @@
 export function clientAddress(headers: Headers | Record<string, unknown> | undefined, hops = 0): string {
   const raw = headers instanceof Headers ? headers.get('x-forwarded-for') : headers?.['x-forwarded-for'];
   const values = Array.isArray(raw) ? raw.join(',') : raw;
-  const entries = typeof values === 'string' ? values.split(',').map((e) => e.trim()).filter(Boolean) : [];
+  const entries =
+    typeof values === 'string'
+      ? values
+          .split(',')
+          .map((e) => e.trim())
+          .filter(Boolean)
+      : [];
   return entries[Math.max(0, entries.length - Math.max(1, hops))] ?? 'unknown';
 }
 
@@ -26,6 +32,9 @@ export const FORWARDED_HEADERS = ['x-forwarded-for', 'x-forwarded-host', 'x-forw
 export function servedOverHttps(siteUrl: string | undefined, headers: Headers, hops: number): boolean {
   if (siteUrl?.startsWith('https://')) return true;
   if (hops < 1) return false;
-  const proto = (headers.get('x-forwarded-proto') ?? '').split(',').map((e) => e.trim().toLowerCase()).filter(Boolean);
+  const proto = (headers.get('x-forwarded-proto') ?? '')
+    .split(',')
+    .map((e) => e.trim().toLowerCase())
+    .filter(Boolean);
   return proto[Math.max(0, proto.length - hops)] === 'https';
 }

@@ -19,7 +19,13 @@ function publicEntries() {
     for (const name of readdirSync(path.join(dir, rel))) {
       const file = path.join(rel, name);
       if (statSync(path.join(dir, file)).isDirectory()) walk(file);
-      else out.push({ url: `/${file.split(path.sep).join('/')}`, revision: createHash('md5').update(readFileSync(path.join(dir, file))).digest('hex') });
+      else
+        out.push({
+          url: `/${file.split(path.sep).join('/')}`,
+          revision: createHash('md5')
+            .update(readFileSync(path.join(dir, file)))
+            .digest('hex'),
+        });
     }
   };
   walk('');

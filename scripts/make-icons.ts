@@ -27,6 +27,9 @@ const icons: [string, number, number, boolean][] = [
 
 Promise.all(
   icons.map(([name, size, inset, rounded]) =>
-    sharp(Buffer.from(mark(inset, rounded)), { density: (72 * size) / 48 }).resize(size, size).png().toFile(path.join(out, name)),
+    sharp(Buffer.from(mark(inset, rounded)), { density: (72 * size) / 48 })
+      .resize(size, size)
+      .png()
+      .toFile(path.join(out, name)),
   ),
 ).then(() => console.log(`Icons written to ${out}`));

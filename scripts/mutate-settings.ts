@@ -16,7 +16,8 @@ function leaves(): { leaf: string; step: number }[] {
     for (const [key, value] of Object.entries(values as Record<string, unknown>)) {
       const step = SETTINGS_META[`${group}.${key}` as SettingKey].step;
       if (typeof value === 'number') out.push({ leaf: `${group}.${key}`, step });
-      else for (const [sub, v] of Object.entries(value as Record<string, unknown>)) if (typeof v === 'number') out.push({ leaf: `${group}.${key}.${sub}`, step });
+      else
+        for (const [sub, v] of Object.entries(value as Record<string, unknown>)) if (typeof v === 'number') out.push({ leaf: `${group}.${key}.${sub}`, step });
     }
   }
   return out;

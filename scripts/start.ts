@@ -45,10 +45,14 @@ async function main() {
     const seconds = ((Date.now() - started) / 1000).toFixed(1);
     console.log(`
   Vineward is running at ${env.NEXTAUTH_URL}   (ready in ${seconds} s)
-${env.VINEWARD_DEMO === '1' ? `
+${
+  env.VINEWARD_DEMO === '1'
+    ? `
   Demo accounts (password: ${DEMO_PASSWORD}):
 ${DEMO_USERS.map((u) => `    ${u.role.padEnd(8)} ${u.email}`).join('\n')}
-` : ''}${env.SMTP_INBOX_URL ? `  Mail sent by the app (sign-in links, invitations): ${env.SMTP_INBOX_URL}\n` : ''}
+`
+    : ''
+}${env.SMTP_INBOX_URL ? `  Mail sent by the app (sign-in links, invitations): ${env.SMTP_INBOX_URL}\n` : ''}
   Press Ctrl-C to stop.
 `);
   } catch (err) {

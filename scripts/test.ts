@@ -3,7 +3,7 @@
  * the S3 fake and the SMTP fake on loopback, the built app on :3100, vitest (unit and
  * integration) and Playwright in Debian's Chromium. Never touches the demo's data.
  *
- *   --quick       skip type-check and lint
+ *   --quick       skip type-check, lint and the format check
  *   --only=unit|integration|e2e   run one suite
  *   extra arguments after `--` go to the test runner(s) as filters
  */
@@ -38,6 +38,7 @@ async function main() {
   if (!quick) {
     if (!step('Type-check', process.execPath, ['node_modules/typescript/bin/tsc', '--noEmit'])) failures.push('type-check');
     if (!step('Lint', process.execPath, ['node_modules/eslint/bin/eslint.js', '--max-warnings=0', '.'])) failures.push('lint');
+    if (!step('Format (Prettier)', process.execPath, ['node_modules/prettier/bin/prettier.cjs', '--check', '--log-level=warn', '.'])) failures.push('format');
   }
 
   const profile = PROFILES.test;
@@ -78,10 +79,12 @@ async function main() {
       if (!step('Unit tests (vitest)', vitest[0]!, [...vitest.slice(1), '--project', 'unit', '--coverage.enabled', ...filters], env)) failures.push('unit');
     }
     if (!only || only === 'integration') {
-      if (!step('Integration tests (vitest, real services)', vitest[0]!, [...vitest.slice(1), '--project', 'integration', ...filters], env)) failures.push('integration');
+      if (!step('Integration tests (vitest, real services)', vitest[0]!, [...vitest.slice(1), '--project', 'integration', ...filters], env))
+        failures.push('integration');
     }
     if (!only || only === 'e2e') {
-      if (!step('Browser tests (Playwright, Chromium)', process.execPath, ['node_modules/@playwright/test/cli.js', 'test', ...filters], env)) failures.push('e2e');
+      if (!step('Browser tests (Playwright, Chromium)', process.execPath, ['node_modules/@playwright/test/cli.js', 'test', ...filters], env))
+        failures.push('e2e');
     }
   } finally {
     if (next) await stopChild(next);

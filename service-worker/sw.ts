@@ -43,10 +43,7 @@ registerRoute(
   new NetworkFirst({ cacheName: CACHES.layout, networkTimeoutSeconds: 5, plugins: [new ExpirationPlugin({ maxEntries: 400 })] }),
 );
 
-registerRoute(
-  ({ url }) => url.origin === self.location.origin && url.pathname.startsWith('/icons/'),
-  new CacheFirst({ cacheName: CACHES.icons }),
-);
+registerRoute(({ url }) => url.origin === self.location.origin && url.pathname.startsWith('/icons/'), new CacheFirst({ cacheName: CACHES.icons }));
 
 setCatchHandler(async ({ request }) => {
   if (request.mode === 'navigate') return (await matchPrecache(OFFLINE_PAGE)) ?? Response.error();

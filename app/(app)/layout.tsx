@@ -21,12 +21,7 @@ export default async function AppLayout({ children }: { children: ReactNode }) {
       : undefined;
   return (
     <div className={places ? 'with-places' : undefined}>
-      <AppHeader
-        role={member.role}
-        name={member.name ?? member.email}
-        organisationId={member.organisationId}
-        memberships={member.memberships}
-      />
+      <AppHeader role={member.role} name={member.name ?? member.email} organisationId={member.organisationId} memberships={member.memberships} />
       <main className="mx-auto max-w-6xl px-3 py-3 sm:px-4 sm:py-6">{children}</main>
       {places && <PlacesBar places={places} />}
     </div>

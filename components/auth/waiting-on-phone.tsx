@@ -15,8 +15,8 @@ export function WaitingOnPhone() {
   return (
     <div data-testid="waiting-on-phone" className="mb-4">
       <Notice tone="warn">
-        {text} saved on this phone {one ? 'is' : 'are'} waiting to be sent. {one ? 'It goes' : 'They go'} out when the person
-        who saved {one ? 'it' : 'them'} signs in here again.
+        {text} saved on this phone {one ? 'is' : 'are'} waiting to be sent. {one ? 'It goes' : 'They go'} out when the person who saved {one ? 'it' : 'them'}{' '}
+        signs in here again.
       </Notice>
     </div>
   );

@@ -65,7 +65,11 @@ export function BlockDetail({ blockId, units, canManage }: { blockId: string; un
               </ButtonLink>
             </>
           )}
-          <a href={`/api/blocks/${b.id}/layout.csv`} download className="inline-flex min-h-touch items-center rounded-lg border-2 border-rootstock bg-panel px-5 font-bold text-rootstock no-underline hover:bg-rootstock-tint">
+          <a
+            href={`/api/blocks/${b.id}/layout.csv`}
+            download
+            className="inline-flex min-h-touch items-center rounded-lg border-2 border-rootstock bg-panel px-5 font-bold text-rootstock no-underline hover:bg-rootstock-tint"
+          >
             Export layout CSV
           </a>
           {canManage && (
@@ -117,11 +121,21 @@ export function BlockDetail({ blockId, units, canManage }: { blockId: string; un
           <table className="w-full border-collapse text-left">
             <thead className="sticky top-0 bg-panel">
               <tr className="border-b-2 border-line">
-                <th scope="col" className="px-3 py-2">Row</th>
-                <th scope="col" className="px-3 text-right">Vines</th>
-                <th scope="col" className="px-3 text-right">Missing</th>
-                <th scope="col" className="px-3 text-right">Dead</th>
-                <th scope="col" className="px-3 text-right">Replants</th>
+                <th scope="col" className="px-3 py-2">
+                  Row
+                </th>
+                <th scope="col" className="px-3 text-right">
+                  Vines
+                </th>
+                <th scope="col" className="px-3 text-right">
+                  Missing
+                </th>
+                <th scope="col" className="px-3 text-right">
+                  Dead
+                </th>
+                <th scope="col" className="px-3 text-right">
+                  Replants
+                </th>
               </tr>
             </thead>
             <tbody>

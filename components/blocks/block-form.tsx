@@ -58,9 +58,7 @@ export function BlockForm({ units, block }: { units: UnitSystem; block?: BlockVi
   const { errors } = form.formState;
   const save = useMutation({
     mutationFn: (input: BlockInput) =>
-      block
-        ? apiSend<{ block: BlockView }>('PATCH', `/api/blocks/${block.id}`, input)
-        : apiSend<{ block: BlockView }>('POST', '/api/blocks', input),
+      block ? apiSend<{ block: BlockView }>('PATCH', `/api/blocks/${block.id}`, input) : apiSend<{ block: BlockView }>('POST', '/api/blocks', input),
     onSuccess: async ({ block: saved }) => {
       await queryClient.invalidateQueries({ queryKey: ['blocks'] });
       await queryClient.invalidateQueries({ queryKey: ['block', saved.id] });
@@ -161,7 +159,12 @@ export function BlockForm({ units, block }: { units: UnitSystem; block?: BlockVi
         >
           <Input id="vinesPerRow" type="number" inputMode="numeric" min={1} {...form.register('vinesPerRow', requiredNumber)} />
         </Field>
-        <Field id="vinesPerPanel" label="Vines per panel (optional)" error={err('vinesPerPanel')} hint="Vines between two line posts, so an address also reads “row 14, post 6, vine 3”.">
+        <Field
+          id="vinesPerPanel"
+          label="Vines per panel (optional)"
+          error={err('vinesPerPanel')}
+          hint="Vines between two line posts, so an address also reads “row 14, post 6, vine 3”."
+        >
           <Input id="vinesPerPanel" type="number" inputMode="numeric" min={1} {...form.register('vinesPerPanel', optionalNumber)} />
         </Field>
         <Field id="firstRow" label="Number of the first row" error={err('firstRow')}>
@@ -173,16 +176,32 @@ export function BlockForm({ units, block }: { units: UnitSystem; block?: BlockVi
             <option value="descending">First row at the bottom</option>
           </Select>
         </Field>
-        <Field id="positionOrigin" label="Where vine 1 stands (optional)" error={err('positionOrigin')} hint="The agreed row end every count starts from, e.g. “Vine 1 at the track end”.">
+        <Field
+          id="positionOrigin"
+          label="Where vine 1 stands (optional)"
+          error={err('positionOrigin')}
+          hint="The agreed row end every count starts from, e.g. “Vine 1 at the track end”."
+        >
           <Input id="positionOrigin" autoComplete="off" {...form.register('positionOrigin')} />
         </Field>
-        <Field id="rowBearingDeg" label="Row bearing in degrees (optional)" error={err('rowBearingDeg')} hint="0 for rows running north–south, 90 for east–west.">
+        <Field
+          id="rowBearingDeg"
+          label="Row bearing in degrees (optional)"
+          error={err('rowBearingDeg')}
+          hint="0 for rows running north–south, 90 for east–west."
+        >
           <Input id="rowBearingDeg" type="number" inputMode="numeric" min={0} max={359} {...form.register('rowBearingDeg', optionalNumber)} />
         </Field>
       </fieldset>
 
       <Field id="notes" label="Notes (optional)" error={err('notes')}>
-        <textarea id="notes" rows={3} disabled={!hydrated} className="rounded-lg border-2 border-line bg-panel p-3 text-base focus:border-rootstock" {...form.register('notes')} />
+        <textarea
+          id="notes"
+          rows={3}
+          disabled={!hydrated}
+          className="rounded-lg border-2 border-line bg-panel p-3 text-base focus:border-rootstock"
+          {...form.register('notes')}
+        />
       </Field>
 
       {Number.isFinite(slots) && slots > 0 && (

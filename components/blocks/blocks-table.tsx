@@ -96,7 +96,14 @@ export function BlocksTable({ units }: { units: UnitSystem }) {
         <Field id="block-search" label="Find a block">
           <Input id="block-search" type="search" value={query} onChange={(e) => setQuery(e.target.value)} placeholder="Name, variety, clone…" />
         </Field>
-        <FilterSelect id="block-training" label="Training" value={training} onChange={setTraining} any="All" options={TRAINING_SYSTEMS.map((t) => [t, TRAINING_LABEL[t]] as const)} />
+        <FilterSelect
+          id="block-training"
+          label="Training"
+          value={training}
+          onChange={setTraining}
+          any="All"
+          options={TRAINING_SYSTEMS.map((t) => [t, TRAINING_LABEL[t]] as const)}
+        />
         <label className="flex min-h-touch items-center gap-2 font-bold">
           <input type="checkbox" className="size-6" checked={archived} onChange={(e) => setArchived(e.target.checked)} />
           Show archived
@@ -117,7 +124,11 @@ export function BlocksTable({ units }: { units: UnitSystem }) {
                     return (
                       <td
                         key={cell.id}
-                        className={cn('px-3 py-2 whitespace-nowrap', numeric && 'text-right tabular-nums', cell.column.id === 'name' && 'sticky left-0 bg-panel')}
+                        className={cn(
+                          'px-3 py-2 whitespace-nowrap',
+                          numeric && 'text-right tabular-nums',
+                          cell.column.id === 'name' && 'sticky left-0 bg-panel',
+                        )}
                       >
                         {flexRender(cell.column.columnDef.cell, cell.getContext())}
                       </td>
@@ -127,11 +138,7 @@ export function BlocksTable({ units }: { units: UnitSystem }) {
               ))}
             </tbody>
           </table>
-          {rows.length === 0 && (
-            <p className="p-4 text-bark-soft">
-              {list.data?.blocks.length ? 'No block matches these filters.' : 'No blocks yet.'}
-            </p>
-          )}
+          {rows.length === 0 && <p className="p-4 text-bark-soft">{list.data?.blocks.length ? 'No block matches these filters.' : 'No blocks yet.'}</p>}
         </div>
       )}
     </div>

@@ -43,7 +43,11 @@ function Summary({ summary }: { summary: LayoutSummary }) {
           {rows.removed.length > 0 && <li>Rows removed: {ranges(rows.removed)}</li>}
           {rows.resized.length > 0 && (
             <li>
-              Rows resized: {rows.resized.slice(0, 8).map((r) => `row ${r.row} ${r.from} → ${r.to}`).join(', ')}
+              Rows resized:{' '}
+              {rows.resized
+                .slice(0, 8)
+                .map((r) => `row ${r.row} ${r.from} → ${r.to}`)
+                .join(', ')}
               {rows.resized.length > 8 ? ` and ${rows.resized.length - 8} more` : ''}
             </li>
           )}
@@ -59,7 +63,10 @@ function Summary({ summary }: { summary: LayoutSummary }) {
       )}
       <p>
         After {summary.applied ? 'the import' : 'importing'}: {formatCount(slots.after)} slots —{' '}
-        {(Object.keys(STATUS_LABEL) as (keyof typeof STATUS_LABEL)[]).map((s) => `${formatCount(summary.after[s])} ${STATUS_LABEL[s].toLowerCase()}`).join(', ')}.
+        {(Object.keys(STATUS_LABEL) as (keyof typeof STATUS_LABEL)[])
+          .map((s) => `${formatCount(summary.after[s])} ${STATUS_LABEL[s].toLowerCase()}`)
+          .join(', ')}
+        .
       </p>
     </div>
   );
@@ -118,12 +125,12 @@ export function LayoutImport({ blockId, blockName, firstRow }: { blockId: string
             <strong>vines</strong>: how many planting slots the row has. Slots past the new count are removed; new ones are planted.
           </li>
           <li>
-            <strong>statuses</strong> (optional, the column may be left out): one letter per vine from vine 1 — <strong>P</strong> planted,{' '}
-            <strong>M</strong> missing, <strong>D</strong> dead, <strong>R</strong> replant (a new replant takes this year). Left empty, the row keeps its statuses.
+            <strong>statuses</strong> (optional, the column may be left out): one letter per vine from vine 1 — <strong>P</strong> planted, <strong>M</strong>{' '}
+            missing, <strong>D</strong> dead, <strong>R</strong> replant (a new replant takes this year). Left empty, the row keeps its statuses.
           </li>
           <li>
-            At most {LAYOUT_LIMITS.maxCsvBytes / 1024 / 1024} MB, {formatCount(LAYOUT_LIMITS.maxRows)} rows and {formatCount(LAYOUT_LIMITS.maxVinesPerRow)} vines per row.
-            Slots with observations are never removed. The block’s own export uses this format.
+            At most {LAYOUT_LIMITS.maxCsvBytes / 1024 / 1024} MB, {formatCount(LAYOUT_LIMITS.maxRows)} rows and {formatCount(LAYOUT_LIMITS.maxVinesPerRow)}{' '}
+            vines per row. Slots with observations are never removed. The block’s own export uses this format.
           </li>
         </ul>
       </section>

@@ -26,7 +26,19 @@ interface SlotDetail {
 const ACTION_LABEL: Record<SlotStatus, string> = { planted: 'Planted', missing: 'Missing', dead: 'Dead', replant: 'Replant' };
 
 /** The slots of one row, grouped by panel, with the slot editor for managers. */
-export function RowSlots({ block, row, vineCount, canManage, onClose }: { block: BlockView; row: number; vineCount: number; canManage: boolean; onClose: () => void }) {
+export function RowSlots({
+  block,
+  row,
+  vineCount,
+  canManage,
+  onClose,
+}: {
+  block: BlockView;
+  row: number;
+  vineCount: number;
+  canManage: boolean;
+  onClose: () => void;
+}) {
   const [selected, setSelected] = useState<number | null>(null);
   const slots = useQuery({
     queryKey: ['block', block.id, 'row', row],
@@ -114,7 +126,19 @@ function RowLength({ blockId, row, vineCount }: { blockId: string; row: number; 
   );
 }
 
-function SlotEditor({ block, row, position, canManage, onClose }: { block: BlockView; row: number; position: number; canManage: boolean; onClose: () => void }) {
+function SlotEditor({
+  block,
+  row,
+  position,
+  canManage,
+  onClose,
+}: {
+  block: BlockView;
+  row: number;
+  position: number;
+  canManage: boolean;
+  onClose: () => void;
+}) {
   const queryClient = useQueryClient();
   const url = `/api/blocks/${block.id}/positions/${row}/${position}`;
   const detail = useQuery({ queryKey: ['block', block.id, 'slot', row, position], queryFn: () => apiGet<SlotDetail>(url) });

@@ -28,7 +28,10 @@ const postComment = (input: { subject: CommentSubject; subjectId: string; body: 
 export function CommentThread({ subject, subjectId, label = 'Comments' }: { subject: CommentSubject; subjectId: string; label?: string }) {
   const queryClient = useQueryClient();
   const key = ['comments', subject, subjectId];
-  const thread = useQuery({ queryKey: key, queryFn: ({ signal }) => apiGet<{ comments: Comment[] }>(`/api/comments?subject=${subject}&id=${subjectId}`, { signal }) });
+  const thread = useQuery({
+    queryKey: key,
+    queryFn: ({ signal }) => apiGet<{ comments: Comment[] }>(`/api/comments?subject=${subject}&id=${subjectId}`, { signal }),
+  });
   const crew = useCrew();
   const [body, setBody] = useState('');
   const box = useRef<HTMLTextAreaElement>(null);
@@ -110,7 +113,9 @@ export function CommentThread({ subject, subjectId, label = 'Comments' }: { subj
         </div>
         {send.isError && (
           <Notice tone="error">
-            {error ? `${error.message}${error.fields?.body ? ` ${error.fields.body.join(' ')}` : ''}` : 'No connection to Vineward. Your comment is still here; try again.'}
+            {error
+              ? `${error.message}${error.fields?.body ? ` ${error.fields.body.join(' ')}` : ''}`
+              : 'No connection to Vineward. Your comment is still here; try again.'}
           </Notice>
         )}
       </form>

@@ -41,7 +41,17 @@ export function MarkSeenButton() {
   const { router, pending, problem, run } = useAction();
   return (
     <div>
-      <Button type="button" variant="secondary" disabled={pending} onClick={() => run(() => send('/api/desk/seen', 'POST'), () => router.refresh())}>
+      <Button
+        type="button"
+        variant="secondary"
+        disabled={pending}
+        onClick={() =>
+          run(
+            () => send('/api/desk/seen', 'POST'),
+            () => router.refresh(),
+          )
+        }
+      >
         Mark all as seen
       </Button>
       <Problem text={problem} />

@@ -18,7 +18,13 @@ function daysLate(dueOn: string, now: Date) {
 
 function Reentry({ sprays }: { sprays: Desk['reentry'] }) {
   return (
-    <DeskSection id="reentry" title="Blocks under a re-entry interval now" count={new Set(sprays.map((s) => s.blockId)).size} unit="blocks" tone={sprays.length ? 'alarm' : 'plain'}>
+    <DeskSection
+      id="reentry"
+      title="Blocks under a re-entry interval now"
+      count={new Set(sprays.map((s) => s.blockId)).size}
+      unit="blocks"
+      tone={sprays.length ? 'alarm' : 'plain'}
+    >
       {sprays.length === 0 ? (
         <p>No re-entry interval is in force.</p>
       ) : (
@@ -75,13 +81,22 @@ function Findings({ findings, canMarkSeen }: { findings: DeskFindings; canMarkSe
                 <Link href={`/grid/${b.blockId}`} className={link}>
                   {b.blockName}
                 </Link>
-                : {[b.actNow && `${b.actNow} act now`, b.actThisSeason && `${b.actThisSeason} act this season`, b.watch && `${b.watch} watch`].filter(Boolean).join(', ')}
+                :{' '}
+                {[b.actNow && `${b.actNow} act now`, b.actThisSeason && `${b.actThisSeason} act this season`, b.watch && `${b.watch} watch`]
+                  .filter(Boolean)
+                  .join(', ')}
               </p>
               <ul className="mt-1 flex flex-col gap-1">
                 {b.vines.map((v) => (
                   <li key={`${v.row}:${v.position}`}>
                     <Link href={`/grid/${b.blockId}?row=${v.row}&position=${v.position}`} className="inline-flex min-h-touch items-center gap-2 underline">
-                      <span className={v.severity === 3 ? 'shrink-0 whitespace-nowrap rounded bg-alarm px-2 font-bold text-white' : 'shrink-0 whitespace-nowrap rounded border-2 border-bark-faint px-2 font-bold'}>
+                      <span
+                        className={
+                          v.severity === 3
+                            ? 'shrink-0 whitespace-nowrap rounded bg-alarm px-2 font-bold text-white'
+                            : 'shrink-0 whitespace-nowrap rounded border-2 border-bark-faint px-2 font-bold'
+                        }
+                      >
                         {SEVERITY_LABELS[v.severity]}
                       </span>
                       {vineAddress(v.row, v.position, b.vinesPerPanel)}: {kindLabel(v.kind)}
@@ -123,7 +138,13 @@ function Flags({ blocks }: { blocks: NonNullable<Desk['untaskedFlags']> }) {
 
 function Overdue({ tasks, now }: { tasks: NonNullable<Desk['overdueTasks']>; now: Date }) {
   return (
-    <DeskSection id="overdue" title="Overdue tasks" count={tasks.length} unit={tasks.length === 1 ? 'task' : 'tasks'} tone={tasks.length ? 'attention' : 'plain'}>
+    <DeskSection
+      id="overdue"
+      title="Overdue tasks"
+      count={tasks.length}
+      unit={tasks.length === 1 ? 'task' : 'tasks'}
+      tone={tasks.length ? 'attention' : 'plain'}
+    >
       {tasks.length === 0 ? (
         <p>No task is past its due date.</p>
       ) : (
@@ -134,8 +155,8 @@ function Overdue({ tasks, now }: { tasks: NonNullable<Desk['overdueTasks']>; now
                 {t.title}
               </Link>
               <span className="block">
-                {t.blockName}, {t.assigneeName ?? 'no one'}: due {formatDay(t.dueOn)}, {plural(daysLate(t.dueOn, now), 'day', 'days')} late; {formatCount(t.vinesDone)} of{' '}
-                {plural(t.vines, 'vine', 'vines')} done
+                {t.blockName}, {t.assigneeName ?? 'no one'}: due {formatDay(t.dueOn)}, {plural(daysLate(t.dueOn, now), 'day', 'days')} late;{' '}
+                {formatCount(t.vinesDone)} of {plural(t.vines, 'vine', 'vines')} done
               </span>
             </li>
           ))}
@@ -173,7 +194,13 @@ function Coverage({ blocks, season, seasonLabel }: { blocks: DeskCoverage[]; sea
 
 function Mail({ mail }: { mail: NonNullable<Desk['undeliveredMail']> }) {
   return (
-    <DeskSection id="mail" title="Mail that may not have arrived" count={mail.count} unit={mail.more ? 'or more' : mail.count === 1 ? 'mail' : 'mails'} tone={mail.count ? 'attention' : 'plain'}>
+    <DeskSection
+      id="mail"
+      title="Mail that may not have arrived"
+      count={mail.count}
+      unit={mail.more ? 'or more' : mail.count === 1 ? 'mail' : 'mails'}
+      tone={mail.count ? 'attention' : 'plain'}
+    >
       {mail.count === 0 ? (
         <p>Every mail was delivered.</p>
       ) : (
@@ -199,7 +226,9 @@ function AdvisorOrganisations({ organisations }: { organisations: NonNullable<De
               {o.actNow ? `, ${formatCount(o.actNow)} act now` : ''}
               {o.blocks ? ` in ${plural(o.blocks, 'block', 'blocks')}` : ''}
             </p>
-            <p className="text-bark-soft">{o.lastCommentAt ? `Since your last comment, ${formatMoment(o.lastCommentAt)}` : `This season; you have not commented here yet`}</p>
+            <p className="text-bark-soft">
+              {o.lastCommentAt ? `Since your last comment, ${formatMoment(o.lastCommentAt)}` : `This season; you have not commented here yet`}
+            </p>
             <div className="mt-2">
               {o.current ? (
                 <Link href="#findings" className={link}>

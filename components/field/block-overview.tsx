@@ -28,7 +28,10 @@ export function BlockOverview({ blockId, owner, recordsWork = false }: { blockId
           <ul className="flex flex-col gap-2">
             {data.plans.map((p) => (
               <li key={p.id}>
-                <a href={walk(`plan=${p.id}`)} className="flex min-h-touch items-center justify-between rounded-xl border-2 border-rootstock bg-panel px-4 font-bold no-underline">
+                <a
+                  href={walk(`plan=${p.id}`)}
+                  className="flex min-h-touch items-center justify-between rounded-xl border-2 border-rootstock bg-panel px-4 font-bold no-underline"
+                >
                   <span>{t('walkPlan', { name: p.name })}</span>
                   <span className="text-bark-soft">{t('planVines', { count: p.addresses.length })}</span>
                 </a>

@@ -30,7 +30,10 @@ export function FieldBlockList({ initial }: { initial?: BlockSummary[] }) {
       {data.map((b) => (
         <li key={b.id}>
           {/* A plain link: a full page load works offline from the service worker's copy. */}
-          <a href={`/field/blocks/${b.id}`} className="flex min-h-16 flex-col justify-center rounded-xl border-2 border-line bg-panel px-4 py-2 no-underline hover:border-rootstock">
+          <a
+            href={`/field/blocks/${b.id}`}
+            className="flex min-h-16 flex-col justify-center rounded-xl border-2 border-line bg-panel px-4 py-2 no-underline hover:border-rootstock"
+          >
             <span className="text-lg font-extrabold">{b.name}</span>
             <span className="text-bark-soft">{t('blockSummary', { variety: b.variety, rows: b.rowCount, vines: b.vineCount })}</span>
           </a>

@@ -21,10 +21,11 @@ export function LanguageSwitch({ saved }: { saved: Locale }) {
 
   // A new phone has no cookie yet: bring it in line with the account once.
   useEffect(() => {
-    if (saved !== current) start(async () => {
-      await saveLocale(saved);
-      router.refresh();
-    });
+    if (saved !== current)
+      start(async () => {
+        await saveLocale(saved);
+        router.refresh();
+      });
   }, [saved, current, router]);
 
   return (

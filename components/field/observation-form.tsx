@@ -99,13 +99,28 @@ export function ObservationForm({
       <Fields form={form} errors={errors} imperial={imperial} />
 
       <Field id="f-note" label={t('form.note')} error={errors.note}>
-        <textarea id="f-note" value={note} onChange={(e) => setNote(e.target.value)} rows={2} maxLength={2000} className="rounded-lg border-2 border-line bg-panel p-2" />
+        <textarea
+          id="f-note"
+          value={note}
+          onChange={(e) => setNote(e.target.value)}
+          rows={2}
+          maxLength={2000}
+          className="rounded-lg border-2 border-line bg-panel p-2"
+        />
       </Field>
 
       <div className="flex flex-col gap-2">
         <label className="flex min-h-touch cursor-pointer items-center justify-center rounded-lg border-2 border-dashed border-rootstock font-bold text-rootstock">
           📷 {t('form.takePhoto')}
-          <input type="file" accept="image/*" capture="environment" multiple className="sr-only" data-testid="photo-input" onChange={(e) => void addPhotos(e.target.files)} />
+          <input
+            type="file"
+            accept="image/*"
+            capture="environment"
+            multiple
+            className="sr-only"
+            data-testid="photo-input"
+            onChange={(e) => void addPhotos(e.target.files)}
+          />
         </label>
         <p className="text-sm text-bark-soft" data-testid="photo-count">
           {t('form.photoCount', { count: photos.length })}
@@ -134,7 +149,13 @@ export function ObservationForm({
         <Button type="button" variant="quiet" className="flex-none px-2" onClick={onCancel}>
           {t('form.cancel')}
         </Button>
-        <Button type="button" variant={allowNext ? 'secondary' : 'primary'} className="min-h-14 flex-1 px-2 leading-tight" disabled={saving} onClick={() => void submit(false)}>
+        <Button
+          type="button"
+          variant={allowNext ? 'secondary' : 'primary'}
+          className="min-h-14 flex-1 px-2 leading-tight"
+          disabled={saving}
+          onClick={() => void submit(false)}
+        >
           {t('form.save')}
         </Button>
         {allowNext && (

@@ -9,9 +9,7 @@ export function ReiWarning({ sprays }: { sprays: FieldLayout['sprays'] }) {
   const format = useFormatter();
   const now = useNow({ updateInterval: 60_000 });
   const when = (iso: string) => format.dateTime(new Date(iso), { weekday: 'short', day: 'numeric', month: 'short', hour: '2-digit', minute: '2-digit' });
-  const active = sprays
-    .filter((s) => new Date(s.reentryAt).getTime() > now.getTime())
-    .sort((a, b) => Date.parse(b.reentryAt) - Date.parse(a.reentryAt))[0];
+  const active = sprays.filter((s) => new Date(s.reentryAt).getTime() > now.getTime()).sort((a, b) => Date.parse(b.reentryAt) - Date.parse(a.reentryAt))[0];
   if (active) {
     return (
       <div role="alert" data-testid="rei-warning" className="rounded-xl border-4 border-alarm bg-alarm-tint p-4">

@@ -81,7 +81,10 @@ export function RowWorkForm({ owner, blockId, row, vineCount, pass: shown, onSav
     if (!(personHours > 0)) problems.personHours = t('hoursInvalid');
     const fromPosition = Number(from);
     const toPosition = Number(to);
-    if (part && !(Number.isInteger(fromPosition) && Number.isInteger(toPosition) && fromPosition >= 1 && toPosition >= fromPosition && toPosition <= vineCount)) {
+    if (
+      part &&
+      !(Number.isInteger(fromPosition) && Number.isInteger(toPosition) && fromPosition >= 1 && toPosition >= fromPosition && toPosition <= vineCount)
+    ) {
       problems.run = t('runInvalid', { max: vineCount });
     }
     setErrors(problems);
@@ -153,7 +156,12 @@ export function RowWorkForm({ owner, blockId, row, vineCount, pass: shown, onSav
           <Input id="rw-finish" type="time" value={finish} onChange={(e) => setFinish(e.target.value)} className="text-xl" />
         </Field>
       </div>
-      <Field id="rw-hours" label={t('personHours')} error={errors.personHours} hint={computed !== undefined && !hoursEdited ? t('hoursFilled', { crew: crewSize }) : t('hoursHint')}>
+      <Field
+        id="rw-hours"
+        label={t('personHours')}
+        error={errors.personHours}
+        hint={computed !== undefined && !hoursEdited ? t('hoursFilled', { crew: crewSize }) : t('hoursHint')}
+      >
         <Input
           id="rw-hours"
           value={shownHours}

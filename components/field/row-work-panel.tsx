@@ -52,7 +52,12 @@ export function RowWorkPanel({ owner, blockId, rows }: { owner: string; blockId:
           ✓ {flash}
         </p>
       )}
-      <Choice<RowWorkPass> label={t('pass')} value={pass} options={ROW_WORK_PASSES.map((p) => ({ value: p, label: t(`passes.${p}`) }))} onChange={(p) => p && setPass(p)} />
+      <Choice<RowWorkPass>
+        label={t('pass')}
+        value={pass}
+        options={ROW_WORK_PASSES.map((p) => ({ value: p, label: t(`passes.${p}`) }))}
+        onChange={(p) => p && setPass(p)}
+      />
       <p className="font-bold" aria-live="polite">
         {t('rowsDoneCount', { done, total: rows.length })}
       </p>

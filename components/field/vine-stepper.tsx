@@ -156,8 +156,7 @@ export function VineStepper({
     queryKey: ['vine', blockId, at?.row, at?.position],
     enabled: !!at,
     networkMode: 'always',
-    queryFn: () =>
-      apiGet<FieldVineHistory>(`/api/field/blocks/${blockId}/vine?row=${at!.row}&position=${at!.position}`),
+    queryFn: () => apiGet<FieldVineHistory>(`/api/field/blocks/${blockId}/vine?row=${at!.row}&position=${at!.position}`),
   });
 
   if (taskId && myTasks.isFetched && !task) return <Notice tone="warn">{t('tasks.notFound')}</Notice>;
@@ -355,7 +354,11 @@ export function VineStepper({
       {!kind && !flagging && !markingRow && (
         <nav className="fixed inset-x-0 bottom-[var(--places-h,0px)] z-10 border-t-2 border-line bg-ground p-2" aria-label="Vines" data-sticky-bottom>
           <div className="mx-auto grid max-w-md grid-cols-2 gap-2">
-            <button type="button" onClick={() => step(-1)} className="min-h-16 rounded-xl border-2 border-rootstock bg-panel text-xl font-extrabold text-rootstock">
+            <button
+              type="button"
+              onClick={() => step(-1)}
+              className="min-h-16 rounded-xl border-2 border-rootstock bg-panel text-xl font-extrabold text-rootstock"
+            >
               ◀ {t('field.previous')}
             </button>
             <button type="button" onClick={() => step(1)} className="min-h-16 rounded-xl bg-rootstock text-xl font-extrabold text-white">
@@ -380,7 +383,8 @@ function VineHistory({ items }: { items?: { id: string; kind: ObservationKind; s
         <ul className="flex flex-col gap-1">
           {items.map((o) => (
             <li key={o.id} className={cn('rounded-lg border-l-8 bg-panel p-2', SEVERITY_STYLE[o.severity])}>
-              <span className="font-bold">{t(`kinds.${o.kind}`)}</span> · {format.dateTime(new Date(o.observedAt), { dateStyle: 'medium' })} · {t(`field.severity.${o.severity}`)}
+              <span className="font-bold">{t(`kinds.${o.kind}`)}</span> · {format.dateTime(new Date(o.observedAt), { dateStyle: 'medium' })} ·{' '}
+              {t(`field.severity.${o.severity}`)}
               {o.note && <p className="text-sm">{o.note}</p>}
             </li>
           ))}
@@ -389,4 +393,3 @@ function VineHistory({ items }: { items?: { id: string; kind: ObservationKind; s
     </section>
   );
 }
-

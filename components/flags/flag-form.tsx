@@ -76,7 +76,12 @@ export function FlagForm({ owner, blockId, row, position, lastPosition, onSaved,
       />
       <Field id="flag-to" label={t('run')} error={errors.toPosition} hint={t('runHint', { row, position })}>
         <div className="flex items-stretch gap-2">
-          <button type="button" aria-label="−1" onClick={() => step(-1)} className="min-h-touch min-w-16 rounded-lg border-2 border-rootstock text-2xl font-extrabold text-rootstock">
+          <button
+            type="button"
+            aria-label="−1"
+            onClick={() => step(-1)}
+            className="min-h-touch min-w-16 rounded-lg border-2 border-rootstock text-2xl font-extrabold text-rootstock"
+          >
             −
           </button>
           <input
@@ -87,13 +92,25 @@ export function FlagForm({ owner, blockId, row, position, lastPosition, onSaved,
             pattern="[0-9]*"
             className="min-h-touch w-full rounded-lg border-2 border-line bg-panel px-3 text-center text-xl font-bold"
           />
-          <button type="button" aria-label="+1" onClick={() => step(1)} className="min-h-touch min-w-16 rounded-lg border-2 border-rootstock text-2xl font-extrabold text-rootstock">
+          <button
+            type="button"
+            aria-label="+1"
+            onClick={() => step(1)}
+            className="min-h-touch min-w-16 rounded-lg border-2 border-rootstock text-2xl font-extrabold text-rootstock"
+          >
             +
           </button>
         </div>
       </Field>
       <Field id="flag-note" label={t('note')} error={errors.note}>
-        <textarea id="flag-note" value={note} onChange={(e) => setNote(e.target.value)} rows={2} maxLength={2000} className="rounded-lg border-2 border-line bg-panel p-2" />
+        <textarea
+          id="flag-note"
+          value={note}
+          onChange={(e) => setNote(e.target.value)}
+          rows={2}
+          maxLength={2000}
+          className="rounded-lg border-2 border-line bg-panel p-2"
+        />
       </Field>
       <div ref={barRef} data-sticky-bottom className={FORM_BAR}>
         <Button type="button" variant="quiet" className="flex-none px-2" onClick={onCancel}>

@@ -21,9 +21,8 @@ import { cn } from '@/lib/cn';
 import type { FlagList, FlagView } from '@/lib/contracts/flags';
 import type { CreatedTasks } from '@/lib/contracts/tasks';
 import { formatDay, vineAddress } from '@/lib/grid/labels';
-import { FLAG_REASONS, REASON_LABELS} from '@/lib/validation/flag';
+import { FLAG_REASONS, REASON_LABELS } from '@/lib/validation/flag';
 import { TASK_PRIORITIES, type TaskPriority } from '@/lib/validation/task';
-
 
 const where = (f: FlagView) =>
   f.toPosition > f.position ? `Row ${f.row}, vines ${f.position}–${f.toPosition}` : vineAddress(f.row, f.position, f.vinesPerPanel);
@@ -34,7 +33,15 @@ const inDays = (days: number) => new Date(Date.now() + days * 24 * 3600 * 1000).
  * The organisation's flags as a table. A manager ticks open flags that no task works yet and makes
  * them into tasks (one per block) for one person.
  */
-export function FlagsTable({ canManage, initialBlock = '', initialUntasked = false }: { canManage: boolean; initialBlock?: string; initialUntasked?: boolean }) {
+export function FlagsTable({
+  canManage,
+  initialBlock = '',
+  initialUntasked = false,
+}: {
+  canManage: boolean;
+  initialBlock?: string;
+  initialUntasked?: boolean;
+}) {
   const [status, setStatus] = useState<'open' | 'closed' | 'all'>('open');
   const [block, setBlock] = useState(initialBlock);
   const [reason, setReason] = useState('');
@@ -45,9 +52,15 @@ export function FlagsTable({ canManage, initialBlock = '', initialUntasked = fal
     queryKey: ['flags', status],
     queryFn: () => apiGet<FlagList>(`/api/flags?status=${status}`),
   });
-  const blocks = useMemo(() => [...new Map((list.data?.flags ?? []).map((f) => [f.blockId, f.blockName])).entries()].sort((a, b) => a[1].localeCompare(b[1])), [list.data]);
+  const blocks = useMemo(
+    () => [...new Map((list.data?.flags ?? []).map((f) => [f.blockId, f.blockName])).entries()].sort((a, b) => a[1].localeCompare(b[1])),
+    [list.data],
+  );
   const rows = useMemo(
-    () => (list.data?.flags ?? []).filter((f) => (!block || f.blockId === block) && (!reason || f.reason === reason) && (!untasked || !f.taskId || f.taskStatus !== 'open')),
+    () =>
+      (list.data?.flags ?? []).filter(
+        (f) => (!block || f.blockId === block) && (!reason || f.reason === reason) && (!untasked || !f.taskId || f.taskStatus !== 'open'),
+      ),
     [list.data, block, reason, untasked],
   );
   const selectable = (f: FlagView) => canManage && f.status === 'open' && (!f.taskId || f.taskStatus !== 'open');
@@ -126,7 +139,14 @@ export function FlagsTable({ canManage, initialBlock = '', initialUntasked = fal
           ]}
         />
         <FilterSelect id="flag-block" label="Block" value={block} onChange={setBlock} any="All blocks" options={blocks} />
-        <FilterSelect id="flag-reason" label="Needs" value={reason} onChange={setReason} any="Anything" options={FLAG_REASONS.map((r) => [r, REASON_LABELS[r]] as const)} />
+        <FilterSelect
+          id="flag-reason"
+          label="Needs"
+          value={reason}
+          onChange={setReason}
+          any="Anything"
+          options={FLAG_REASONS.map((r) => [r, REASON_LABELS[r]] as const)}
+        />
         <label className="flex min-h-touch items-center gap-2 font-bold">
           <input type="checkbox" className="size-6 accent-rootstock" checked={untasked} onChange={(e) => setUntasked(e.target.checked)} />
           Not in a task yet
@@ -226,7 +246,10 @@ function MakeTasks({ flags, onMade }: { flags: FlagView[]; onMade: () => void })
           <legend className="mb-1 font-bold">Priority</legend>
           <div className="flex gap-2">
             {TASK_PRIORITIES.map((p) => (
-              <label key={p} className="flex min-h-touch flex-1 cursor-pointer items-center justify-center gap-2 rounded-lg border-2 border-line px-3 font-bold capitalize has-checked:border-rootstock has-checked:bg-rootstock-tint">
+              <label
+                key={p}
+                className="flex min-h-touch flex-1 cursor-pointer items-center justify-center gap-2 rounded-lg border-2 border-line px-3 font-bold capitalize has-checked:border-rootstock has-checked:bg-rootstock-tint"
+              >
                 <input type="radio" name="priority" value={p} checked={priority === p} onChange={() => setPriority(p)} className="size-5 accent-rootstock" />
                 {p}
               </label>
@@ -238,7 +261,14 @@ function MakeTasks({ flags, onMade }: { flags: FlagView[]; onMade: () => void })
         </Field>
         <div className="sm:col-span-2">
           <Field id="task-note" label="Note for the crew (optional)" error={fields.note?.[0]}>
-            <textarea id="task-note" value={note} onChange={(e) => setNote(e.target.value)} rows={2} maxLength={2000} className="rounded-lg border-2 border-line bg-panel p-2" />
+            <textarea
+              id="task-note"
+              value={note}
+              onChange={(e) => setNote(e.target.value)}
+              rows={2}
+              maxLength={2000}
+              className="rounded-lg border-2 border-line bg-panel p-2"
+            />
           </Field>
         </div>
         <div className="flex flex-col gap-2 sm:col-span-2">

@@ -20,7 +20,8 @@ interface GridFiltersProps {
 
 const STATUS_LABELS = { open: 'Open', closed: 'Closed', all: 'All' } as const;
 
-const chip = 'flex min-h-touch cursor-pointer items-center gap-2 rounded-lg border-2 px-3 font-bold has-[:checked]:border-rootstock has-[:checked]:bg-rootstock-tint has-[:focus-visible]:outline-3 has-[:focus-visible]:outline-cut';
+const chip =
+  'flex min-h-touch cursor-pointer items-center gap-2 rounded-lg border-2 px-3 font-bold has-[:checked]:border-rootstock has-[:checked]:bg-rootstock-tint has-[:focus-visible]:outline-3 has-[:focus-visible]:outline-cut';
 
 export function activeFilterCount(f: Filters) {
   return (f.kind.length ? 1 : 0) + (f.from ? 1 : 0) + (f.to ? 1 : 0) + (f.by ? 1 : 0) + (f.status !== 'open' ? 1 : 0) + (f.flagged ? 1 : 0);
@@ -28,10 +29,7 @@ export function activeFilterCount(f: Filters) {
 
 /** "Trunk injury · open findings · from 1 Mar 2026 · by Teo": what the grid shows, in one line. */
 export function describeFilters(f: Filters, people: Person[]) {
-  const parts = [
-    f.kind.length ? f.kind.map(kindLabel).join(', ') : 'Every kind',
-    f.status === 'all' ? 'open and closed findings' : `${f.status} findings`,
-  ];
+  const parts = [f.kind.length ? f.kind.map(kindLabel).join(', ') : 'Every kind', f.status === 'all' ? 'open and closed findings' : `${f.status} findings`];
   if (f.from) parts.push(`from ${formatDay(f.from)}`);
   if (f.to) parts.push(`to ${formatDay(f.to)}`);
   if (f.by) parts.push(`by ${people.find((p) => p.id === f.by)?.name ?? 'one person'}`);
@@ -42,8 +40,7 @@ export function describeFilters(f: Filters, people: Person[]) {
 /** Every change applies at once and goes into the URL, so a filtered view can be shared. */
 export function GridFilters({ filters, people, onChange }: GridFiltersProps) {
   const set = (patch: Partial<Filters>) => onChange({ ...filters, ...patch });
-  const toggleKind = (kind: ObservationKind, on: boolean) =>
-    set({ kind: on ? [...filters.kind, kind].sort() : filters.kind.filter((k) => k !== kind) });
+  const toggleKind = (kind: ObservationKind, on: boolean) => set({ kind: on ? [...filters.kind, kind].sort() : filters.kind.filter((k) => k !== kind) });
   const count = activeFilterCount(filters);
   const badDates = Boolean(filters.from && filters.to && filters.from > filters.to);
 
@@ -83,13 +80,7 @@ export function GridFilters({ filters, people, onChange }: GridFiltersProps) {
             <div className="flex gap-2">
               {FINDING_STATUSES.map((status) => (
                 <label key={status} className={cn(chip, 'flex-1 justify-center border-line')}>
-                  <input
-                    type="radio"
-                    name="grid-status"
-                    className="sr-only"
-                    checked={filters.status === status}
-                    onChange={() => set({ status })}
-                  />
+                  <input type="radio" name="grid-status" className="sr-only" checked={filters.status === status} onChange={() => set({ status })} />
                   {STATUS_LABELS[status]}
                 </label>
               ))}

@@ -40,8 +40,8 @@ export function GridSummary({ summary, onGoToRow }: GridSummaryProps) {
         ))}
       </ul>
       <p className="text-sm text-bark-soft">
-        {formatCount(summary.vinesScouted)} vines scouted in this period · {summary.slots.missing} missing, {summary.slots.dead} dead,{' '}
-        {summary.slots.replant} replants in the block
+        {formatCount(summary.vinesScouted)} vines scouted in this period · {summary.slots.missing} missing, {summary.slots.dead} dead, {summary.slots.replant}{' '}
+        replants in the block
       </p>
 
       {summary.worstRows.length > 0 && (
@@ -77,7 +77,9 @@ export function GridSummary({ summary, onGoToRow }: GridSummaryProps) {
               <caption className="sr-only">Findings by kind: counts by severity and incidence among vines scouted</caption>
               <thead>
                 <tr className="border-b-2 border-line">
-                  <th scope="col" className="py-1 pr-2">Kind</th>
+                  <th scope="col" className="py-1 pr-2">
+                    Kind
+                  </th>
                   <th scope="col" className="px-1 text-right" title="Fine">
                     <span className="sr-only">Fine</span>
                     <span aria-hidden="true">0</span>
@@ -94,7 +96,9 @@ export function GridSummary({ summary, onGoToRow }: GridSummaryProps) {
                     <span className="sr-only">Act now</span>
                     <span aria-hidden="true">3</span>
                   </th>
-                  <th scope="col" className="pl-2 text-right">Incidence</th>
+                  <th scope="col" className="pl-2 text-right">
+                    Incidence
+                  </th>
                 </tr>
               </thead>
               <tbody>
@@ -127,9 +131,9 @@ export function GridSummary({ summary, onGoToRow }: GridSummaryProps) {
           </div>
         )}
         <p className="mt-2 text-xs text-bark-soft">
-          Columns 0–3 count findings by severity (fine, watch, act this season, act now). Incidence: vines with a finding of that kind at
-          watch or worse, out of the vines scouted in this period (missing or dead vines: out of every slot), with its 95% interval
-          (Wilson). Pruning records and checks are not findings and have no incidence.
+          Columns 0–3 count findings by severity (fine, watch, act this season, act now). Incidence: vines with a finding of that kind at watch or worse, out of
+          the vines scouted in this period (missing or dead vines: out of every slot), with its 95% interval (Wilson). Pruning records and checks are not
+          findings and have no incidence.
         </p>
       </div>
 
@@ -141,9 +145,15 @@ export function GridSummary({ summary, onGoToRow }: GridSummaryProps) {
               <caption className="sr-only">Pruning records, pruning checks and notes: how many, and how many vines were left off the bud target</caption>
               <thead>
                 <tr className="border-b-2 border-line">
-                  <th scope="col" className="py-1 pr-2">Record</th>
-                  <th scope="col" className="px-1 text-right">Records</th>
-                  <th scope="col" className="pl-2 text-right">Vines off target</th>
+                  <th scope="col" className="py-1 pr-2">
+                    Record
+                  </th>
+                  <th scope="col" className="px-1 text-right">
+                    Records
+                  </th>
+                  <th scope="col" className="pl-2 text-right">
+                    Vines off target
+                  </th>
                 </tr>
               </thead>
               <tbody>
@@ -159,7 +169,9 @@ export function GridSummary({ summary, onGoToRow }: GridSummaryProps) {
               </tbody>
             </table>
           </div>
-          <p className="mt-2 text-xs text-bark-soft">Off target: buds left more than the usual margin away from the vine&apos;s bud target (the season report gives buds kept against the target).</p>
+          <p className="mt-2 text-xs text-bark-soft">
+            Off target: buds left more than the usual margin away from the vine&apos;s bud target (the season report gives buds kept against the target).
+          </p>
         </div>
       )}
     </section>

@@ -148,7 +148,13 @@ export function GridView({ block, people }: GridViewProps) {
       <div className="grid gap-4 lg:grid-cols-[minmax(0,1fr)_24rem]">
         <section aria-label="Row grid" className="flex min-w-0 flex-col gap-3">
           <div className="flex flex-wrap items-center gap-2">
-            <Button type="button" variant="secondary" onClick={() => goToProblem(-1)} disabled={worstLevel < 1} aria-label="Previous vine with the worst finding">
+            <Button
+              type="button"
+              variant="secondary"
+              onClick={() => goToProblem(-1)}
+              disabled={worstLevel < 1}
+              aria-label="Previous vine with the worst finding"
+            >
               ←
             </Button>
             <Button type="button" onClick={() => goToProblem(1)} disabled={worstLevel < 1} data-testid="next-worst">
@@ -158,7 +164,13 @@ export function GridView({ block, people }: GridViewProps) {
               <Button type="button" variant="secondary" onClick={() => setSize((s) => Math.max(0, s - 1))} disabled={size === 0} aria-label="Smaller cells">
                 −
               </Button>
-              <Button type="button" variant="secondary" onClick={() => setSize((s) => Math.min(CELL_SIZES.length - 1, s + 1))} disabled={size === CELL_SIZES.length - 1} aria-label="Larger cells">
+              <Button
+                type="button"
+                variant="secondary"
+                onClick={() => setSize((s) => Math.min(CELL_SIZES.length - 1, s + 1))}
+                disabled={size === CELL_SIZES.length - 1}
+                aria-label="Larger cells"
+              >
                 +
               </Button>
             </div>

@@ -107,7 +107,10 @@ export function VinePanel({ blockId, row, position, onClose }: VinePanelProps) {
                 <dt className="font-bold">Planted</dt>
                 <dd>
                   {data.plantings
-                    .map((p) => `${p.plantingYear ?? '?'}${p.clone ? ` ${p.clone}` : ''}${p.rootstock ? ` on ${p.rootstock}` : ''}${p.removedYear ? ` (removed ${p.removedYear}${p.removalReason ? `: ${p.removalReason}` : ''})` : ''}`)
+                    .map(
+                      (p) =>
+                        `${p.plantingYear ?? '?'}${p.clone ? ` ${p.clone}` : ''}${p.rootstock ? ` on ${p.rootstock}` : ''}${p.removedYear ? ` (removed ${p.removedYear}${p.removalReason ? `: ${p.removalReason}` : ''})` : ''}`,
+                    )
                     .join('; ')}
                 </dd>
               </>
@@ -133,8 +136,7 @@ export function VinePanel({ blockId, row, position, onClose }: VinePanelProps) {
             {data.plan.plan ? (
               <div className="flex flex-col gap-1">
                 <p>
-                  Keep {data.plan.plan.keep.length} {data.vine.trainingSystem === 'spur' ? 'spurs' : 'canes'} of{' '}
-                  {data.plan.plan.budsPerCane.join(' + ')} buds
+                  Keep {data.plan.plan.keep.length} {data.vine.trainingSystem === 'spur' ? 'spurs' : 'canes'} of {data.plan.plan.budsPerCane.join(' + ')} buds
                   {data.plan.plan.renewalSpurs ? `, and ${data.plan.plan.renewalSpurs} renewal spurs of ${data.plan.plan.budsPerRenewalSpur} buds` : ''}:{' '}
                   <strong>{data.plan.plan.totalBuds} buds</strong>
                   {data.plan.plan.targetBuds !== null ? ` for a target of ${data.plan.plan.targetBuds}` : ''}.
@@ -145,9 +147,14 @@ export function VinePanel({ blockId, row, position, onClose }: VinePanelProps) {
                   {data.plan.plan.keep.map((i) => `#${i + 1} (${formatLengthMm(data.plan.canes[i]!.baseDiameterMm, data.units)})`).join(', ')}.
                 </p>
                 {data.plan.budLoad && (
-                  <p className={data.plan.budLoad.reading === 'over' ? 'font-bold text-alarm' : 'text-sm'} role={data.plan.budLoad.reading === 'over' ? 'alert' : undefined} data-testid="plan-bud-load">
-                    {data.plan.plan.targetBuds ?? data.plan.plan.totalBuds} buds is {formatNumber(data.plan.budLoad.budsPerFt, 1)} a foot of row; Ohio State&apos;s pruning primer gives 4–6 a foot,{' '}
-                    {data.plan.budLoad.rangePerVine.min}–{data.plan.budLoad.rangePerVine.max} a vine at this spacing
+                  <p
+                    className={data.plan.budLoad.reading === 'over' ? 'font-bold text-alarm' : 'text-sm'}
+                    role={data.plan.budLoad.reading === 'over' ? 'alert' : undefined}
+                    data-testid="plan-bud-load"
+                  >
+                    {data.plan.plan.targetBuds ?? data.plan.plan.totalBuds} buds is {formatNumber(data.plan.budLoad.budsPerFt, 1)} a foot of row; Ohio
+                    State&apos;s pruning primer gives 4–6 a foot, {data.plan.budLoad.rangePerVine.min}–{data.plan.budLoad.rangePerVine.max} a vine at this
+                    spacing
                     {data.plan.budLoad.reading === 'over' ? ': check the prunings’ weight before pruning to it.' : '.'}
                   </p>
                 )}
@@ -172,7 +179,10 @@ export function VinePanel({ blockId, row, position, onClose }: VinePanelProps) {
               <ul className="flex flex-col gap-1">
                 {data.flags.map((f) => (
                   <li key={f.id}>
-                    {f.text} <span className="text-sm text-bark-soft">{f.by} · {formatDay(f.at)}</span>
+                    {f.text}{' '}
+                    <span className="text-sm text-bark-soft">
+                      {f.by} · {formatDay(f.at)}
+                    </span>
                   </li>
                 ))}
               </ul>

@@ -30,7 +30,11 @@ export function OpenInvitations({ items }: { items: OpenInvitation[] }) {
       )}
       <ul className="flex flex-col gap-2">
         {items.map((i) => (
-          <li key={i.id} data-testid="open-invitation" className="flex flex-wrap items-center justify-between gap-2 rounded-xl border-2 border-line bg-panel p-3">
+          <li
+            key={i.id}
+            data-testid="open-invitation"
+            className="flex flex-wrap items-center justify-between gap-2 rounded-xl border-2 border-line bg-panel p-3"
+          >
             <span className="break-all">
               {i.email} as <strong>{i.role}</strong>, expires {i.expiresOn}
             </span>

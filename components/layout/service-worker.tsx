@@ -40,12 +40,20 @@ export function ServiceWorker({ labels }: { labels: { update: string; reload: st
   }, []);
   if (!waiting) return null;
   return (
-    <div role="alert" data-testid="sw-update" className="fixed inset-x-3 bottom-3 z-50 mx-auto flex max-w-md items-center gap-3 rounded-xl border-2 border-rootstock bg-panel p-3 shadow-lg">
+    <div
+      role="alert"
+      data-testid="sw-update"
+      className="fixed inset-x-3 bottom-3 z-50 mx-auto flex max-w-md items-center gap-3 rounded-xl border-2 border-rootstock bg-panel p-3 shadow-lg"
+    >
       <span className="font-bold">{labels.update}</span>
-      <button type="button" className="ml-auto min-h-touch rounded-lg bg-rootstock px-4 font-bold text-white" onClick={() => {
+      <button
+        type="button"
+        className="ml-auto min-h-touch rounded-lg bg-rootstock px-4 font-bold text-white"
+        onClick={() => {
           accepted.current = true;
           waiting.messageSkipWaiting();
-        }}>
+        }}
+      >
         {labels.reload}
       </button>
     </div>

@@ -73,9 +73,8 @@ export function SignOutButton() {
               Not everything is sent yet
             </h2>
             <p id="sign-out-waiting">
-              {said.text} {said.one ? 'is' : 'are'} still waiting to be sent. {said.one ? 'It stays' : 'They stay'} on this phone
-              and {said.one ? 'goes' : 'go'} out the next time the person who saved {said.one ? 'it' : 'them'} signs in here with a
-              connection.
+              {said.text} {said.one ? 'is' : 'are'} still waiting to be sent. {said.one ? 'It stays' : 'They stay'} on this phone and {said.one ? 'goes' : 'go'}{' '}
+              out the next time the person who saved {said.one ? 'it' : 'them'} signs in here with a connection.
             </p>
             {problem && <Notice tone="error">{problem}</Notice>}
             <div className="flex flex-col gap-2 sm:flex-row-reverse">

@@ -128,78 +128,102 @@ export function PhotoLog({ blocks, people }: PhotoLogProps) {
             ▾
           </span>
         </summary>
-      <form className="grid grid-cols-2 gap-3 border-t-2 border-line p-4 md:grid-cols-4" onSubmit={(e) => e.preventDefault()} aria-label="Filter photos">
-        <div className="flex flex-col gap-1">
-          <label htmlFor="ph-block" className="font-bold">Block</label>
-          <Select id="ph-block" value={filters.block ?? ''} onChange={(e) => set({ block: e.target.value || undefined })}>
-            <option value="">All blocks</option>
-            {blocks.map((b) => (
-              <option key={b.id} value={b.id}>{b.name}</option>
-            ))}
-          </Select>
-        </div>
-        <div className="flex flex-col gap-1">
-          <label htmlFor="ph-row" className="font-bold">Row</label>
-          <Input
-            id="ph-row"
-            type="number"
-            inputMode="numeric"
-            min={1}
-            max={chosenBlock?.rowCount}
-            disabled={!chosenBlock}
-            placeholder={chosenBlock ? 'Any' : 'Pick a block'}
-            value={filters.row ?? ''}
-            onChange={(e) => set({ row: e.target.value ? Number(e.target.value) : undefined })}
-          />
-        </div>
-        <div className="flex flex-col gap-1">
-          <label htmlFor="ph-kind" className="font-bold">Kind</label>
-          <Select id="ph-kind" value={filters.kind[0] ?? ''} onChange={(e) => set({ kind: e.target.value ? [e.target.value as ObservationKind] : [] })}>
-            <option value="">Every kind</option>
-            {OBSERVATION_KINDS.map((k) => (
-              <option key={k} value={k}>{kindLabel(k)}</option>
-            ))}
-          </Select>
-        </div>
-        <div className="flex flex-col gap-1">
-          <label htmlFor="ph-severity" className="font-bold">Severity</label>
-          <Select id="ph-severity" value={filters.severity ?? ''} onChange={(e) => set({ severity: e.target.value === '' ? undefined : Number(e.target.value) })}>
-            <option value="">Any</option>
-            <option value="1">Watch or worse</option>
-            <option value="2">Act this season or sooner</option>
-            <option value="3">Act now</option>
-          </Select>
-        </div>
-        <div className="flex flex-col gap-1">
-          <label htmlFor="ph-by" className="font-bold">Recorded by</label>
-          <Select id="ph-by" value={filters.by ?? ''} onChange={(e) => set({ by: e.target.value || undefined })}>
-            <option value="">Anyone</option>
-            {people.map((p) => (
-              <option key={p.id} value={p.id}>{p.name}</option>
-            ))}
-          </Select>
-        </div>
-        <div className="flex flex-col gap-1">
-          <label htmlFor="ph-from" className="font-bold">From</label>
-          <Input id="ph-from" type="date" value={filters.from ?? ''} onChange={(e) => set({ from: e.target.value || undefined })} />
-        </div>
-        <div className="flex flex-col gap-1">
-          <label htmlFor="ph-to" className="font-bold">To</label>
-          <Input id="ph-to" type="date" value={filters.to ?? ''} aria-invalid={!datesOk} onChange={(e) => set({ to: e.target.value || undefined })} />
-        </div>
-        <div className="flex items-end">
-          {filterKey && (
-            <Button type="button" variant="quiet" onClick={() => window.history.replaceState(null, '', pathname)}>
-              Clear filters
-            </Button>
+        <form className="grid grid-cols-2 gap-3 border-t-2 border-line p-4 md:grid-cols-4" onSubmit={(e) => e.preventDefault()} aria-label="Filter photos">
+          <div className="flex flex-col gap-1">
+            <label htmlFor="ph-block" className="font-bold">
+              Block
+            </label>
+            <Select id="ph-block" value={filters.block ?? ''} onChange={(e) => set({ block: e.target.value || undefined })}>
+              <option value="">All blocks</option>
+              {blocks.map((b) => (
+                <option key={b.id} value={b.id}>
+                  {b.name}
+                </option>
+              ))}
+            </Select>
+          </div>
+          <div className="flex flex-col gap-1">
+            <label htmlFor="ph-row" className="font-bold">
+              Row
+            </label>
+            <Input
+              id="ph-row"
+              type="number"
+              inputMode="numeric"
+              min={1}
+              max={chosenBlock?.rowCount}
+              disabled={!chosenBlock}
+              placeholder={chosenBlock ? 'Any' : 'Pick a block'}
+              value={filters.row ?? ''}
+              onChange={(e) => set({ row: e.target.value ? Number(e.target.value) : undefined })}
+            />
+          </div>
+          <div className="flex flex-col gap-1">
+            <label htmlFor="ph-kind" className="font-bold">
+              Kind
+            </label>
+            <Select id="ph-kind" value={filters.kind[0] ?? ''} onChange={(e) => set({ kind: e.target.value ? [e.target.value as ObservationKind] : [] })}>
+              <option value="">Every kind</option>
+              {OBSERVATION_KINDS.map((k) => (
+                <option key={k} value={k}>
+                  {kindLabel(k)}
+                </option>
+              ))}
+            </Select>
+          </div>
+          <div className="flex flex-col gap-1">
+            <label htmlFor="ph-severity" className="font-bold">
+              Severity
+            </label>
+            <Select
+              id="ph-severity"
+              value={filters.severity ?? ''}
+              onChange={(e) => set({ severity: e.target.value === '' ? undefined : Number(e.target.value) })}
+            >
+              <option value="">Any</option>
+              <option value="1">Watch or worse</option>
+              <option value="2">Act this season or sooner</option>
+              <option value="3">Act now</option>
+            </Select>
+          </div>
+          <div className="flex flex-col gap-1">
+            <label htmlFor="ph-by" className="font-bold">
+              Recorded by
+            </label>
+            <Select id="ph-by" value={filters.by ?? ''} onChange={(e) => set({ by: e.target.value || undefined })}>
+              <option value="">Anyone</option>
+              {people.map((p) => (
+                <option key={p.id} value={p.id}>
+                  {p.name}
+                </option>
+              ))}
+            </Select>
+          </div>
+          <div className="flex flex-col gap-1">
+            <label htmlFor="ph-from" className="font-bold">
+              From
+            </label>
+            <Input id="ph-from" type="date" value={filters.from ?? ''} onChange={(e) => set({ from: e.target.value || undefined })} />
+          </div>
+          <div className="flex flex-col gap-1">
+            <label htmlFor="ph-to" className="font-bold">
+              To
+            </label>
+            <Input id="ph-to" type="date" value={filters.to ?? ''} aria-invalid={!datesOk} onChange={(e) => set({ to: e.target.value || undefined })} />
+          </div>
+          <div className="flex items-end">
+            {filterKey && (
+              <Button type="button" variant="quiet" onClick={() => window.history.replaceState(null, '', pathname)}>
+                Clear filters
+              </Button>
+            )}
+          </div>
+          {!datesOk && (
+            <p role="alert" className="col-span-full font-bold text-alarm">
+              The end date is before the start date.
+            </p>
           )}
-        </div>
-        {!datesOk && (
-          <p role="alert" className="col-span-full font-bold text-alarm">
-            The end date is before the start date.
-          </p>
-        )}
-      </form>
+        </form>
       </details>
 
       {query.isError && (

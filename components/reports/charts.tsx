@@ -1,19 +1,7 @@
 'use client';
 
 import type { ReactNode } from 'react';
-import {
-  Bar,
-  BarChart,
-  CartesianGrid,
-  Cell,
-  ErrorBar,
-  LabelList,
-  Legend,
-  ReferenceLine,
-  Tooltip,
-  XAxis,
-  YAxis,
-} from 'recharts';
+import { Bar, BarChart, CartesianGrid, Cell, ErrorBar, LabelList, Legend, ReferenceLine, Tooltip, XAxis, YAxis } from 'recharts';
 
 // Ink and greys only, with a hatch for the second series: the charts read the same printed in black
 // and white as on screen. Every chart also has its figures in a table beside it.
@@ -63,11 +51,31 @@ export interface HistogramDatum {
   below?: boolean;
 }
 
-export function HistogramChart({ data, xLabel, yLabel, threshold, height = 240 }: { data: HistogramDatum[]; xLabel: string; yLabel: string; threshold?: { at: string; label: string }; height?: number }) {
+export function HistogramChart({
+  data,
+  xLabel,
+  yLabel,
+  threshold,
+  height = 240,
+}: {
+  data: HistogramDatum[];
+  xLabel: string;
+  yLabel: string;
+  threshold?: { at: string; label: string };
+  height?: number;
+}) {
   return (
     <BarChart responsive style={chartStyle(height)} data={data} margin={{ top: 18, right: 8, bottom: 28, left: 4 }}>
       <CartesianGrid stroke={GRID} vertical={false} />
-      <XAxis dataKey="label" tick={FONT} interval={0} angle={-30} textAnchor="end" height={48} label={{ value: xLabel, position: 'insideBottom', offset: -22, ...FONT }} />
+      <XAxis
+        dataKey="label"
+        tick={FONT}
+        interval={0}
+        angle={-30}
+        textAnchor="end"
+        height={48}
+        label={{ value: xLabel, position: 'insideBottom', offset: -22, ...FONT }}
+      />
       <YAxis allowDecimals={false} tick={FONT} width={44} label={{ value: yLabel, angle: -90, position: 'insideLeft', ...FONT }} />
       <Tooltip />
       {threshold && <ReferenceLine x={threshold.at} stroke={INK} strokeDasharray="4 3" label={{ value: threshold.label, position: 'top', ...FONT }} />}
@@ -95,7 +103,13 @@ export function IncidenceChart({ data, height }: { data: IncidenceDatum[]; heigh
   return (
     <BarChart responsive style={chartStyle(h)} data={data} layout="vertical" margin={{ top: 4, right: 16, bottom: 20, left: 8 }}>
       <CartesianGrid stroke={GRID} horizontal={false} />
-      <XAxis type="number" domain={[0, top]} unit="%" tick={FONT} label={{ value: 'Share with the problem (whiskers: 95% interval)', position: 'insideBottom', offset: -14, ...FONT }} />
+      <XAxis
+        type="number"
+        domain={[0, top]}
+        unit="%"
+        tick={FONT}
+        label={{ value: 'Share with the problem (whiskers: 95% interval)', position: 'insideBottom', offset: -14, ...FONT }}
+      />
       <YAxis type="category" dataKey="label" tick={FONT} width={120} interval={0} />
       <Tooltip formatter={(v) => `${Number(v).toFixed(1)}%`} />
       <Bar dataKey="percent" name="Incidence" isAnimationActive={false} fill={DARK} stroke={INK}>
@@ -123,7 +137,16 @@ export function RowCountChart({ data, series, height = 240 }: { data: Record<str
       <Tooltip />
       <Legend verticalAlign="top" height={28} wrapperStyle={{ fontSize: 12, color: INK }} formatter={legendText} />
       {series.map((s, i) => (
-        <Bar key={s.key} dataKey={s.key} name={s.label} stackId="kinds" fill={SERIES_FILLS[i % SERIES_FILLS.length]} stroke={INK} strokeWidth={0.5} isAnimationActive={false} />
+        <Bar
+          key={s.key}
+          dataKey={s.key}
+          name={s.label}
+          stackId="kinds"
+          fill={SERIES_FILLS[i % SERIES_FILLS.length]}
+          stroke={INK}
+          strokeWidth={0.5}
+          isAnimationActive={false}
+        />
       ))}
     </BarChart>
   );

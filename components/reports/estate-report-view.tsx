@@ -41,7 +41,12 @@ export function EstateReportView({
 
       <Section id="estate-glance" title="The estate at a glance">
         <div className="grid gap-3 sm:grid-cols-2 lg:grid-cols-4 print:grid-cols-4">
-          <FigureCard testId="estate-scouted" label="Vines scouted" value={`${formatCount(totals.vinesScouted)} of ${formatCount(totals.standing)}`} from="distinct vines with any record in the season, over standing vines" />
+          <FigureCard
+            testId="estate-scouted"
+            label="Vines scouted"
+            value={`${formatCount(totals.vinesScouted)} of ${formatCount(totals.standing)}`}
+            from="distinct vines with any record in the season, over standing vines"
+          />
           <FigureCard
             testId="estate-crop"
             label="Crop estimate"
@@ -61,7 +66,10 @@ export function EstateReportView({
         {blocks.length === 0 ? (
           <p>There are no blocks yet. A manager sets them up under Blocks.</p>
         ) : (
-          <ReportTable testId="estate-blocks-table" caption="Each block's season; the crop and labour use the block's default inputs (open the block to change them).">
+          <ReportTable
+            testId="estate-blocks-table"
+            caption="Each block's season; the crop and labour use the block's default inputs (open the block to change them)."
+          >
             <thead>
               <tr>
                 <th scope="col">Block</th>
@@ -88,7 +96,8 @@ export function EstateReportView({
                   <td>{formatCount(b.scouting.vinesScouted)}</td>
                   <td>{b.budbreak ? `${formatShare(b.budbreak.weakShare.estimate)} of ${formatCount(b.budbreak.vinesChecked)}` : '–'}</td>
                   <td>
-                    {b.budLoad ? formatNumber(b.budLoad.meanKept.value ?? 0) : '–'} / {b.budLoad?.meanTarget ? formatNumber(b.budLoad.meanTarget.value ?? 0) : '–'}
+                    {b.budLoad ? formatNumber(b.budLoad.meanKept.value ?? 0) : '–'} /{' '}
+                    {b.budLoad?.meanTarget ? formatNumber(b.budLoad.meanTarget.value ?? 0) : '–'}
                   </td>
                   <td>{b.crop.estimate.kg === null ? 'needs inputs' : formatWeightKg(b.crop.estimate.kg, units)}</td>
                   <td>{b.labour.estimate.hours === null ? '–' : `${formatCount(Math.round(b.labour.estimate.hours))} h`}</td>
@@ -110,7 +119,10 @@ export function EstateReportView({
           <p>Nothing was recorded in {season}.</p>
         ) : (
           <>
-            <ReportTable testId="estate-incidence-table" caption="wilsonInterval(vines with the problem, out of, 0.95): the estate as a whole, then block by block.">
+            <ReportTable
+              testId="estate-incidence-table"
+              caption="wilsonInterval(vines with the problem, out of, 0.95): the estate as a whole, then block by block."
+            >
               <thead>
                 <tr>
                   <th scope="col">Problem</th>
@@ -139,7 +151,12 @@ export function EstateReportView({
               </tbody>
             </ReportTable>
             {blocks.length > 0 && (
-              <ChartFrame title="Weak budbreak and shade canes by block" summary={blocks.map((b) => `${b.block.name}: weak budbreak ${b.budbreak ? formatShare(b.budbreak.weakShare.estimate) : 'not checked'}`).join('; ')}>
+              <ChartFrame
+                title="Weak budbreak and shade canes by block"
+                summary={blocks
+                  .map((b) => `${b.block.name}: weak budbreak ${b.budbreak ? formatShare(b.budbreak.weakShare.estimate) : 'not checked'}`)
+                  .join('; ')}
+              >
                 <CompareChart
                   data={blocks.map((b) => ({
                     label: b.block.name,

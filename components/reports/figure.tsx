@@ -30,7 +30,21 @@ export function From({ from }: { from?: string }) {
   return from ? <p className="text-sm text-bark-soft">{from}</p> : null;
 }
 
-export function FigureCard({ label, value, how, from, source, testId }: { label: string; value: ReactNode; how?: string; from?: string; source?: string; testId?: string }) {
+export function FigureCard({
+  label,
+  value,
+  how,
+  from,
+  source,
+  testId,
+}: {
+  label: string;
+  value: ReactNode;
+  how?: string;
+  from?: string;
+  source?: string;
+  testId?: string;
+}) {
   return (
     <div className="flex flex-col gap-1 rounded-xl border-2 border-line bg-panel p-3 break-inside-avoid" data-testid={testId}>
       <span className="text-sm font-bold text-bark-soft">{label}</span>
@@ -44,7 +58,15 @@ export function FigureCard({ label, value, how, from, source, testId }: { label:
 }
 
 /** A figure of the report as the library builds it: label, value, working, records and source. */
-export function ReportFigure({ figure, value, testId }: { figure: { label: string; text: string; how: string; from: string; source: string }; value?: ReactNode; testId?: string }) {
+export function ReportFigure({
+  figure,
+  value,
+  testId,
+}: {
+  figure: { label: string; text: string; how: string; from: string; source: string };
+  value?: ReactNode;
+  testId?: string;
+}) {
   return <FigureCard testId={testId} label={figure.label} value={value ?? figure.text} how={figure.how} from={figure.from} source={figure.source} />;
 }
 
@@ -115,7 +137,15 @@ export function ListTable({
 }
 
 /** Vines to replant by clone and rootstock: the nursery order, for a block or the estate. */
-export function StockTable({ rows, caption, testId }: { rows: readonly { clone: string; rootstock: string; vines: number }[]; caption: ReactNode; testId: string }) {
+export function StockTable({
+  rows,
+  caption,
+  testId,
+}: {
+  rows: readonly { clone: string; rootstock: string; vines: number }[];
+  caption: ReactNode;
+  testId: string;
+}) {
   return (
     <ListTable
       testId={testId}

@@ -14,7 +14,6 @@ import { seasonOf, type SeasonBounds } from '@/lib/reports/season';
 import type { UnitSystem } from '@/lib/units';
 import { MEASUREMENT_LABELS, measurementSchema, type MeasurementFormValues, type MeasurementInput, type MeasurementView } from '@/lib/validation/measurement';
 
-
 interface MeasurementsProps {
   block: { id: string; name: string; vinesPerPanel: number | null };
   season: number;
@@ -49,7 +48,11 @@ export function Measurements({ block, season, period, units, canRecord, canRemov
   });
   return (
     <div className="flex flex-col gap-6">
-      {canRecord ? <MeasurementForm block={block} period={period} units={units} onSaved={() => queryClient.invalidateQueries({ queryKey: key })} /> : <Notice>Advisors read these weights; a manager, scout or pruner enters them.</Notice>}
+      {canRecord ? (
+        <MeasurementForm block={block} period={period} units={units} onSaved={() => queryClient.invalidateQueries({ queryKey: key })} />
+      ) : (
+        <Notice>Advisors read these weights; a manager, scout or pruner enters them.</Notice>
+      )}
       <section aria-labelledby="entered" className="flex flex-col gap-2">
         <h2 id="entered" className="text-2xl font-extrabold">
           Entered for {season}
@@ -121,7 +124,17 @@ function defaultDay({ from, to }: SeasonBounds, today: string) {
   return harvest.toISOString().slice(0, 10);
 }
 
-function MeasurementForm({ block, period, units, onSaved }: { block: MeasurementsProps['block']; period: SeasonBounds; units: UnitSystem; onSaved: () => void }) {
+function MeasurementForm({
+  block,
+  period,
+  units,
+  onSaved,
+}: {
+  block: MeasurementsProps['block'];
+  period: SeasonBounds;
+  units: UnitSystem;
+  onSaved: () => void;
+}) {
   const [message, setMessage] = useState<{ tone: 'ok' | 'error'; text: string }>();
   const [sample, setSampleState] = useState(false);
   // Read by the resolver, which the form keeps from its first render.
@@ -153,7 +166,10 @@ function MeasurementForm({ block, period, units, onSaved }: { block: Measurement
       const day = measurement.measuredOn.slice(0, 10);
       const inSeason = day >= period.from.slice(0, 10) && day < period.to.slice(0, 10);
       const other = inSeason ? '' : ` It belongs to the ${seasonOf(`${day}T00:00:00Z`, Number(period.from.slice(5, 7)))} season.`;
-      setMessage({ tone: 'ok', text: `Saved: ${measurement.position === null ? `row ${measurement.row} sample` : vineAddress(measurement.row, measurement.position, block.vinesPerPanel)}, ${formatWeightKg(measurement.weightKg, units, 2)}.${other}` });
+      setMessage({
+        tone: 'ok',
+        text: `Saved: ${measurement.position === null ? `row ${measurement.row} sample` : vineAddress(measurement.row, measurement.position, block.vinesPerPanel)}, ${formatWeightKg(measurement.weightKg, units, 2)}.${other}`,
+      });
       // Ready for the next vine: same kind, unit, day and row; the vine and weight cleared.
       form.reset({ ...form.getValues(), position: null, weight: undefined, clusters: null, note: '' }, { keepDefaultValues: true });
       onSaved();
@@ -173,7 +189,10 @@ function MeasurementForm({ block, period, units, onSaved }: { block: Measurement
     (invalid) => {
       // Fields not on screen (a vine number behind "Row sample") still say what is wrong.
       const shown = new Set(['row', 'weight', 'measuredOn', 'note', sample ? 'vines' : 'position', ...(kind === 'yield' ? ['clusters'] : [])]);
-      const hidden = Object.entries(invalid).filter(([name]) => !shown.has(name)).map(([, e]) => e?.message).filter(Boolean);
+      const hidden = Object.entries(invalid)
+        .filter(([name]) => !shown.has(name))
+        .map(([, e]) => e?.message)
+        .filter(Boolean);
       setMessage({ tone: 'error', text: ['Some fields need attention; see the messages next to them.', ...hidden].join(' ') });
     },
   );
@@ -199,11 +218,29 @@ function MeasurementForm({ block, period, units, onSaved }: { block: Measurement
         <legend className="mb-1 font-bold">Weighed as</legend>
         <div className="grid grid-cols-2 gap-2">
           <label className={choice(!sample)}>
-            <input type="radio" name="scope" className="sr-only" checked={!sample} onChange={() => { setSample(false); form.setValue('vines', 1); }} />
+            <input
+              type="radio"
+              name="scope"
+              className="sr-only"
+              checked={!sample}
+              onChange={() => {
+                setSample(false);
+                form.setValue('vines', 1);
+              }}
+            />
             One vine
           </label>
           <label className={choice(sample)}>
-            <input type="radio" name="scope" className="sr-only" checked={sample} onChange={() => { setSample(true); form.setValue('position', null); }} />
+            <input
+              type="radio"
+              name="scope"
+              className="sr-only"
+              checked={sample}
+              onChange={() => {
+                setSample(true);
+                form.setValue('position', null);
+              }}
+            />
             Row sample
           </label>
         </div>

@@ -46,7 +46,8 @@ function overridesOf(view: SettingsView, draft: Draft) {
     if (fields.every((f) => (draft[f] ?? '').trim() === '' || f.endsWith('.unit'))) continue;
     let value: unknown;
     if (s.kind === 'range') value = { min: toNumber(draft[fields[0]!]!), max: toNumber(draft[fields[1]!]!) };
-    else if (s.kind === 'formula') value = { firstUnitBuds: toNumber(draft[fields[0]!]!), perAdditionalUnitBuds: toNumber(draft[fields[1]!]!), unit: draft[fields[2]!] || 'lb' };
+    else if (s.kind === 'formula')
+      value = { firstUnitBuds: toNumber(draft[fields[0]!]!), perAdditionalUnitBuds: toNumber(draft[fields[1]!]!), unit: draft[fields[2]!] || 'lb' };
     else value = toNumber(draft[s.key]!);
     (out[group] ??= {})[name] = value;
   }
@@ -91,7 +92,11 @@ export function JudgementSettings({ initial, blocks, canEdit }: { initial: Setti
     setBusy(true);
     setMessage(undefined);
     try {
-      const res = await fetch(url, { method: 'PUT', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ overrides: overridesOf(view, draft) }) });
+      const res = await fetch(url, {
+        method: 'PUT',
+        headers: { 'content-type': 'application/json' },
+        body: JSON.stringify({ overrides: overridesOf(view, draft) }),
+      });
       const body = (await res.json()) as SettingsView & { error?: { message: string; fields?: Record<string, string[]> } };
       if (!res.ok) {
         setFields(body.error?.fields ?? {});
@@ -154,7 +159,13 @@ export function JudgementSettings({ initial, blocks, canEdit }: { initial: Setti
                           const pid = sub ? `${id}.${sub}` : id;
                           if (sub === 'unit') {
                             return (
-                              <Select key={p} id={pid} aria-label={`${s.label}: unit`} value={draft[p] || 'lb'} onChange={(e) => setDraft({ ...draft, [p]: e.target.value })}>
+                              <Select
+                                key={p}
+                                id={pid}
+                                aria-label={`${s.label}: unit`}
+                                value={draft[p] || 'lb'}
+                                onChange={(e) => setDraft({ ...draft, [p]: e.target.value })}
+                              >
                                 <option value="lb">per lb</option>
                                 <option value="kg">per kg</option>
                               </Select>

@@ -23,7 +23,12 @@ export function SprayForm({ blocks }: { blocks: { id: string; name: string }[] }
   const save = useMutation({
     mutationFn: async (values: FormValues) => {
       try {
-        return await apiSend('POST', '/api/sprays', { ...values, appliedAt: new Date(values.appliedAt).toISOString() }, { fallback: 'The spray was not recorded.' });
+        return await apiSend(
+          'POST',
+          '/api/sprays',
+          { ...values, appliedAt: new Date(values.appliedAt).toISOString() },
+          { fallback: 'The spray was not recorded.' },
+        );
       } catch (err) {
         setServerErrors(err instanceof ApiError ? (err.fields ?? {}) : {});
         throw err;

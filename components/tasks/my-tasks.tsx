@@ -62,11 +62,18 @@ function TaskCard({ task, day }: { task: PhoneTask; day: (iso: string) => string
       </p>
       <h2 className="text-xl font-extrabold">{task.title}</h2>
       {task.note && <p>{task.note}</p>}
-      {task.dueOn && <p className={cn('font-bold', task.overdue && 'text-alarm')}>{task.overdue ? t('overdue', { date: day(task.dueOn) }) : t('due', { date: day(task.dueOn) })}</p>}
+      {task.dueOn && (
+        <p className={cn('font-bold', task.overdue && 'text-alarm')}>
+          {task.overdue ? t('overdue', { date: day(task.dueOn) }) : t('due', { date: day(task.dueOn) })}
+        </p>
+      )}
       <p>{t('progress', { done, total: task.items.length })}</p>
       <progress className="h-3 w-full accent-rootstock" max={task.items.length} value={done} aria-hidden />
       {/* A full page load, so the service worker's copy of this page answers with no signal. */}
-      <a href={`/field/tasks?task=${task.id}`} className="flex min-h-16 items-center justify-center rounded-xl bg-rootstock text-lg font-extrabold text-white no-underline">
+      <a
+        href={`/field/tasks?task=${task.id}`}
+        className="flex min-h-16 items-center justify-center rounded-xl bg-rootstock text-lg font-extrabold text-white no-underline"
+      >
         {t('start')} ▶
       </a>
     </li>

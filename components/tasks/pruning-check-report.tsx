@@ -60,7 +60,15 @@ export function PruningCheckReport({ blocks }: { blocks: { id: string; name: str
               <table className="w-full border-collapse text-left">
                 <thead>
                   <tr className="border-b-2 border-line">
-                    {['Pruner', 'Vines checked', 'Buds left (mean)', 'Against target (mean)', 'Off target', 'Renewal spurs (mean)', 'Against vine plan (mean)'].map((h) => (
+                    {[
+                      'Pruner',
+                      'Vines checked',
+                      'Buds left (mean)',
+                      'Against target (mean)',
+                      'Off target',
+                      'Renewal spurs (mean)',
+                      'Against vine plan (mean)',
+                    ].map((h) => (
                       <th key={h} scope="col" className="px-3 py-2 whitespace-nowrap">
                         {h}
                       </th>
@@ -79,7 +87,9 @@ export function PruningCheckReport({ blocks }: { blocks: { id: string; name: str
                         <td className="px-3 py-2 tabular-nums">{p.offTargetShare === null ? '—' : `${Math.round(p.offTargetShare * 100)}% of vines`}</td>
                         <td className="px-3 py-2 tabular-nums">{p.renewalSpursMean}</td>
                         <td className="px-3 py-2 tabular-nums">
-                          {p.planChecks ? `${signed(p.planDeviationMeanBuds, ' buds')}, ${signed(p.planSpurDeviationMean, ' spurs')} (${p.planChecks} vines)` : '—'}
+                          {p.planChecks
+                            ? `${signed(p.planDeviationMeanBuds, ' buds')}, ${signed(p.planSpurDeviationMean, ' spurs')} (${p.planChecks} vines)`
+                            : '—'}
                         </td>
                       </tr>
                     );

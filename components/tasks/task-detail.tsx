@@ -53,7 +53,11 @@ export function TaskDetail({ initial, canManage }: { initial: TaskDetailData; ca
         </h2>
         <ol className="flex flex-col gap-2">
           {items.map((i) => (
-            <li key={i.positionId} className={cn('rounded-lg border-2 bg-panel p-3', i.status === 'done' ? 'border-rootstock' : 'border-line')} data-testid="task-item">
+            <li
+              key={i.positionId}
+              className={cn('rounded-lg border-2 bg-panel p-3', i.status === 'done' ? 'border-rootstock' : 'border-line')}
+              data-testid="task-item"
+            >
               <div className="flex flex-wrap items-center gap-x-3">
                 <Link href={`/grid/${task.blockId}?row=${i.row}&position=${i.position}`} className="font-bold text-rootstock underline">
                   {vineAddress(i.row, i.position, task.vinesPerPanel)}
@@ -63,11 +67,13 @@ export function TaskDetail({ initial, canManage }: { initial: TaskDetailData; ca
                   {i.status === 'done' ? `✓ done${i.doneByName ? ` by ${i.doneByName}` : ''}${i.doneAt ? ` on ${day(i.doneAt)}` : ''}` : 'to do'}
                 </span>
               </div>
-              {i.flags.filter((f) => f.note).map((f) => (
-                <p key={f.id} className="text-sm italic">
-                  “{f.note}”
-                </p>
-              ))}
+              {i.flags
+                .filter((f) => f.note)
+                .map((f) => (
+                  <p key={f.id} className="text-sm italic">
+                    “{f.note}”
+                  </p>
+                ))}
               {i.note && <p className="text-sm">Work note: {i.note}</p>}
               {i.observationId && (
                 <Link href={`/grid/${task.blockId}?row=${i.row}&position=${i.position}`} className="text-sm underline">

@@ -67,7 +67,15 @@ export function TaskStep({ owner, task, row, position, onDone }: TaskStepProps) 
           note: `${t('tasks.photoNote', { title: task.title })}${note.trim() ? `: ${note.trim()}` : ''}`.slice(0, 2000),
           observedAt: now,
         });
-        await enqueuePhoto({ id: crypto.randomUUID(), owner, observationId, blob: photo.blob, contentType: 'image/jpeg', bytes: photo.blob.size, takenAt: now });
+        await enqueuePhoto({
+          id: crypto.randomUUID(),
+          owner,
+          observationId,
+          blob: photo.blob,
+          contentType: 'image/jpeg',
+          bytes: photo.blob.size,
+          takenAt: now,
+        });
       }
       await enqueueRecord(owner, 'task-updates', {
         id: crypto.randomUUID(),
@@ -80,11 +88,15 @@ export function TaskStep({ owner, task, row, position, onDone }: TaskStepProps) 
         doneAt: now,
       });
       await markDoneInCopy(owner, task.id, row, position);
-      queryClient.setQueryData<{ tasks: PhoneTask[] }>(['my-tasks', owner], (old) =>
-        old && {
-          ...old,
-          tasks: old.tasks.map((x) => (x.id !== task.id ? x : { ...x, items: x.items.map((i) => (i.row === row && i.position === position ? { ...i, status: 'done' as const } : i)) })),
-        },
+      queryClient.setQueryData<{ tasks: PhoneTask[] }>(
+        ['my-tasks', owner],
+        (old) =>
+          old && {
+            ...old,
+            tasks: old.tasks.map((x) =>
+              x.id !== task.id ? x : { ...x, items: x.items.map((i) => (i.row === row && i.position === position ? { ...i, status: 'done' as const } : i)) },
+            ),
+          },
       );
       void syncNow();
       void requestBackgroundSync();
@@ -120,7 +132,14 @@ export function TaskStep({ owner, task, row, position, onDone }: TaskStepProps) 
       ) : open ? (
         <div className="flex flex-col gap-3">
           <Field id="task-note" label={t('tasks.doneNote')}>
-            <textarea id="task-note" value={note} onChange={(e) => setNote(e.target.value)} rows={2} maxLength={1900} className="rounded-lg border-2 border-line bg-panel p-2" />
+            <textarea
+              id="task-note"
+              value={note}
+              onChange={(e) => setNote(e.target.value)}
+              rows={2}
+              maxLength={1900}
+              className="rounded-lg border-2 border-line bg-panel p-2"
+            />
           </Field>
           <label className="flex min-h-touch cursor-pointer items-center justify-center rounded-lg border-2 border-dashed border-rootstock bg-panel font-bold text-rootstock">
             📷 {t('form.takePhoto')}

@@ -13,8 +13,6 @@ import type { TaskList, TaskView } from '@/lib/contracts/tasks';
 import { formatDay } from '@/lib/grid/labels';
 import { TASK_PRIORITIES, TASK_STATUSES, type TaskPriority, type TaskStatus } from '@/lib/validation/task';
 
-
-
 const PRIORITY_RANK: Record<TaskPriority, number> = { high: 0, normal: 1, low: 2 };
 
 const columns: ColumnDef<TaskView>[] = [
@@ -40,7 +38,12 @@ const columns: ColumnDef<TaskView>[] = [
       </span>
     ),
   },
-  { id: 'priority', accessorFn: (t) => PRIORITY_RANK[t.priority], header: 'Priority', cell: ({ row }) => <span className="capitalize">{row.original.priority}</span> },
+  {
+    id: 'priority',
+    accessorFn: (t) => PRIORITY_RANK[t.priority],
+    header: 'Priority',
+    cell: ({ row }) => <span className="capitalize">{row.original.priority}</span>,
+  },
   {
     id: 'progress',
     accessorFn: (t) => (t.vines ? t.vinesDone / t.vines : 0),
@@ -68,9 +71,15 @@ export function TasksTable() {
   const crew = useCrew();
   const search = new URLSearchParams({ status, ...(assignee ? { assignee } : {}), ...(priority ? { priority } : {}) });
   const list = useQuery({ queryKey: ['tasks', search.toString()], queryFn: () => apiGet<TaskList>(`/api/tasks?${search}`) });
-  const blocks = useMemo(() => [...new Map((list.data?.tasks ?? []).map((t) => [t.blockId, t.blockName])).entries()].sort((a, b) => a[1].localeCompare(b[1])), [list.data]);
+  const blocks = useMemo(
+    () => [...new Map((list.data?.tasks ?? []).map((t) => [t.blockId, t.blockName])).entries()].sort((a, b) => a[1].localeCompare(b[1])),
+    [list.data],
+  );
   const rows = useMemo(
-    () => (list.data?.tasks ?? []).filter((t) => (!block || t.blockId === block) && (!query || `${t.title} ${t.blockName} ${t.assigneeName ?? ''}`.toLowerCase().includes(query.toLowerCase()))),
+    () =>
+      (list.data?.tasks ?? []).filter(
+        (t) => (!block || t.blockId === block) && (!query || `${t.title} ${t.blockName} ${t.assigneeName ?? ''}`.toLowerCase().includes(query.toLowerCase())),
+      ),
     [list.data, block, query],
   );
   const table = useReactTable({
@@ -124,10 +133,20 @@ export function TasksTable() {
           value={assignee}
           onChange={setAssignee}
           any="Anyone"
-          options={[['me', 'Me'], ...(crew.data ?? []).filter((m) => m.role === 'pruner' || m.role === 'manager').map((m) => [m.userId, memberLabel(m)] as const)]}
+          options={[
+            ['me', 'Me'],
+            ...(crew.data ?? []).filter((m) => m.role === 'pruner' || m.role === 'manager').map((m) => [m.userId, memberLabel(m)] as const),
+          ]}
         />
         <FilterSelect id="task-block" label="Block" value={block} onChange={setBlock} any="All blocks" options={blocks} />
-        <FilterSelect id="task-priority" label="Priority" value={priority} onChange={setPriority} any="Any" options={TASK_PRIORITIES.map((p) => [p, capitalised(p)] as const)} />
+        <FilterSelect
+          id="task-priority"
+          label="Priority"
+          value={priority}
+          onChange={setPriority}
+          any="Any"
+          options={TASK_PRIORITIES.map((p) => [p, capitalised(p)] as const)}
+        />
       </div>
 
       {list.isError && <Notice tone="error">{list.error.message}</Notice>}

@@ -7,7 +7,6 @@ import { collectionOf, listObservations, onOutboxChange } from '@/lib/offline/ou
 import type { PhoneTaskList, TaskWithItems } from '@/lib/contracts/tasks';
 import { apiGet } from '@/lib/api-client';
 
-
 /** The phone's copy of one task: the task view with its vines. */
 export type PhoneTask = TaskWithItems;
 
@@ -54,7 +53,9 @@ export function useQueuedDone(taskId: string | undefined) {
     const load = () =>
       void listObservations().then((all) => {
         const now = new Set(
-          all.filter((e) => collectionOf(e) === 'task-updates' && e.record.taskId === taskId && e.state !== 'rejected').map((e) => addressKey(e.record.row, e.record.position)),
+          all
+            .filter((e) => collectionOf(e) === 'task-updates' && e.record.taskId === taskId && e.state !== 'rejected')
+            .map((e) => addressKey(e.record.row, e.record.position)),
         );
         if ([...previous].some((k) => !now.has(k))) void queryClient.invalidateQueries({ queryKey: ['my-tasks'] });
         previous = now;

@@ -19,21 +19,11 @@ export function Field({ label, error, hint, children, id }: { label: string; err
 }
 
 export function Input({ className, ...props }: ComponentProps<'input'>) {
-  return (
-    <input
-      className={cn('min-h-touch rounded-lg border-2 border-line bg-panel px-3 text-base focus:border-rootstock', className)}
-      {...props}
-    />
-  );
+  return <input className={cn('min-h-touch rounded-lg border-2 border-line bg-panel px-3 text-base focus:border-rootstock', className)} {...props} />;
 }
 
 export function Select({ className, ...props }: ComponentProps<'select'>) {
-  return (
-    <select
-      className={cn('min-h-touch rounded-lg border-2 border-line bg-panel px-3 text-base focus:border-rootstock', className)}
-      {...props}
-    />
-  );
+  return <select className={cn('min-h-touch rounded-lg border-2 border-line bg-panel px-3 text-base focus:border-rootstock', className)} {...props} />;
 }
 
 /** A labelled choice for a table's filter bar: an "any" entry first (when given), then the options. */

@@ -27,7 +27,11 @@ function PassCard({ pass, rows }: { pass: PassDetail; rows: number[] }) {
   const behind = overEstimate(pass.projectedHours, pass.estimatedHours);
   const started = pass.personHours > 0;
   return (
-    <section className="flex flex-col gap-3 rounded-2xl border-2 border-line bg-panel p-4" aria-labelledby={`pass-${pass.pass}`} data-testid={`pass-${pass.pass}`}>
+    <section
+      className="flex flex-col gap-3 rounded-2xl border-2 border-line bg-panel p-4"
+      aria-labelledby={`pass-${pass.pass}`}
+      data-testid={`pass-${pass.pass}`}
+    >
       <div className="flex flex-wrap items-baseline justify-between gap-2">
         <h2 id={`pass-${pass.pass}`} className="text-xl font-bold">
           {label}
@@ -51,7 +55,8 @@ function PassCard({ pass, rows }: { pass: PassDetail; rows: number[] }) {
           </dl>
           {behind && (
             <p className="rounded-lg border-2 border-alarm bg-alarm-tint p-2 font-bold" data-testid={`behind-${pass.pass}`}>
-              Behind: at this pace the pass takes {formatHours(pass.projectedHours)}, more than the {formatHours(pass.estimatedHours)} the season report estimates.
+              Behind: at this pace the pass takes {formatHours(pass.projectedHours)}, more than the {formatHours(pass.estimatedHours)} the season report
+              estimates.
             </p>
           )}
           {pass.leads.length > 0 && (
@@ -59,10 +64,18 @@ function PassCard({ pass, rows }: { pass: PassDetail; rows: number[] }) {
               <caption className="mb-1 text-left font-bold">Pace per crew lead</caption>
               <thead>
                 <tr className="border-b-2 border-line">
-                  <th scope="col" className="py-1">Crew lead</th>
-                  <th scope="col" className="py-1 text-right">Vines</th>
-                  <th scope="col" className="py-1 text-right">Person-hours</th>
-                  <th scope="col" className="py-1 text-right">Vines per person-hour</th>
+                  <th scope="col" className="py-1">
+                    Crew lead
+                  </th>
+                  <th scope="col" className="py-1 text-right">
+                    Vines
+                  </th>
+                  <th scope="col" className="py-1 text-right">
+                    Person-hours
+                  </th>
+                  <th scope="col" className="py-1 text-right">
+                    Vines per person-hour
+                  </th>
                 </tr>
               </thead>
               <tbody>
@@ -81,7 +94,8 @@ function PassCard({ pass, rows }: { pass: PassDetail; rows: number[] }) {
       ) : (
         <p className="text-bark-soft">
           Not started this season.
-          {pass.estimatedHours !== null && ` The season report estimates ${formatHours(pass.estimatedHours)}${pass.projectedCost !== null ? `, about ${formatMoney(pass.projectedCost)}` : ''}.`}
+          {pass.estimatedHours !== null &&
+            ` The season report estimates ${formatHours(pass.estimatedHours)}${pass.projectedCost !== null ? `, about ${formatMoney(pass.projectedCost)}` : ''}.`}
         </p>
       )}
     </section>
@@ -105,7 +119,12 @@ export function BlockProgressView({ progress, season, pay, seasons }: { progress
         </div>
         <nav aria-label="Seasons and export" className="flex flex-wrap gap-2">
           {seasons.map((s) => (
-            <Link key={s} href={`/work/${block.id}?season=${s}`} aria-current={s === season ? 'page' : undefined} className="flex min-h-touch items-center rounded-lg border-2 border-line px-3 font-bold no-underline aria-[current=page]:border-rootstock">
+            <Link
+              key={s}
+              href={`/work/${block.id}?season=${s}`}
+              aria-current={s === season ? 'page' : undefined}
+              className="flex min-h-touch items-center rounded-lg border-2 border-line px-3 font-bold no-underline aria-[current=page]:border-rootstock"
+            >
               {s}
             </Link>
           ))}

@@ -16,16 +16,26 @@ export function EstateProgressTable({ blocks, season }: { blocks: BlockProgress[
         <caption className="sr-only">Row work per block, season {season}</caption>
         <thead>
           <tr className="border-b-2 border-bark">
-            <th scope="col" className="p-2">Block</th>
+            <th scope="col" className="p-2">
+              Block
+            </th>
             {SHOWN.map((p) => (
               <th key={p} scope="col" className="p-2 text-right">
                 {PASS_LABELS[p]} rows
               </th>
             ))}
-            <th scope="col" className="p-2 text-right">Pruning pace</th>
-            <th scope="col" className="p-2">Pruning finish</th>
-            <th scope="col" className="p-2 text-right">Cost to date</th>
-            <th scope="col" className="p-2 text-right">Pruning projected</th>
+            <th scope="col" className="p-2 text-right">
+              Pruning pace
+            </th>
+            <th scope="col" className="p-2">
+              Pruning finish
+            </th>
+            <th scope="col" className="p-2 text-right">
+              Cost to date
+            </th>
+            <th scope="col" className="p-2 text-right">
+              Pruning projected
+            </th>
           </tr>
         </thead>
         <tbody>

@@ -18,7 +18,12 @@ export function PassStrip({ label, rows, states }: { label: string; rows: number
       data-testid="pass-strip"
     >
       {states.map((s, i) => (
-        <span key={rows[i]} title={`Row ${rows[i]}: ${s === 'none' ? 'not started' : s === 'partly' ? 'partly done' : 'done'}`} data-state={s} className={cn('h-full min-w-px flex-1', CELL[s], i > 0 && 'border-l border-panel/40')} />
+        <span
+          key={rows[i]}
+          title={`Row ${rows[i]}: ${s === 'none' ? 'not started' : s === 'partly' ? 'partly done' : 'done'}`}
+          data-state={s}
+          className={cn('h-full min-w-px flex-1', CELL[s], i > 0 && 'border-l border-panel/40')}
+        />
       ))}
     </div>
   );

@@ -4,7 +4,17 @@ import { formatHours, formatMoney } from '@/lib/work/format';
 import type { RecordedLabour } from '@/lib/work/recorded';
 
 /** Beside the season report's pruning estimate: what the crews recorded so far. */
-export function RecordedLabourNote({ recorded, estimateHours, blockId, season }: { recorded: RecordedLabour; estimateHours: number | null; blockId: string; season: number }) {
+export function RecordedLabourNote({
+  recorded,
+  estimateHours,
+  blockId,
+  season,
+}: {
+  recorded: RecordedLabour;
+  estimateHours: number | null;
+  blockId: string;
+  season: number;
+}) {
   return (
     <div className="rounded-xl border-2 border-line bg-panel p-4 break-inside-avoid" data-testid="labour-recorded">
       <p className="text-lg font-bold">

@@ -47,7 +47,10 @@ export async function up(knex: Knex) {
   // written for 21 kinds, all that fit in the packed levels, so a new kind needs no change here.
   const fields = (column: string) => Array.from({ length: 21 }, (_, i) => `((${column} >> ${3 * i}) & 7)`);
   const worst = (column: string) => `greatest(${fields(column).join(', ')})::smallint`;
-  const kinds = (column: string) => `(${fields(column).map((f, i) => `case when ${f} >= 2 then ${2 ** (i + 1)} else 0 end`).join(' + ')})::int`;
+  const kinds = (column: string) =>
+    `(${fields(column)
+      .map((f, i) => `case when ${f} >= 2 then ${2 ** (i + 1)} else 0 end`)
+      .join(' + ')})::int`;
   await knex.raw(`create table grid_vines (
     position_id uuid primary key references vine_positions (id) on delete cascade,
     organisation_id uuid not null references organisations (id) on delete cascade,

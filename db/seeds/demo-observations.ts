@@ -13,13 +13,7 @@ import type { Knex } from 'knex';
 import sharp from 'sharp';
 import { escapeHtml } from '../../lib/html';
 import { photoKey, THUMB_LONG_SIDE, THUMB_QUALITY, thumbKey } from '../../lib/storage-keys';
-import {
-  balancedPruningBuds,
-  BALANCED_PRUNING_FORMULAS,
-  observationSeverity,
-  type ObservationData,
-  type ObservationKind,
-} from '../../lib/viticulture';
+import { balancedPruningBuds, BALANCED_PRUNING_FORMULAS, observationSeverity, type ObservationData, type ObservationKind } from '../../lib/viticulture';
 import { DEMO_USERS } from './demo';
 import { DEMO_BLOCKS, type DemoBlock } from './demo-layout';
 
@@ -121,8 +115,14 @@ function creekFlat(out: Draft[]) {
       const retained = 28 + Math.floor(rand() * 5);
       const pushed = Math.round((retained * percent) / 100);
       out.push({
-        key: `cf:budbreak:${row}:${position}`, block, row, position, kind: 'weak-budbreak',
-        data: { budsRetained: retained, budsPushed: pushed }, day: addDays('2026-04-22', Math.floor((rowCount - row) / 8)), by: SCOUT,
+        key: `cf:budbreak:${row}:${position}`,
+        block,
+        row,
+        position,
+        kind: 'weak-budbreak',
+        data: { budsRetained: retained, budsPushed: pushed },
+        day: addDays('2026-04-22', Math.floor((rowCount - row) / 8)),
+        by: SCOUT,
         photo: distance < 9 && position % 4 === 1,
       });
     }
@@ -133,8 +133,14 @@ function creekFlat(out: Draft[]) {
       const retained = 28 + Math.floor(rand() * 5);
       const percent = rand() < 0.06 ? between(rand, 55, 74) : between(rand, 78, 97);
       out.push({
-        key: `cf:budbreak-sample:${row}:${position}`, block, row, position, kind: 'weak-budbreak',
-        data: { budsRetained: retained, budsPushed: Math.round((retained * percent) / 100) }, day: '2026-04-28', by: SCOUT,
+        key: `cf:budbreak-sample:${row}:${position}`,
+        block,
+        row,
+        position,
+        kind: 'weak-budbreak',
+        data: { budsRetained: retained, budsPushed: Math.round((retained * percent) / 100) },
+        day: '2026-04-28',
+        by: SCOUT,
       });
     }
   }
@@ -150,9 +156,18 @@ function creekFlat(out: Draft[]) {
       const earlier = !forced && rand() < 0.2;
       const data = { cause: 'mechanical' as const, severity, girdlingPercent: girdling };
       out.push({
-        key: `cf:trunk:${row}:${position}`, block, row, position, kind: 'trunk-injury', data,
-        day: earlier ? addDays('2026-01-19', position % 9) : addDays('2026-11-16', position % 10), by: PRUNER,
-        note: severity === 'severe' ? pick(rand, ['Bark torn back to the wood on the track side.', 'Mower strike, wound weeping.', 'Deep scrape low on the trunk.']) : '',
+        key: `cf:trunk:${row}:${position}`,
+        block,
+        row,
+        position,
+        kind: 'trunk-injury',
+        data,
+        day: earlier ? addDays('2026-01-19', position % 9) : addDays('2026-11-16', position % 10),
+        by: PRUNER,
+        note:
+          severity === 'severe'
+            ? pick(rand, ['Bark torn back to the wood on the track side.', 'Mower strike, wound weeping.', 'Deep scrape low on the trunk.'])
+            : '',
         closedOn: earlier ? '2026-03-02' : undefined,
         photo: !earlier && observationSeverity('trunk-injury', data) === 3,
       });
@@ -171,8 +186,15 @@ function creekFlat(out: Draft[]) {
         diameterMm: round1(between(rand, 6, 9.5)),
       };
       out.push({
-        key: `cf:shade:${row}:${position}`, block, row, position, kind: 'shade-cane', data,
-        day: addDays('2026-11-20', row % 6), by: SCOUT, photo: row % 15 === 0 && position === 150,
+        key: `cf:shade:${row}:${position}`,
+        block,
+        row,
+        position,
+        kind: 'shade-cane',
+        data,
+        day: addDays('2026-11-20', row % 6),
+        by: SCOUT,
+        photo: row % 15 === 0 && position === 150,
       });
     }
   }
@@ -181,21 +203,32 @@ function creekFlat(out: Draft[]) {
   for (let row = 3; row <= rowCount; row += 10) {
     for (let position = 2; position <= 150; position += 3) {
       out.push({
-        key: `cf:pruning:${row}:${position}`, block, row, position, kind: 'pruning-record',
-        data: pruningRecord(rand, between(rand, 0.5, 1.3)), day: addDays('2026-01-26', Math.floor(row / 10)), by: PRUNER,
+        key: `cf:pruning:${row}:${position}`,
+        block,
+        row,
+        position,
+        kind: 'pruning-record',
+        data: pruningRecord(rand, between(rand, 0.5, 1.3)),
+        day: addDays('2026-01-26', Math.floor(row / 10)),
+        by: PRUNER,
       });
       if (position % 9 !== 2) continue;
       const canes = 2 + Math.floor(rand() * 2);
       for (let cane = 1; cane <= canes; cane++) {
         out.push({
-          key: `cf:cane:${row}:${position}:${cane}`, block, row, position, kind: 'cane-diameter',
+          key: `cf:cane:${row}:${position}:${cane}`,
+          block,
+          row,
+          position,
+          kind: 'cane-diameter',
           data: {
             diameterMm: round1(between(rand, 6.5, 12.5)),
             longestInternodeMm: Math.round(between(rand, 55, 115)),
             exposure: pick(rand, ['sun', 'sun', 'sun', 'partial'] as const),
             colourGood: rand() < 0.85,
           },
-          day: addDays('2026-01-22', Math.floor(row / 10)), by: PRUNER,
+          day: addDays('2026-01-22', Math.floor(row / 10)),
+          by: PRUNER,
         });
       }
     }
@@ -210,8 +243,14 @@ function holes(out: Draft[], slotsByBlock: Map<string, Slot[]>) {
       if (slot.status === 'planted' || rand() > 0.7) continue;
       const state = slot.status === 'dead' ? 'dead' : 'missing';
       out.push({
-        key: `hole:${block.id}:${slot.row}:${slot.position}`, block, row: slot.row, position: slot.position, kind: 'missing-vine',
-        data: { state }, day: addDays('2026-02-02', slot.row % 20), by: SCOUT,
+        key: `hole:${block.id}:${slot.row}:${slot.position}`,
+        block,
+        row: slot.row,
+        position: slot.position,
+        kind: 'missing-vine',
+        data: { state },
+        day: addDays('2026-02-02', slot.row % 20),
+        by: SCOUT,
         closedOn: slot.status === 'replant' ? '2026-04-10' : undefined,
         photo: block.name === 'Creek Flat' && slot.status === 'dead' && slot.row > 120 && rand() < 0.5,
       });
@@ -228,8 +267,14 @@ function otherBlocks(out: Draft[]) {
       if (rand() > 0.45) continue;
       const severity = pick(rand, ['light', 'moderate', 'moderate', 'severe'] as const);
       out.push({
-        key: `ut:hail:${row}:${position}`, block: terrace, row, position, kind: 'cane-injury',
-        data: { cause: 'hail', canesAffected: 1 + Math.floor(rand() * 4), severity }, day: addDays('2026-01-14', row - 8), by: SCOUT,
+        key: `ut:hail:${row}:${position}`,
+        block: terrace,
+        row,
+        position,
+        kind: 'cane-injury',
+        data: { cause: 'hail', canesAffected: 1 + Math.floor(rand() * 4), severity },
+        day: addDays('2026-01-14', row - 8),
+        by: SCOUT,
         photo: row === 11 && position % 15 === 0,
       });
     }
@@ -237,8 +282,14 @@ function otherBlocks(out: Draft[]) {
   for (let row = 1; row <= terrace.rowCount; row += 2) {
     for (let position = 4; position <= rowLength(terrace, row); position += 6) {
       out.push({
-        key: `ut:pruning:${row}:${position}`, block: terrace, row, position, kind: 'pruning-record',
-        data: pruningRecord(rand, between(rand, 0.4, 1.1)), day: addDays('2026-02-03', row % 7), by: PRUNER,
+        key: `ut:pruning:${row}:${position}`,
+        block: terrace,
+        row,
+        position,
+        kind: 'pruning-record',
+        data: pruningRecord(rand, between(rand, 0.4, 1.1)),
+        day: addDays('2026-02-03', row % 7),
+        by: PRUNER,
       });
     }
   }
@@ -250,8 +301,14 @@ function otherBlocks(out: Draft[]) {
     for (let position = 5; position <= rowLength(terrace, row); position += 12) {
       const retained = 24 + Math.floor(counts() * 6);
       out.push({
-        key: `ut:budbreak-sample:${row}:${position}`, block: terrace, row, position, kind: 'weak-budbreak',
-        data: { budsRetained: retained, budsPushed: Math.round((retained * between(counts, 78, 96)) / 100) }, day: addDays('2026-04-24', row % 3), by: SCOUT,
+        key: `ut:budbreak-sample:${row}:${position}`,
+        block: terrace,
+        row,
+        position,
+        kind: 'weak-budbreak',
+        data: { budsRetained: retained, budsPushed: Math.round((retained * between(counts, 78, 96)) / 100) },
+        day: addDays('2026-04-24', row % 3),
+        by: SCOUT,
       });
     }
   }
@@ -265,8 +322,14 @@ function otherBlocks(out: Draft[]) {
       const budsCut = 20;
       const killed = Math.round(budsCut * Math.max(0, Math.min(1, between(rand, 0.9, 1.05) - position * 0.06)));
       out.push({
-        key: `ss:bud:${row}:${position}`, block: slope, row, position, kind: 'bud-injury',
-        data: { budsCut, primariesDead: killed }, day: addDays('2026-01-06', row % 4), by: SCOUT,
+        key: `ss:bud:${row}:${position}`,
+        block: slope,
+        row,
+        position,
+        kind: 'bud-injury',
+        data: { budsCut, primariesDead: killed },
+        day: addDays('2026-01-06', row % 4),
+        by: SCOUT,
         photo: row % 12 === 1 && position === 2,
       });
     }
@@ -277,8 +340,14 @@ function otherBlocks(out: Draft[]) {
     for (let position = 10; position <= rowLength(slope, row); position += 8) {
       const retained = 22 + Math.floor(counts() * 6);
       out.push({
-        key: `ss:budbreak-sample:${row}:${position}`, block: slope, row, position, kind: 'weak-budbreak',
-        data: { budsRetained: retained, budsPushed: Math.round((retained * between(counts, 78, 94)) / 100) }, day: addDays('2026-04-27', row % 3), by: SCOUT,
+        key: `ss:budbreak-sample:${row}:${position}`,
+        block: slope,
+        row,
+        position,
+        kind: 'weak-budbreak',
+        data: { budsRetained: retained, budsPushed: Math.round((retained * between(counts, 78, 94)) / 100) },
+        day: addDays('2026-04-27', row % 3),
+        by: SCOUT,
       });
     }
   }
@@ -292,13 +361,26 @@ function otherBlocks(out: Draft[]) {
       const retained = 14 + Math.floor(rand() * 6);
       const percent = rand() < 0.4 ? between(rand, 10, 60) : between(rand, 70, 100);
       out.push({
-        key: `nb:budbreak:${row}:${position}`, block: bench, row, position, kind: 'weak-budbreak',
-        data: { budsRetained: retained, budsPushed: Math.round((retained * percent) / 100) }, day: addDays('2026-05-04', row % 5), by: SCOUT,
+        key: `nb:budbreak:${row}:${position}`,
+        block: bench,
+        row,
+        position,
+        kind: 'weak-budbreak',
+        data: { budsRetained: retained, budsPushed: Math.round((retained * percent) / 100) },
+        day: addDays('2026-05-04', row % 5),
+        by: SCOUT,
       });
     }
   }
   out.push({
-    key: 'nb:note:1', block: bench, row: 6, position: 20, kind: 'note', data: {}, day: '2026-05-06', by: MANAGER,
+    key: 'nb:note:1',
+    block: bench,
+    row: 6,
+    position: 20,
+    kind: 'note',
+    data: {},
+    day: '2026-05-06',
+    by: MANAGER,
     note: 'Drip emitter blocked from here to the end of the row; flushed the line.',
   });
 }
@@ -334,12 +416,16 @@ function drawing(p: Photo) {
   ];
   const missing = draft.kind === 'missing-vine';
   if (!missing) {
-    parts.push(`<path d="M${trunkX} ${h * 0.74} C ${trunkX + 10} ${h * 0.6} ${trunkX - 14} ${h * 0.5} ${trunkX} 300" stroke="#5a3b22" stroke-width="38" fill="none" stroke-linecap="round"/>`);
+    parts.push(
+      `<path d="M${trunkX} ${h * 0.74} C ${trunkX + 10} ${h * 0.6} ${trunkX - 14} ${h * 0.5} ${trunkX} 300" stroke="#5a3b22" stroke-width="38" fill="none" stroke-linecap="round"/>`,
+    );
     const canes = draft.kind === 'shade-cane' ? 1 : 2;
     for (let c = 0; c < canes; c++) {
       const dir = c === 0 ? 1 : -1;
       const reach = draft.kind === 'shade-cane' ? 420 : 260 + rand() * 60;
-      parts.push(`<path d="M${trunkX} 300 Q ${trunkX + dir * reach * 0.5} ${255 - rand() * 30} ${trunkX + dir * reach} 298" stroke="#8b5a2b" stroke-width="${draft.kind === 'shade-cane' ? 7 : 11}" fill="none"/>`);
+      parts.push(
+        `<path d="M${trunkX} 300 Q ${trunkX + dir * reach * 0.5} ${255 - rand() * 30} ${trunkX + dir * reach} 298" stroke="#8b5a2b" stroke-width="${draft.kind === 'shade-cane' ? 7 : 11}" fill="none"/>`,
+      );
       const spacing = draft.kind === 'shade-cane' ? 70 : 32;
       for (let x = spacing; x < reach; x += spacing) {
         parts.push(`<circle cx="${trunkX + dir * x}" cy="${292 - Math.sin((x / reach) * Math.PI) * 28}" r="6" fill="#6b4420"/>`);
@@ -394,7 +480,14 @@ async function seedPhotos(knex: Knex, organisationId: string, photos: Photo[], e
     console.warn('Demo photos skipped: no S3 settings were given to the seed.');
     return;
   }
-  const known = new Set<string>(await knex('photos').whereIn('id', photos.map((p) => p.id)).pluck('id'));
+  const known = new Set<string>(
+    await knex('photos')
+      .whereIn(
+        'id',
+        photos.map((p) => p.id),
+      )
+      .pluck('id'),
+  );
   // Rows without objects (the bucket was emptied) get their objects back; objects are rewritten as needed.
   const todo = [];
   for (const p of photos) {
@@ -409,10 +502,20 @@ async function seedPhotos(knex: Knex, organisationId: string, photos: Photo[], e
       s3.client.send(new PutObjectCommand({ Bucket: s3.bucket, Key: thumbKey(organisationId, p.id), Body: thumb, ContentType: 'image/jpeg' })),
     ]);
     rows.push({
-      id: p.id, organisation_id: organisationId, observation_id: p.observationId, uploaded_by: p.draft.by, status: 'stored',
-      object_key: photoKey(organisationId, p.id), thumb_key: thumbKey(organisationId, p.id), content_type: 'image/jpeg',
-      bytes: original.length, width: 960, height: 720, sha256: createHash('sha256').update(original).digest('hex'),
-      taken_at: p.observedAt, stored_at: knex.fn.now(),
+      id: p.id,
+      organisation_id: organisationId,
+      observation_id: p.observationId,
+      uploaded_by: p.draft.by,
+      status: 'stored',
+      object_key: photoKey(organisationId, p.id),
+      thumb_key: thumbKey(organisationId, p.id),
+      content_type: 'image/jpeg',
+      bytes: original.length,
+      width: 960,
+      height: 720,
+      sha256: createHash('sha256').update(original).digest('hex'),
+      taken_at: p.observedAt,
+      stored_at: knex.fn.now(),
     });
   };
   for (let i = 0; i < todo.length; i += 4) await Promise.all(todo.slice(i, i + 4).map(work));
@@ -449,17 +552,31 @@ export async function seedDemoObservations(knex: Knex, organisationId: string, o
     const note = d.note ?? '';
     const record = { id, blockId: d.block.id, row: d.row, position: d.position, kind: d.kind, data: d.data, note, observedAt };
     rows.push({
-      id, organisation_id: organisationId, block_id: d.block.id, position_id: slot.id, row_number: d.row, position: d.position,
-      kind: d.kind, data: JSON.stringify(d.data), note, observed_at: observedAt, recorded_by: d.by,
-      severity: observationSeverity(d.kind, d.data as never), status: d.closedOn ? 'closed' : 'open',
+      id,
+      organisation_id: organisationId,
+      block_id: d.block.id,
+      position_id: slot.id,
+      row_number: d.row,
+      position: d.position,
+      kind: d.kind,
+      data: JSON.stringify(d.data),
+      note,
+      observed_at: observedAt,
+      recorded_by: d.by,
+      severity: observationSeverity(d.kind, d.data as never),
+      status: d.closedOn ? 'closed' : 'open',
       closed_at: d.closedOn ? `${d.closedOn}T16:00:00Z` : null,
       payload_sha256: createHash('sha256').update(JSON.stringify(record)).digest('hex'),
-      received_at: observedAt, updated_at: observedAt,
+      received_at: observedAt,
+      updated_at: observedAt,
     });
     if (d.photo) photos.push({ id: demoId(`photo:${d.key}`), observationId: id, draft: d, observedAt });
   }
   for (let i = 0; i < rows.length; i += 1000) {
-    await knex('observations').insert(rows.slice(i, i + 1000)).onConflict('id').ignore();
+    await knex('observations')
+      .insert(rows.slice(i, i + 1000))
+      .onConflict('id')
+      .ignore();
   }
   await seedPhotos(knex, organisationId, photos, options.env ?? process.env);
 }

@@ -79,13 +79,32 @@ export async function seedDemoRowWork(knex: Knex, organisationId: string) {
       const startedAt = new Date(day.getTime() + startHour * 3600 * 1000);
       const finishedAt = new Date(startedAt.getTime() + (personHours / plan.crew) * 3600 * 1000);
       const record = {
-        blockId: block.id, row, pass: plan.pass, fromPosition: last ? 1 : null, toPosition: last ? covered : null, crewSize: plan.crew, personHours,
-        startedAt: startedAt.toISOString(), finishedAt: finishedAt.toISOString(), note: last ? 'Stopped for the day mid-row.' : '',
+        blockId: block.id,
+        row,
+        pass: plan.pass,
+        fromPosition: last ? 1 : null,
+        toPosition: last ? covered : null,
+        crewSize: plan.crew,
+        personHours,
+        startedAt: startedAt.toISOString(),
+        finishedAt: finishedAt.toISOString(),
+        note: last ? 'Stopped for the day mid-row.' : '',
       };
       records.push({
-        id: demoId(`row-work:${plan.block}:${plan.pass}:${row}`), organisation_id: organisationId, block_id: block.id, row_number: row,
-        pass: plan.pass, from_position: record.fromPosition, to_position: record.toPosition, crew_size: plan.crew, person_hours: personHours,
-        started_at: record.startedAt, finished_at: record.finishedAt, note: record.note, recorded_by: plan.lead, payload_sha256: hash(record),
+        id: demoId(`row-work:${plan.block}:${plan.pass}:${row}`),
+        organisation_id: organisationId,
+        block_id: block.id,
+        row_number: row,
+        pass: plan.pass,
+        from_position: record.fromPosition,
+        to_position: record.toPosition,
+        crew_size: plan.crew,
+        person_hours: personHours,
+        started_at: record.startedAt,
+        finished_at: record.finishedAt,
+        note: record.note,
+        recorded_by: plan.lead,
+        payload_sha256: hash(record),
       });
     }
   }

@@ -33,7 +33,12 @@ export async function seedDemo(knex: Knex, options: DemoObservationOptions = {})
     .onConflict('id')
     .ignore();
 
-  const existing = await knex('users').whereIn('id', DEMO_USERS.map((u) => u.id)).pluck('id');
+  const existing = await knex('users')
+    .whereIn(
+      'id',
+      DEMO_USERS.map((u) => u.id),
+    )
+    .pluck('id');
   if (existing.length < DEMO_USERS.length) {
     const hash = await bcrypt.hash(DEMO_PASSWORD, envSetting('BCRYPT_COST', options.env));
     await knex('users')

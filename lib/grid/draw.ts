@@ -7,7 +7,23 @@ import { GRID_LINE, levelStyle, REPLANT_NOTCH, SLOT_STYLES, type Mark } from '@/
 
 type Ctx = Pick<
   CanvasRenderingContext2D,
-  'fillStyle' | 'strokeStyle' | 'lineWidth' | 'lineCap' | 'fillRect' | 'strokeRect' | 'beginPath' | 'moveTo' | 'lineTo' | 'arc' | 'fill' | 'stroke' | 'closePath' | 'save' | 'restore' | 'rect' | 'clip'
+  | 'fillStyle'
+  | 'strokeStyle'
+  | 'lineWidth'
+  | 'lineCap'
+  | 'fillRect'
+  | 'strokeRect'
+  | 'beginPath'
+  | 'moveTo'
+  | 'lineTo'
+  | 'arc'
+  | 'fill'
+  | 'stroke'
+  | 'closePath'
+  | 'save'
+  | 'restore'
+  | 'rect'
+  | 'clip'
 >;
 
 function drawMark(ctx: Ctx, mark: Mark, x: number, y: number, size: number, ink: string) {

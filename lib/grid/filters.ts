@@ -24,7 +24,10 @@ const gridFilterFields = z.strictObject({
   to: day.optional(),
   by: z.uuid('Must be the id of a person').optional(),
   status: z.enum(FINDING_STATUSES, 'Must be open, closed or all').default('open'),
-  flagged: z.enum(['0', '1'], 'Must be 0 or 1').default('0').transform((v) => v === '1'),
+  flagged: z
+    .enum(['0', '1'], 'Must be 0 or 1')
+    .default('0')
+    .transform((v) => v === '1'),
 });
 
 export const datesInOrder = (f: { from?: string; to?: string }) => !f.from || !f.to || f.from <= f.to;
@@ -39,7 +42,11 @@ export const DEFAULT_GRID_FILTERS: GridFilters = { kind: [], status: 'open', fla
 export function searchToRaw(search: URLSearchParams, keys: readonly string[]) {
   const raw: Record<string, unknown> = {};
   for (const key of keys) {
-    const values = search.getAll(key).flatMap((v) => (key === 'kind' ? v.split(',') : [v])).map((v) => v.trim()).filter(Boolean);
+    const values = search
+      .getAll(key)
+      .flatMap((v) => (key === 'kind' ? v.split(',') : [v]))
+      .map((v) => v.trim())
+      .filter(Boolean);
     if (values.length) raw[key] = key === 'kind' ? values : values[values.length - 1];
   }
   return raw;

@@ -59,9 +59,7 @@ export function planFromObservations(
   vineSpacingM?: number,
   settings?: SettingsOverride,
 ): VinePlanReading {
-  const measured = observations
-    .map((o) => ({ o, cane: caneFrom(o) }))
-    .filter((m): m is { o: MeasuredObservation; cane: CaneInput } => m.cane !== null);
+  const measured = observations.map((o) => ({ o, cane: caneFrom(o) })).filter((m): m is { o: MeasuredObservation; cane: CaneInput } => m.cane !== null);
   const latestDay = measured.reduce<string | null>((max, m) => (max === null || day(m.o.observedAt) > max ? day(m.o.observedAt) : max), null);
   const canes = measured
     .filter((m) => day(m.o.observedAt) === latestDay)

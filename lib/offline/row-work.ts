@@ -42,7 +42,6 @@ export interface CrewDefaults {
   lastFinishedAt?: string;
 }
 
-
 export function readCrewDefaults(owner: string): CrewDefaults | undefined {
   try {
     const raw = localStorage.getItem(LOCAL.rowWorkDefaults(owner));

@@ -23,7 +23,6 @@ export const COLLECTIONS: { name: string; path: string; bodyKey: string }[] = [
   { name: 'row-work', path: '/api/sync/row-work', bodyKey: 'records' },
 ];
 
-
 let engine: SyncEngine | undefined;
 
 function browserSync() {

@@ -28,9 +28,19 @@ export interface Comparison {
 const share = (v: number | null | undefined) => (v === null || v === undefined ? '–' : formatShare(v));
 const plain = (v: number | null | undefined, digits = 1) => (v === null || v === undefined ? '–' : formatNumber(v, digits));
 
-export function compareReports(now: BlockReport, before: BlockReport, persisted: { total: number; byKind: { kind: string; vines: number }[]; vines: PersistedVine[] }): Comparison {
+export function compareReports(
+  now: BlockReport,
+  before: BlockReport,
+  persisted: { total: number; byKind: { kind: string; vines: number }[]; vines: PersistedVine[] },
+): Comparison {
   const kg = (v: number | null | undefined) => (v === null || v === undefined ? '–' : formatWeightKg(v, now.units));
-  const row = (label: string, b: number | null | undefined, n: number | null | undefined, text: (v: number | null | undefined) => string, better: CompareRow['better']): CompareRow => ({
+  const row = (
+    label: string,
+    b: number | null | undefined,
+    n: number | null | undefined,
+    text: (v: number | null | undefined) => string,
+    better: CompareRow['better'],
+  ): CompareRow => ({
     label,
     before: b ?? null,
     now: n ?? null,

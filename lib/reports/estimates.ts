@@ -68,11 +68,24 @@ export function cropEstimate(basis: CropBasis, inputs: CropInputs): CropEstimate
   const direct = inputs.clustersPerVine?.value ?? null;
   const lag = inputs.lagClusterWeightG?.value ?? null;
   const needed: [string, InputValue | undefined][] =
-    direct !== null ? [] : [['budsPerVine', inputs.budsPerVine], ['budbreakPercent', inputs.budbreakPercent], ['clustersPerShoot', inputs.clustersPerShoot]];
+    direct !== null
+      ? []
+      : [
+          ['budsPerVine', inputs.budsPerVine],
+          ['budbreakPercent', inputs.budbreakPercent],
+          ['clustersPerShoot', inputs.clustersPerShoot],
+        ];
   if (lag === null) needed.push(['clusterWeightG', inputs.clusterWeightG]);
   const missing = needed.filter(([, v]) => v?.value === null || v?.value === undefined).map(([k]) => k);
   if (missing.length) {
-    return { kg: null, kgPerVine: null, tonnesPerHa: null, shortTonsPerAcre: null, missing, how: `The estimate needs ${missing.map(inputWords).join(' and ')}.` };
+    return {
+      kg: null,
+      kgPerVine: null,
+      tonnesPerHa: null,
+      shortTonsPerAcre: null,
+      missing,
+      how: `The estimate needs ${missing.map(inputWords).join(' and ')}.`,
+    };
   }
   const multiplier = basis.lagPhaseMultiplier ?? DEFAULT_SETTINGS.crop.lagPhaseMultiplier;
   const clusterWeightG = lag !== null ? harvestClusterWeightG(lag, { crop: { lagPhaseMultiplier: multiplier } }) : inputs.clusterWeightG.value!;
@@ -93,7 +106,10 @@ export function cropEstimate(basis: CropBasis, inputs: CropInputs): CropEstimate
     direct !== null
       ? `${formatNumber(direct, 1)} clusters counted a vine`
       : `${formatNumber(inputs.budsPerVine.value!, 1)} buds kept a vine × ${formatNumber(inputs.budbreakPercent.value!, 1)}% budbreak × ${formatNumber(inputs.clustersPerShoot.value!, 2)} clusters a shoot`;
-  const lagHow = lag !== null ? ` The harvest cluster weight is ${formatNumber(lag, 1)} g at lag phase × ${formatNumber(multiplier, 2)} = ${formatNumber(clusterWeightG, 1)} g.` : '';
+  const lagHow =
+    lag !== null
+      ? ` The harvest cluster weight is ${formatNumber(lag, 1)} g at lag phase × ${formatNumber(multiplier, 2)} = ${formatNumber(clusterWeightG, 1)} g.`
+      : '';
   const perArea = tonnesPerHa !== null ? ` Over ${formatNumber(areaHa, 2)} ha of planted slots that is ${formatNumber(tonnesPerHa, 1)} t/ha.` : '';
   return {
     kg,
@@ -160,7 +176,14 @@ export function labourEstimate(basis: LabourBasis, inputs: LabourInputs, setting
   const minutes = inputs.minutesPerVine.value;
   const hourlyCost = inputs.hourlyCost.value;
   if (minutes === null || hourlyCost === null) {
-    return { hours: null, cost: null, hoursPerHa: null, hoursPerAcre: null, alternative: null, how: 'The estimate needs the minutes per vine and the hourly cost.' };
+    return {
+      hours: null,
+      cost: null,
+      hoursPerHa: null,
+      hoursPerAcre: null,
+      alternative: null,
+      how: 'The estimate needs the minutes per vine and the hourly cost.',
+    };
   }
   const input = { vines: basis.vines, minutesPerVine: minutes, hourlyCost };
   const { hours, cost } = estimatePruningLabour(input);

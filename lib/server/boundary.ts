@@ -32,8 +32,7 @@ function firstHost(value: string | null) {
  * mail clients) are not from a browser page and pass; they carry no cookie a page could borrow.
  */
 export function assertSameOrigin(req: Request) {
-  const refuse = () =>
-    new AppError('cross-site', 'This change was sent from another site, so it was refused. Open Vineward itself and try again.');
+  const refuse = () => new AppError('cross-site', 'This change was sent from another site, so it was refused. Open Vineward itself and try again.');
   if (req.headers.get('sec-fetch-site')?.toLowerCase() === 'cross-site') throw refuse();
   const origin = req.headers.get('origin');
   if (origin === null) return;

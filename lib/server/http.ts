@@ -143,11 +143,7 @@ export function publicRoute<B = undefined, P = Params, Q = undefined, R = unknow
 export type { ActionState };
 
 /** The server-action twin of memberRoute: same guard, same schema, errors as form state. */
-export function memberAction<B>(
-  permission: Permission,
-  schema: ZodType<B>,
-  fn: (member: Member, input: B) => Promise<string | void>,
-) {
+export function memberAction<B>(permission: Permission, schema: ZodType<B>, fn: (member: Member, input: B) => Promise<string | void>) {
   return async (_prev: ActionState, form: FormData): Promise<ActionState> => {
     try {
       const member = await requireMember(permission);

@@ -60,7 +60,6 @@ export async function sendMail(mail: Mail) {
   await transport().sendMail({ from: getEnv().MAIL_FROM, ...mail });
 }
 
-
 /**
  * A plain, readable mail: our wordmark, a paragraph (its line breaks kept), one big link, and an
  * optional footer. Filled by concatenation only: what people wrote (comments, names, notes) may

@@ -82,7 +82,8 @@ function toMm(value: number, unit: LengthUnit) {
 }
 
 // A number ("2.4", "10 1/2", "3/8") followed by an optional unit word or mark.
-const TOKEN = /^\s*(\d+\s+\d+\/\d+|\d+\/\d+|\d+(?:\.\d+)?|\.\d+)\s*(millimet(?:re|er)s?|centimet(?:re|er)s?|met(?:re|er)s?|inch(?:es)?|feet|foot|mm|cm|ft|in|m|''|["″'′])?/;
+const TOKEN =
+  /^\s*(\d+\s+\d+\/\d+|\d+\/\d+|\d+(?:\.\d+)?|\.\d+)\s*(millimet(?:re|er)s?|centimet(?:re|er)s?|met(?:re|er)s?|inch(?:es)?|feet|foot|mm|cm|ft|in|m|''|["″'′])?/;
 
 function numberOf(text: string) {
   const [whole, fraction] = text.includes('/') ? (text.includes(' ') ? text.split(/\s+/) : ['0', text]) : [text, undefined];
@@ -135,7 +136,7 @@ export function lengthUnitLabel(system: UnitSystem, size: 'm' | 'mm'): string {
 
 /** An example of what can be typed, for form hints. */
 export function lengthExample(system: UnitSystem, size: 'm' | 'mm'): string {
-  if (size === 'm') return system === 'metric' ? 'e.g. 2.4 or 2.4 m' : "e.g. 8, 8 ft or 7 ft 6 in";
+  if (size === 'm') return system === 'metric' ? 'e.g. 2.4 or 2.4 m' : 'e.g. 8, 8 ft or 7 ft 6 in';
   return system === 'metric' ? 'e.g. 9.5 or 9.5 mm' : 'e.g. 3/8 or 0.375 in';
 }
 
@@ -164,9 +165,7 @@ export function parseAreaM2(text: string, system: UnitSystem): number | null {
 
 /** Vines per hectare or per acre for the spacings, unrounded (lib/viticulture's formula). */
 export function vinesPerAreaFor(rowSpacingM: number, vineSpacingM: number, system: UnitSystem): number {
-  return system === 'metric'
-    ? vinesPerArea(rowSpacingM, vineSpacingM, 'ha')
-    : vinesPerArea(mToFt(rowSpacingM), mToFt(vineSpacingM), 'acre');
+  return system === 'metric' ? vinesPerArea(rowSpacingM, vineSpacingM, 'ha') : vinesPerArea(mToFt(rowSpacingM), mToFt(vineSpacingM), 'acre');
 }
 
 /** "3,333 vines/ha" or "1,349 vines/acre", rounded to the vine as published tables do. */

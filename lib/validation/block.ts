@@ -28,8 +28,7 @@ const optionalWhole = (label: string, min: number, max: number) =>
     .nullish()
     .transform((v) => v ?? null);
 
-const whole = (message: string, min: number, max: number, range: string) =>
-  z.number(message).int(message).min(min, range).max(max, range);
+const whole = (message: string, min: number, max: number, range: string) => z.number(message).int(message).min(min, range).max(max, range);
 
 // Spacings are stored to the millimetre; the forms convert what was typed to metres first.
 const spacing = (label: string, min: number, max: number, range: string) =>
@@ -46,7 +45,9 @@ export const blockSchema = z.object({
   variety: z.string().trim().min(1, 'Enter the variety').max(80, 'Keep the variety under 80 characters'),
   clone: optionalText(60),
   rootstock: optionalText(60),
-  plantingYear: yearSchema('planting year').nullish().transform((v) => v ?? null),
+  plantingYear: yearSchema('planting year')
+    .nullish()
+    .transform((v) => v ?? null),
   trainingSystem: z.enum(TRAINING_SYSTEMS, 'Choose cane, spur or other'),
   rowSpacingM: spacing('row spacing', 0.5, 15, 'Row spacing must be between 0.5 m (1 ft 8 in) and 15 m (49 ft)'),
   vineSpacingM: spacing('vine spacing', 0.2, 15, 'Vine spacing must be between 0.2 m (8 in) and 15 m (49 ft)'),
@@ -83,7 +84,9 @@ export const rowVineCountSchema = z.object({
 export const slotStatusSchema = z
   .object({
     status: z.enum(SLOT_STATUSES, 'Choose planted, missing, dead or replant'),
-    year: yearSchema('year').nullish().transform((v) => v ?? null),
+    year: yearSchema('year')
+      .nullish()
+      .transform((v) => v ?? null),
     clone: optionalText(60),
     rootstock: optionalText(60),
   })
@@ -169,7 +172,10 @@ export function parseLayoutCsv(text: string, firstRow: number): LayoutCsvResult 
     if (cells.every((c) => c === '')) continue;
     if (rows.length + problems.length >= LAYOUT_LIMITS.maxRows) {
       problems.length = 0;
-      problems.push({ line, message: `The file has more than ${LAYOUT_LIMITS.maxRows.toLocaleString('en-US')} rows; a block can have at most ${LAYOUT_LIMITS.maxRows.toLocaleString('en-US')}. Nothing was changed.` });
+      problems.push({
+        line,
+        message: `The file has more than ${LAYOUT_LIMITS.maxRows.toLocaleString('en-US')} rows; a block can have at most ${LAYOUT_LIMITS.maxRows.toLocaleString('en-US')}. Nothing was changed.`,
+      });
       return fail(true);
     }
     if (cells.length > width) {

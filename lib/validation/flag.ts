@@ -52,7 +52,10 @@ export const flagListQuerySchema = z.strictObject({
   block: z.uuid('Must be the id of a block').optional(),
   status: z.enum(FLAG_STATUSES, 'Must be open, closed or all').default('open'),
   /** 1: only flags no open task works yet. */
-  untasked: z.enum(['0', '1'], 'Must be 0 or 1').default('0').transform((v) => v === '1'),
+  untasked: z
+    .enum(['0', '1'], 'Must be 0 or 1')
+    .default('0')
+    .transform((v) => v === '1'),
 });
 
 /** A manager closes a flag that needs no task (or opens it again). */

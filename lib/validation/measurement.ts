@@ -28,7 +28,12 @@ export const measurementSchema = z
     row: z.number('Enter the row number').int('Must be a whole number').min(0, 'Cannot be negative').max(100_000),
     // Left out (or null) for a row sample.
     position: z.number('Enter the vine number').int('Must be a whole number').min(1, 'Vines are numbered from 1').max(100_000).nullable().default(null),
-    vines: z.number('Enter how many vines were weighed').int('Must be a whole number').min(1, 'At least one vine').max(1000, 'At most 1000 vines in one sample').default(1),
+    vines: z
+      .number('Enter how many vines were weighed')
+      .int('Must be a whole number')
+      .min(1, 'At least one vine')
+      .max(1000, 'At most 1000 vines in one sample')
+      .default(1),
     weight: z.number('Enter the weight').min(0, 'Cannot be negative').max(100_000),
     weightUnit: z.enum(WEIGHT_UNITS, 'Choose kg or lb'),
     clusters: z.number().int('Must be a whole number').min(0, 'Cannot be negative').max(1_000_000).nullable().default(null),

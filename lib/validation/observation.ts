@@ -4,15 +4,7 @@
  * lib/viticulture/observations.ts, with bounds no real vine exceeds.
  */
 import { z } from 'zod';
-import {
-  CANE_INJURY_CAUSES,
-  EXPOSURES,
-  INJURY_SEVERITIES,
-  TRUNK_INJURY_CAUSES,
-  VINE_STATES,
-  WOOD_ORIGINS,
-  type ObservationKind,
-} from '@/lib/viticulture';
+import { CANE_INJURY_CAUSES, EXPOSURES, INJURY_SEVERITIES, TRUNK_INJURY_CAUSES, VINE_STATES, WOOD_ORIGINS, type ObservationKind } from '@/lib/viticulture';
 
 const count = (max: number) => z.number().int('Must be a whole number').min(0, 'Cannot be negative').max(max, `At most ${max}`);
 const mm = (max: number) => z.number().positive('Must be more than 0').max(max, `At most ${max} mm`);

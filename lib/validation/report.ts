@@ -30,7 +30,16 @@ export type ReportOptions = z.infer<typeof reportOptionsSchema>;
 export const REPORT_OPTION_KEYS = Object.keys(reportOptionsSchema.shape) as (keyof ReportOptions)[];
 
 /** The inputs a person can change on the page without asking the server again. */
-export const ESTIMATE_KEYS = ['budsPerVine', 'budbreakPercent', 'clustersPerShoot', 'clusterWeightG', 'clustersPerVine', 'lagClusterWeightG', 'minutesPerVine', 'hourlyCost'] as const;
+export const ESTIMATE_KEYS = [
+  'budsPerVine',
+  'budbreakPercent',
+  'clustersPerShoot',
+  'clusterWeightG',
+  'clustersPerVine',
+  'lagClusterWeightG',
+  'minutesPerVine',
+  'hourlyCost',
+] as const;
 export type EstimateKey = (typeof ESTIMATE_KEYS)[number];
 
 export function searchToOptionsRaw(search: URLSearchParams): Record<string, string> {

@@ -33,7 +33,8 @@ export const rowWorkRecordSchema = z
     }
     if (Date.parse(r.finishedAt) > Date.now() + 24 * 3600 * 1000) ctx.addIssue({ code: 'custom', message: 'Cannot be in the future', path: ['finishedAt'] });
     // A whole crew cannot log more hours than it has people for the day (with margin for a late finish).
-    if (r.crewSize >= 1 && r.personHours > r.crewSize * 24) ctx.addIssue({ code: 'custom', message: `At most ${r.crewSize * 24} person-hours for a crew of ${r.crewSize}`, path: ['personHours'] });
+    if (r.crewSize >= 1 && r.personHours > r.crewSize * 24)
+      ctx.addIssue({ code: 'custom', message: `At most ${r.crewSize * 24} person-hours for a crew of ${r.crewSize}`, path: ['personHours'] });
   });
 
 export type RowWorkRecord = z.infer<typeof rowWorkRecordSchema>;

@@ -12,9 +12,7 @@ const range = z
   .object({ min: whole, max: whole })
   .strict()
   .refine((r) => r.min <= r.max, { message: 'The lowest must not exceed the highest', path: ['max'] });
-const formula = z
-  .object({ firstUnitBuds: number, perAdditionalUnitBuds: number, unit: z.enum(['lb', 'kg'], 'Must be lb or kg') })
-  .strict();
+const formula = z.object({ firstUnitBuds: number, perAdditionalUnitBuds: number, unit: z.enum(['lb', 'kg'], 'Must be lb or kg') }).strict();
 
 const forKind = { number, integer: whole, range, formula } as const;
 

@@ -40,7 +40,10 @@ export const taskListQuerySchema = z.strictObject({
   block: z.uuid('Must be the id of a block').optional(),
   priority: z.enum(TASK_PRIORITIES, 'Must be low, normal or high').optional(),
   /** 1: include each task's vines, for the phone's offline copy. */
-  items: z.enum(['0', '1'], 'Must be 0 or 1').default('0').transform((v) => v === '1'),
+  items: z
+    .enum(['0', '1'], 'Must be 0 or 1')
+    .default('0')
+    .transform((v) => v === '1'),
 });
 
 export const taskUpdateRecordSchema = z

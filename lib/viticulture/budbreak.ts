@@ -40,11 +40,7 @@ export interface BudInjuryAdjustment {
  *   50% ... delay pruning until after bud break"). `buds` is null: no published rule gives one.
  * Buds are rounded to whole buds, half up.
  */
-export function budInjuryAdjustment(
-  targetBuds: number,
-  primaryBudKillPercent: number,
-  settings?: SettingsOverride,
-): BudInjuryAdjustment {
+export function budInjuryAdjustment(targetBuds: number, primaryBudKillPercent: number, settings?: SettingsOverride): BudInjuryAdjustment {
   requireNonNegative('targetBuds', targetBuds);
   requirePercent('primaryBudKillPercent', primaryBudKillPercent);
   const { extraFromPercent, minimalAbovePercent } = resolveSettings(settings).budInjury;

@@ -26,17 +26,7 @@ export interface CaneAssessment {
  * 100 mm"). The UI translates by code (see caneReasonCode); the English after the colon carries the
  * measured values and is for logs, reports and people reading the raw data.
  */
-export const CANE_REASON_CODES = [
-  'injured',
-  'trunk-shoot',
-  'very-thin',
-  'thin',
-  'bull-cane',
-  'shade-cane',
-  'poor-colour',
-  'flat',
-  'older-wood',
-] as const;
+export const CANE_REASON_CODES = ['injured', 'trunk-shoot', 'very-thin', 'thin', 'bull-cane', 'shade-cane', 'poor-colour', 'flat', 'older-wood'] as const;
 export type CaneReasonCode = (typeof CANE_REASON_CODES)[number];
 
 // A major fault rules the cane out on its own; minor ones make it a second choice, and enough of
@@ -115,8 +105,7 @@ export function caneFindings(input: Partial<CaneInput>, s: ViticultureSettings):
 export function judge(findings: CaneFinding[], s: ViticultureSettings): CaneAssessment {
   const majors = findings.filter((f) => MAJOR_FAULTS.has(f.code)).length;
   const minors = findings.length - majors;
-  const verdict: CaneVerdict =
-    majors > 0 || minors >= Math.max(1, s.canes.minorFaultsToRemove) ? 'remove' : minors > 0 ? 'if-nothing-better' : 'fruit-cane';
+  const verdict: CaneVerdict = majors > 0 || minors >= Math.max(1, s.canes.minorFaultsToRemove) ? 'remove' : minors > 0 ? 'if-nothing-better' : 'fruit-cane';
   return { verdict, reasons: findings.map((f) => `${f.code}: ${f.message}`) };
 }
 
@@ -131,8 +120,7 @@ export function recommendedBudsPerCane(baseDiameterMm: number, settings?: Settin
   requirePositive('baseDiameterMm', baseDiameterMm);
   const s = resolveSettings(settings);
   const { thickFromMm, thin, normal, thick } = s.budsPerCane;
-  const band =
-    baseDiameterMm > s.canes.bullAboveMm ? normal : baseDiameterMm >= thickFromMm ? thick : baseDiameterMm >= s.canes.thinBelowMm ? normal : thin;
+  const band = baseDiameterMm > s.canes.bullAboveMm ? normal : baseDiameterMm >= thickFromMm ? thick : baseDiameterMm >= s.canes.thinBelowMm ? normal : thin;
   return { min: band.min, max: band.max };
 }
 

@@ -2,14 +2,7 @@
 export { MM_PER_IN, M_PER_FT, KG_PER_LB, SQ_FT_PER_ACRE, SQ_M_PER_HA, SQ_M_PER_ACRE } from './units';
 export { inToMm, mmToIn, lbToKg, kgToLb, ftToM, mToFt, acToHa, haToAc } from './units';
 export { vinesPerAcre, vinesPerHectare, vinesPerArea, type AreaUnit } from './spacing';
-export {
-  BALANCED_PRUNING_FORMULAS,
-  GRAPE_TYPES,
-  balancedPruningBuds,
-  type BalancedPruningFormula,
-  type GrapeType,
-  type WeightUnit,
-} from './pruning';
+export { BALANCED_PRUNING_FORMULAS, GRAPE_TYPES, balancedPruningBuds, type BalancedPruningFormula, type GrapeType, type WeightUnit } from './pruning';
 export {
   CANE_REASON_CODES,
   assessCane,
@@ -21,14 +14,7 @@ export {
   type CaneVerdict,
 } from './canes';
 export { PLAN_NOTE_CODES, planVine, type PlanNoteCode, type TrainingSystem, type VinePlan, type VinePlanInput } from './plan';
-export {
-  budbreakPercent,
-  isWeakBudbreak,
-  primaryBudKillPercent,
-  budInjuryAdjustment,
-  type BudInjuryAdjustment,
-  type BudInjuryAdvice,
-} from './budbreak';
+export { budbreakPercent, isWeakBudbreak, primaryBudKillPercent, budInjuryAdjustment, type BudInjuryAdjustment, type BudInjuryAdvice } from './budbreak';
 export { normalQuantile, zForConfidence, wilsonInterval, coefficientOfVariationPercent, type ProportionInterval } from './stats';
 export { checkBudLoad, type BudLoadCheck } from './budload';
 export {

@@ -37,14 +37,7 @@ export interface VinePlan {
   notes: string[];
 }
 
-export const PLAN_NOTE_CODES = [
-  'no-usable-canes',
-  'fewer-canes-than-wanted',
-  'second-choice-canes',
-  'below-target',
-  'above-target',
-  'cordon-full',
-] as const;
+export const PLAN_NOTE_CODES = ['no-usable-canes', 'fewer-canes-than-wanted', 'second-choice-canes', 'below-target', 'above-target', 'cordon-full'] as const;
 export type PlanNoteCode = (typeof PLAN_NOTE_CODES)[number];
 
 const VERDICT_RANK: Record<CaneVerdict, number> = { 'fruit-cane': 0, 'if-nothing-better': 1, remove: 2 };
@@ -71,26 +64,24 @@ export function planVine(input: VinePlanInput): VinePlan {
   requireOneOf('trainingSystem', input.trainingSystem, ['cane', 'spur']);
   if (input.cordonLengthM !== undefined) requirePositive('cordonLengthM', input.cordonLengthM);
   const s = resolveSettings(input.settings);
-  const cordonSpurs =
-    input.cordonLengthM === undefined ? Infinity : Math.max(1, Math.floor((input.cordonLengthM * 1000) / s.plan.minSpurSpacingMm + 1e-9));
+  const cordonSpurs = input.cordonLengthM === undefined ? Infinity : Math.max(1, Math.floor((input.cordonLengthM * 1000) / s.plan.minSpurSpacingMm + 1e-9));
   const targetBuds =
-    input.pruningWeight === undefined
-      ? null
-      : balancedPruningBuds(input.pruningWeight, input.formula ?? s.pruning.formula, input.weightUnit ?? 'lb');
+    input.pruningWeight === undefined ? null : balancedPruningBuds(input.pruningWeight, input.formula ?? s.pruning.formula, input.weightUnit ?? 'lb');
 
   const ranked = input.canes
     .map((cane, index) => ({ index, cane, rank: VERDICT_RANK[assessCane(cane, s).verdict] }))
     .filter((c) => c.rank < VERDICT_RANK.remove)
     .sort(
-      (a, b) =>
-        a.rank - b.rank ||
-        Math.abs(a.cane.baseDiameterMm - s.canes.idealMm) - Math.abs(b.cane.baseDiameterMm - s.canes.idealMm) ||
-        a.index - b.index,
+      (a, b) => a.rank - b.rank || Math.abs(a.cane.baseDiameterMm - s.canes.idealMm) - Math.abs(b.cane.baseDiameterMm - s.canes.idealMm) || a.index - b.index,
     );
 
   const plan =
     input.trainingSystem === 'cane'
-      ? planCanes(ranked.map((c) => c.cane), targetBuds, s)
+      ? planCanes(
+          ranked.map((c) => c.cane),
+          targetBuds,
+          s,
+        )
       : planSpurs(Math.min(ranked.length, cordonSpurs), targetBuds, s);
   const kept = ranked.slice(0, plan.budsPerCane.length);
   const totalBuds = plan.budsPerCane.reduce((a, b) => a + b, 0) + plan.renewalSpurs * s.plan.budsPerRenewalSpur;
@@ -144,9 +135,7 @@ function planCanes(canes: CaneInput[], target: number | null, s: ViticultureSett
     const low = sum(ranges.slice(0, k).map((r) => r.min)) + spurBuds;
     const high = sum(ranges.slice(0, k).map((r) => r.max)) + spurBuds;
     const distance = target < low ? low - target : target > high ? target - high : 0;
-    const better =
-      distance < best.distance ||
-      (distance === best.distance && Math.abs(k - defaultCount) < Math.abs(best.k - defaultCount));
+    const better = distance < best.distance || (distance === best.distance && Math.abs(k - defaultCount) < Math.abs(best.k - defaultCount));
     if (better) best = { k, distance };
   }
   const k = best.k;

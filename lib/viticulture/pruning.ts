@@ -86,10 +86,7 @@ export function balancedPruningBuds(pruningWeight: number, formula: BalancedPrun
   validateFormula(formula);
   requireOneOf('unit', unit, ['lb', 'kg']);
   const weight = convertWeight(pruningWeight, unit, formula.unit);
-  const exact =
-    weight < 1
-      ? formula.firstUnitBuds * weight
-      : formula.firstUnitBuds + formula.perAdditionalUnitBuds * (weight - 1);
+  const exact = weight < 1 ? formula.firstUnitBuds * weight : formula.firstUnitBuds + formula.perAdditionalUnitBuds * (weight - 1);
   return Math.floor(exact + ROUNDING_SLACK_BUDS);
 }
 

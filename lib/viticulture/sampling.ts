@@ -57,9 +57,7 @@ export interface VineAddress {
   position: number;
 }
 
-type RowSpec =
-  | { rows: readonly number[]; rowCount?: never; firstRow?: never }
-  | { rowCount: number; firstRow?: number; rows?: never };
+type RowSpec = { rows: readonly number[]; rowCount?: never; firstRow?: never } | { rowCount: number; firstRow?: number; rows?: never };
 
 /**
  * A block for sampling: either the row numbers (`rows`) or a count of rows numbered from `firstRow`
@@ -126,13 +124,18 @@ export function samplingPlan(layout: BlockLayout, options: SamplingOptions): Vin
   if (count >= available) return walkingOrder(strata.flat());
 
   const edgeAvailable = strata.slice(4).reduce((sum, s) => sum + s.length, 0);
-  const edgeWanted =
-    options.edgeShare === undefined ? (count * edgeAvailable) / available : count * options.edgeShare;
+  const edgeWanted = options.edgeShare === undefined ? (count * edgeAvailable) / available : count * options.edgeShare;
   // Whatever one group cannot supply is taken from the other; count < available, so both fit.
   const edgeCount = Math.min(edgeAvailable, Math.max(count - (available - edgeAvailable), Math.round(edgeWanted)));
   const quotas = [
-    ...allocate(count - edgeCount, strata.slice(0, 4).map((s) => s.length)),
-    ...allocate(edgeCount, strata.slice(4).map((s) => s.length)),
+    ...allocate(
+      count - edgeCount,
+      strata.slice(0, 4).map((s) => s.length),
+    ),
+    ...allocate(
+      edgeCount,
+      strata.slice(4).map((s) => s.length),
+    ),
   ];
 
   const random = mulberry32(options.seed);

@@ -327,14 +327,7 @@ function validateSettings(s: ViticultureSettings): void {
 }
 
 function isRange(value: BudRange): boolean {
-  return (
-    value !== null &&
-    typeof value === 'object' &&
-    Number.isInteger(value.min) &&
-    Number.isInteger(value.max) &&
-    value.min >= 0 &&
-    value.min <= value.max
-  );
+  return value !== null && typeof value === 'object' && Number.isInteger(value.min) && Number.isInteger(value.max) && value.min >= 0 && value.min <= value.max;
 }
 
 function ascending<G extends keyof ViticultureSettings>(group: G, keys: string[], values: ViticultureSettings[G]): void {
@@ -372,53 +365,170 @@ export interface SettingMeta {
 }
 
 const NO_SOURCE = 'Common practice, no source.';
-const m = (label: string, unit: string, step: number, source: string, kind: SettingMeta['kind'] = 'number'): SettingMeta => ({ label, unit, step, source, kind });
+const m = (label: string, unit: string, step: number, source: string, kind: SettingMeta['kind'] = 'number'): SettingMeta => ({
+  label,
+  unit,
+  step,
+  source,
+  kind,
+});
 
 /** Every setting with its unit and the named source of its default, in the order the screen shows them. */
 export const SETTINGS_META: Readonly<Record<SettingKey, SettingMeta>> = Object.freeze({
   'canes.veryThinBelowMm': m('Very thin cane below', 'mm', 0.1, `3/16 in. ${NO_SOURCE}`),
-  'canes.thinBelowMm': m('Thin cane below', 'mm', 0.1, 'F. Westover, Wines & Vines, May 2016: fruitful wood "between 5/16 and a half inch in diameter" (5/16 in). Garden sources allow 1/4 in (6.35 mm).'),
-  'canes.bullAboveMm': m('Bull cane above', 'mm', 0.1, 'eXtension, "What are \'bull\' canes and how do I handle them?": "large diameter (greater than ½ inch)" (1/2 in).'),
+  'canes.thinBelowMm': m(
+    'Thin cane below',
+    'mm',
+    0.1,
+    'F. Westover, Wines & Vines, May 2016: fruitful wood "between 5/16 and a half inch in diameter" (5/16 in). Garden sources allow 1/4 in (6.35 mm).',
+  ),
+  'canes.bullAboveMm': m(
+    'Bull cane above',
+    'mm',
+    0.1,
+    'eXtension, "What are \'bull\' canes and how do I handle them?": "large diameter (greater than ½ inch)" (1/2 in).',
+  ),
   'canes.idealMm': m('Ideal cane diameter', 'mm', 0.1, '3/8 in, the middle of the published 1/4–1/2 in range ("about pencil thickness").'),
-  'canes.shadeInternodeAboveMm': m('Shade cane: longest internode above', 'mm', 1, 'eXtension bull-cane page: "very long internodes (5-6 inches or more)" (6 in); 4–6 in is an ordinary cane (Purdue).'),
+  'canes.shadeInternodeAboveMm': m(
+    'Shade cane: longest internode above',
+    'mm',
+    1,
+    'eXtension bull-cane page: "very long internodes (5-6 inches or more)" (6 in); 4–6 in is an ordinary cane (Purdue).',
+  ),
   'canes.minorFaultsToRemove': m('Minor faults that make a cane one to remove', 'faults', 1, NO_SOURCE, 'integer'),
   'budsPerCane.thickFromMm': m('Thick cane from', 'mm', 0.1, `7/16 in. ${NO_SOURCE}`),
   'budsPerCane.thin': m('Buds on a thin cane', 'buds', 1, 'Common practice, no source; poorly ripened canes may carry only 6–8 nodes (grovida.us).', 'range'),
   'budsPerCane.normal': m('Buds on a normal cane', 'buds', 1, 'Yuma Sun 2022: "leaving 12-15 buds"; 12–14 is the product brief\'s figure.', 'range'),
-  'budsPerCane.thick': m('Buds on a thick cane', 'buds', 1, 'Common practice, no source; canes run 10–20 nodes (Midwest Grape Production Guide, OSU B919).', 'range'),
+  'budsPerCane.thick': m(
+    'Buds on a thick cane',
+    'buds',
+    1,
+    'Common practice, no source; canes run 10–20 nodes (Midwest Grape Production Guide, OSU B919).',
+    'range',
+  ),
   'plan.canesPerVine': m('Fruit canes per vine without a bud target', 'canes', 1, 'From memory: two canes (double Guyot, bilateral cane).', 'integer'),
   'plan.maxCanesPerVine': m('Most fruit canes per vine', 'canes', 1, 'Four-cane Kniffin keeps four canes (UT PB1475; low authority).', 'integer'),
   'plan.renewalSpursPerCane': m('Renewal spurs per kept cane', 'spurs per cane', 0.5, NO_SOURCE),
-  'plan.budsPerRenewalSpur': m('Buds per renewal spur', 'buds', 1, 'Midwest Grape Production Guide (OSU B919): "Renewal spur is 1 to 2 nodes long"; Yuma Sun 2022: "only two buds".', 'integer'),
-  'plan.spursPerVine': m('Spurs per vine without a bud target', 'spurs', 1, 'Common practice, no source; 24 buds sits inside Ohio State\'s 20–50 buds per vine (2023 primer).', 'integer'),
+  'plan.budsPerRenewalSpur': m(
+    'Buds per renewal spur',
+    'buds',
+    1,
+    'Midwest Grape Production Guide (OSU B919): "Renewal spur is 1 to 2 nodes long"; Yuma Sun 2022: "only two buds".',
+    'integer',
+  ),
+  'plan.spursPerVine': m(
+    'Spurs per vine without a bud target',
+    'spurs',
+    1,
+    "Common practice, no source; 24 buds sits inside Ohio State's 20–50 buds per vine (2023 primer).",
+    'integer',
+  ),
   'plan.budsPerSpur': m('Buds per spur', 'buds', 1, 'Oxford Companion to Wine (2006), "spur pruning": spurs "retain only two buds".', 'integer'),
   'plan.maxBudsPerSpur': m('Most buds per fruiting spur', 'buds', 1, 'Common practice, no source; OSU B919 allows spurs of 2 to 6 nodes.', 'integer'),
-  'plan.minSpurSpacingMm': m('Least room along a cordon per spur', 'mm', 1, 'A. Klodd, University of Minnesota Extension (Grapevine Magazine, Nov 2022): "one spur every 3-5 inches" (3 in).'),
-  'budLoad.minBudsPerFt': m('Bud load, low end', 'buds per ft of row', 0.5, 'Ohio State, "2023 Grape Pruning Primer" (M. Smith): "approximately 4-6 buds per foot of vine spacing".'),
-  'budLoad.maxBudsPerFt': m('Bud load, high end', 'buds per ft of row', 0.5, 'Ohio State, "2023 Grape Pruning Primer" (M. Smith): "approximately 4-6 buds per foot of vine spacing".'),
-  'pruning.formula': m('Balanced-pruning formula', 'buds + buds per further unit', 1, 'Ohio State, "2023 Grape Pruning Primer": "Vinifera 20 + 20" (per lb).', 'formula'),
+  'plan.minSpurSpacingMm': m(
+    'Least room along a cordon per spur',
+    'mm',
+    1,
+    'A. Klodd, University of Minnesota Extension (Grapevine Magazine, Nov 2022): "one spur every 3-5 inches" (3 in).',
+  ),
+  'budLoad.minBudsPerFt': m(
+    'Bud load, low end',
+    'buds per ft of row',
+    0.5,
+    'Ohio State, "2023 Grape Pruning Primer" (M. Smith): "approximately 4-6 buds per foot of vine spacing".',
+  ),
+  'budLoad.maxBudsPerFt': m(
+    'Bud load, high end',
+    'buds per ft of row',
+    0.5,
+    'Ohio State, "2023 Grape Pruning Primer" (M. Smith): "approximately 4-6 buds per foot of vine spacing".',
+  ),
+  'pruning.formula': m(
+    'Balanced-pruning formula',
+    'buds + buds per further unit',
+    1,
+    'Ohio State, "2023 Grape Pruning Primer": "Vinifera 20 + 20" (per lb).',
+    'formula',
+  ),
   'budbreak.weakBelowPercent': m('Weak budbreak below', '%', 1, 'No published threshold exists. Common practice, no source.'),
   'budbreak.poorBelowPercent': m('Poor budbreak below', '%', 1, 'No published threshold exists. Common practice, no source.'),
   'budbreak.failedBelowPercent': m('Failed budbreak below', '%', 1, 'No published threshold exists. Common practice, no source.'),
-  'budInjury.extraFromPercent': m('Leave extra buds from primary bud kill', '%', 1, 'Cornell Northern New York Grape Update (28 Feb 2014): "if <20% of buds are injured, you don\'t need to leave extra buds".'),
-  'budInjury.minimalAbovePercent': m('Prune minimally above primary bud kill', '%', 1, 'Purdue, Facts for Fancy Fruit, "Double pruning grapevines": ">50% bud damage- Minimally prune".'),
-  'ravaz.underBelow': m('Ravaz index: under-cropped below', 'kg/kg', 0.5, 'Wines & Vines, June 2017: "the optimum Ravaz Index ... can range from 5 to 10" (vinifera). Concord-type grapes read against 10–20 (Bates, Cornell) whatever this says.'),
-  'ravaz.overAbove': m('Ravaz index: over-cropped above', 'kg/kg', 0.5, 'Wines & Vines, June 2017: "the optimum Ravaz Index ... can range from 5 to 10" (vinifera). Concord-type grapes read against 10–20 (Bates, Cornell) whatever this says.'),
+  'budInjury.extraFromPercent': m(
+    'Leave extra buds from primary bud kill',
+    '%',
+    1,
+    'Cornell Northern New York Grape Update (28 Feb 2014): "if <20% of buds are injured, you don\'t need to leave extra buds".',
+  ),
+  'budInjury.minimalAbovePercent': m(
+    'Prune minimally above primary bud kill',
+    '%',
+    1,
+    'Purdue, Facts for Fancy Fruit, "Double pruning grapevines": ">50% bud damage- Minimally prune".',
+  ),
+  'ravaz.underBelow': m(
+    'Ravaz index: under-cropped below',
+    'kg/kg',
+    0.5,
+    'Wines & Vines, June 2017: "the optimum Ravaz Index ... can range from 5 to 10" (vinifera). Concord-type grapes read against 10–20 (Bates, Cornell) whatever this says.',
+  ),
+  'ravaz.overAbove': m(
+    'Ravaz index: over-cropped above',
+    'kg/kg',
+    0.5,
+    'Wines & Vines, June 2017: "the optimum Ravaz Index ... can range from 5 to 10" (vinifera). Concord-type grapes read against 10–20 (Bates, Cornell) whatever this says.',
+  ),
   'trunkInjury.actAbovePercent': m('Trunk girdling: act above', '% of circumference', 1, NO_SOURCE),
-  'trunkInjury.urgentAbovePercent': m('Trunk girdling: urgent above', '% of circumference', 1, 'Common practice, no source: past half the circumference the trunk is usually renewed.'),
-  'caneInjury.urgentFromCanes': m('Cane injury urgent from', 'canes', 1, 'Common practice, no source: a two-cane vine with three badly hurt canes has no good spare.', 'integer'),
+  'trunkInjury.urgentAbovePercent': m(
+    'Trunk girdling: urgent above',
+    '% of circumference',
+    1,
+    'Common practice, no source: past half the circumference the trunk is usually renewed.',
+  ),
+  'caneInjury.urgentFromCanes': m(
+    'Cane injury urgent from',
+    'canes',
+    1,
+    'Common practice, no source: a two-cane vine with three badly hurt canes has no good spare.',
+    'integer',
+  ),
   'pruningRecord.fineWithinPercent': m('Pruning record fine within', '% of target', 1, NO_SOURCE),
   'pruningRecord.watchWithinPercent': m('Pruning record watch within', '% of target', 1, NO_SOURCE),
   'pruningRecord.actWithinPercent': m('Pruning record act within', '% of target', 1, NO_SOURCE),
   'crop.clustersPerShoot': m('Clusters per shoot', 'clusters', 0.1, 'From memory: fruitful vinifera shoots carry one to two clusters.'),
-  'crop.clusterWeightG': m('Cluster weight at harvest', 'g', 1, 'From memory: wine-grape clusters run from about 50 g to over 250 g; enter the block\'s own.'),
-  'crop.lagPhaseMultiplier': m('Lag-phase cluster-weight multiplier', '×', 0.1, 'J. Fiola, University of Maryland Extension, "Crop Estimation": "cluster weights will double from lag phase to harvest".'),
-  'crop.yieldCvPercent': m('Yield per vine: coefficient of variation', '%', 1, 'From memory (Wolpert & Vilas, AJEV 1992): vine yields commonly vary with a CV near 30%.'),
-  'crop.sampleMarginPercent': m('Crop estimate margin', '% of the mean', 1, 'BC Wine Grape Council best-practice guide: "a good estimate will not vary by more than 10%".'),
-  'crop.bearingAfterSeasons': m('A replant bears after', 'seasons', 1, 'Common practice, no source: a replant carries its first real crop in its third leaf.', 'integer'),
-  'labour.spurMinutesPerVine': m('Spur pruning time', 'min per vine', 0.05, 'Common practice, no source (Martinson & Vanden Heuvel, Cornell: each minute per vine is 13.5 h per acre at 807 vines/acre).'),
+  'crop.clusterWeightG': m('Cluster weight at harvest', 'g', 1, "From memory: wine-grape clusters run from about 50 g to over 250 g; enter the block's own."),
+  'crop.lagPhaseMultiplier': m(
+    'Lag-phase cluster-weight multiplier',
+    '×',
+    0.1,
+    'J. Fiola, University of Maryland Extension, "Crop Estimation": "cluster weights will double from lag phase to harvest".',
+  ),
+  'crop.yieldCvPercent': m(
+    'Yield per vine: coefficient of variation',
+    '%',
+    1,
+    'From memory (Wolpert & Vilas, AJEV 1992): vine yields commonly vary with a CV near 30%.',
+  ),
+  'crop.sampleMarginPercent': m(
+    'Crop estimate margin',
+    '% of the mean',
+    1,
+    'BC Wine Grape Council best-practice guide: "a good estimate will not vary by more than 10%".',
+  ),
+  'crop.bearingAfterSeasons': m(
+    'A replant bears after',
+    'seasons',
+    1,
+    'Common practice, no source: a replant carries its first real crop in its third leaf.',
+    'integer',
+  ),
+  'labour.spurMinutesPerVine': m(
+    'Spur pruning time',
+    'min per vine',
+    0.05,
+    'Common practice, no source (Martinson & Vanden Heuvel, Cornell: each minute per vine is 13.5 h per acre at 807 vines/acre).',
+  ),
   'labour.caneMinutesPerVine': m('Cane pruning time', 'min per vine', 0.05, 'From memory: cane pruning takes about 1.5 to 2 times the hours of spur pruning.'),
-  'labour.hourlyCost': m('Cost of an hour of pruning', 'per hour', 0.5, 'No source: a placeholder, since every crew\'s rate differs; set your own.'),
+  'labour.hourlyCost': m('Cost of an hour of pruning', 'per hour', 0.5, "No source: a placeholder, since every crew's rate differs; set your own."),
 });
 
 export const SETTING_KEYS = Object.keys(SETTINGS_META) as SettingKey[];

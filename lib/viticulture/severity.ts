@@ -47,10 +47,7 @@ const RULES: { [K in ObservationKind]: Rule<K> } = {
     requireNonNegative('longestInternodeMm', d.longestInternodeMm);
     requireOneOf('exposure', d.exposure, EXPOSURES);
     if (d.diameterMm !== undefined) requirePositive('diameterMm', d.diameterMm);
-    return caneSeverity(
-      { longestInternodeMm: d.longestInternodeMm, exposure: d.exposure, colourGood: d.colourGood, baseDiameterMm: d.diameterMm },
-      s,
-    );
+    return caneSeverity({ longestInternodeMm: d.longestInternodeMm, exposure: d.exposure, colourGood: d.colourGood, baseDiameterMm: d.diameterMm }, s);
   },
   // Weak (settings.budbreak.weakBelowPercent) 1, poor 2, failed 3; no published threshold exists.
   'weak-budbreak': (d, s) => {
@@ -137,11 +134,7 @@ function caneSeverity(input: Parameters<typeof caneFindings>[0], s: ViticultureS
 }
 
 /** Severity of one observation, 0 (fine) to 3 (urgent). Invalid data throws a RangeError. */
-export function observationSeverity<K extends ObservationKind>(
-  kind: K,
-  data: ObservationData<K>,
-  settings?: SettingsOverride,
-): Severity {
+export function observationSeverity<K extends ObservationKind>(kind: K, data: ObservationData<K>, settings?: SettingsOverride): Severity {
   requireOneOf('kind', kind, OBSERVATION_KINDS);
   if (data === null || typeof data !== 'object') throw new RangeError(`data for '${kind}' must be an object`);
   return (RULES[kind] as Rule<K>)(data, resolveSettings(settings));

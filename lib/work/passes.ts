@@ -14,5 +14,4 @@ export const PASS_LABELS: Record<RowWorkPass, string> = {
   'shoot-thinning': 'Shoot thinning',
 };
 
-export const isRowWorkPass = (value: unknown): value is RowWorkPass =>
-  typeof value === 'string' && (ROW_WORK_PASSES as readonly string[]).includes(value);
+export const isRowWorkPass = (value: unknown): value is RowWorkPass => typeof value === 'string' && (ROW_WORK_PASSES as readonly string[]).includes(value);

@@ -5,8 +5,22 @@ import { existsSync, readdirSync, readFileSync, statSync, utimesSync, writeFileS
 import path from 'node:path';
 import { log, root, run, track, waitForPort } from './services';
 
-const SOURCES = ['app', 'components', 'lib', 'service-worker', 'public', 'types', 'proxy.ts', 'instrumentation.ts', 'instrumentation-node.ts',
-  'next.config.mjs', 'tailwind.config.ts', 'postcss.config.mjs', 'package-lock.json', 'tsconfig.json'];
+const SOURCES = [
+  'app',
+  'components',
+  'lib',
+  'service-worker',
+  'public',
+  'types',
+  'proxy.ts',
+  'instrumentation.ts',
+  'instrumentation-node.ts',
+  'next.config.mjs',
+  'tailwind.config.ts',
+  'postcss.config.mjs',
+  'package-lock.json',
+  'tsconfig.json',
+];
 
 function walk(entry: string, out: string[]) {
   const full = path.join(root, entry);

@@ -219,13 +219,23 @@ export async function startNode(name: string, script: string, args: string[], po
 export function startS3Fake(o: { port: number; dir: string; bucket: string; origins: string[] }) {
   const originArgs = o.origins.flatMap((origin) => ['--origin', origin]);
   // It listens before the bucket's CORS rule is set: ready is its own "listening" line.
-  return startNode('s3-fake', 'docker-free-s3-fake/server.ts',
-    ['--port', String(o.port), '--dir', o.dir, '--bucket', o.bucket, ...originArgs], o.port, undefined, 'listening');
+  return startNode(
+    's3-fake',
+    'docker-free-s3-fake/server.ts',
+    ['--port', String(o.port), '--dir', o.dir, '--bucket', o.bucket, ...originArgs],
+    o.port,
+    undefined,
+    'listening',
+  );
 }
 
 export async function startSmtpFake(o: { smtpPort: number; httpPort: number }) {
-  const child = await startNode('smtp-fake', 'docker-free-smtp-fake/server.ts',
-    ['--smtp-port', String(o.smtpPort), '--http-port', String(o.httpPort)], o.smtpPort);
+  const child = await startNode(
+    'smtp-fake',
+    'docker-free-smtp-fake/server.ts',
+    ['--smtp-port', String(o.smtpPort), '--http-port', String(o.httpPort)],
+    o.smtpPort,
+  );
   await waitForPort(o.httpPort);
   return child;
 }

@@ -18,5 +18,8 @@ export function percentile(sortedMs: number[], p: number) {
 }
 
 export function median(values: number[]) {
-  return percentile([...values].sort((a, b) => a - b), 50);
+  return percentile(
+    [...values].sort((a, b) => a - b),
+    50,
+  );
 }

@@ -84,7 +84,9 @@ async function time(ctx: BenchContext, label: string, client: Client, before?: (
     if (i >= 3) runs.push(performance.now() - t);
   }
   const sorted = [...runs].sort((a, b) => a - b);
-  ctx.report(`desk route, ${label}: median ${median(sorted).toFixed(0)} ms, p95 ${percentile(sorted, 95).toFixed(0)} ms over ${RUNS} requests (no target set yet)`);
+  ctx.report(
+    `desk route, ${label}: median ${median(sorted).toFixed(0)} ms, p95 ${percentile(sorted, 95).toFixed(0)} ms over ${RUNS} requests (no target set yet)`,
+  );
 }
 
 /** The Desk over a season of 400,000 records: a manager whose last look was a day ago, and the advisor of two estates. */
@@ -97,7 +99,10 @@ export default async function deskBench(ctx: BenchContext) {
     const managerId = (await ctx.db('users').where({ email: 'manager@example.com' }).first('id')).id as string;
     // Each request is a look; the window is held at a day so every run reads the same findings.
     const dayAgo = async () => {
-      await ctx.db('desk_looks').where({ user_id: managerId, organisation_id: org }).update({ since: ctx.db.raw(`now() - interval '1 day'`), looked_at: ctx.db.fn.now() });
+      await ctx
+        .db('desk_looks')
+        .where({ user_id: managerId, organisation_id: org })
+        .update({ since: ctx.db.raw(`now() - interval '1 day'`), looked_at: ctx.db.fn.now() });
     };
     await manager.fetch('/api/desk');
     await time(ctx, 'manager, last look a day ago', manager, dayAgo);

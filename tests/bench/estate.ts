@@ -66,8 +66,17 @@ export async function makeEstate(db: Knex, size: EstateSize, log: (line: string)
   const blockIds = Array.from({ length: size.blocks }, (_, i) => blockId(i));
   await db('blocks').insert(
     blockIds.map((id, i) => ({
-      id, organisation_id: ESTATE_ORG, name: `Estate block ${i + 1}`, variety: i % 2 ? 'Riesling' : 'Pinot noir', training_system: 'cane',
-      planting_year: 2012, row_spacing_m: 2.4, vine_spacing_m: 1.2, row_count: size.side, vines_per_row: size.side, vines_per_panel: 5,
+      id,
+      organisation_id: ESTATE_ORG,
+      name: `Estate block ${i + 1}`,
+      variety: i % 2 ? 'Riesling' : 'Pinot noir',
+      training_system: 'cane',
+      planting_year: 2012,
+      row_spacing_m: 2.4,
+      vine_spacing_m: 1.2,
+      row_count: size.side,
+      vines_per_row: size.side,
+      vines_per_panel: 5,
     })),
   );
   await time('blocks and vines', log, async () => {
@@ -141,8 +150,15 @@ export async function makeEstate(db: Knex, size: EstateSize, log: (line: string)
     managerEmail: 'estate-manager@example.com',
     scoutEmail: 'estate-scout@example.com',
     manager: {
-      userId: manager.id, email: 'estate-manager@example.com', name: 'Estate Manager', organisationId: ESTATE_ORG, organisationName: 'Bench Estate',
-      unitSystem: org.unit_system, seasonStartMonth: org.season_start_month, role: 'manager', memberships: [],
+      userId: manager.id,
+      email: 'estate-manager@example.com',
+      name: 'Estate Manager',
+      organisationId: ESTATE_ORG,
+      organisationName: 'Bench Estate',
+      unitSystem: org.unit_system,
+      seasonStartMonth: org.season_start_month,
+      role: 'manager',
+      memberships: [],
     },
     vines,
     seconds: (Date.now() - started) / 1000,

@@ -11,7 +11,11 @@ const SAMPLES = 30;
 const PARALLEL = 8;
 const WAVES = 2;
 
-const p95 = (ms: number[]) => percentile([...ms].sort((a, b) => a - b), 95);
+const p95 = (ms: number[]) =>
+  percentile(
+    [...ms].sort((a, b) => a - b),
+    95,
+  );
 
 async function uploadOne(scout: Client, observationId: string, bytes: Buffer) {
   const id = randomUUID();
@@ -39,7 +43,9 @@ export default async function faultsBench(ctx: BenchContext) {
   await scout.signIn('scout@example.com', 'vineward-demo');
   const observationId = randomUUID();
   await scout.json('/api/sync', 'POST', {
-    observations: [{ id: observationId, blockId: UPPER_TERRACE, row: 1, position: 1, kind: 'note', data: {}, note: 'bench', observedAt: new Date().toISOString() }],
+    observations: [
+      { id: observationId, blockId: UPPER_TERRACE, row: 1, position: 1, kind: 'note', data: {}, note: 'bench', observedAt: new Date().toISOString() },
+    ],
   });
 
   // Baseline first, then the same requests with the store stalled and 20 confirms waiting on it.
@@ -53,7 +59,18 @@ export default async function faultsBench(ctx: BenchContext) {
       grid.push(performance.now() - t);
       t = performance.now();
       const s = await scout.json('/api/sync', 'POST', {
-        observations: [{ id: randomUUID(), blockId: UPPER_TERRACE, row: 2, position: 1 + (i % 50), kind: 'note', data: {}, note: 'stall bench', observedAt: new Date().toISOString() }],
+        observations: [
+          {
+            id: randomUUID(),
+            blockId: UPPER_TERRACE,
+            row: 2,
+            position: 1 + (i % 50),
+            kind: 'note',
+            data: {},
+            note: 'stall bench',
+            observedAt: new Date().toISOString(),
+          },
+        ],
       });
       await s.arrayBuffer();
       sync.push(performance.now() - t);

@@ -55,9 +55,12 @@ async function fillBlock(ctx: BenchContext) {
   await db.raw('vacuum analyze observations, grid_vines, grid_counts');
   await new Promise((resolve) => setTimeout(resolve, 2000));
   await db.raw('vacuum observations, grid_vines');
-  const visible = (await db.raw(`select round(100.0 * relallvisible / greatest(relpages, 1)) as percent from pg_class where relname = 'observations'`)).rows[0].percent;
+  const visible = (await db.raw(`select round(100.0 * relallvisible / greatest(relpages, 1)) as percent from pg_class where relname = 'observations'`)).rows[0]
+    .percent;
   const total = (await db('observations').where({ block_id: CREEK_FLAT }).whereNull('deleted_at').count({ n: '*' }).first())!.n;
-  ctx.report(`grid: ${Number(total).toLocaleString('en-US')} live observations on Creek Flat (150 × 150), made in ${((Date.now() - started) / 1000).toFixed(1)} s, ${visible}% of pages all-visible`);
+  ctx.report(
+    `grid: ${Number(total).toLocaleString('en-US')} live observations on Creek Flat (150 × 150), made in ${((Date.now() - started) / 1000).toFixed(1)} s, ${visible}% of pages all-visible`,
+  );
 }
 
 async function timeRoute(ctx: BenchContext) {
@@ -118,7 +121,9 @@ async function timeFirstRender(ctx: BenchContext, browser: Browser) {
     for (let i = 0; i < 8; i++) {
       await page.goto(`/grid/${CREEK_FLAT}`);
       await page.waitForFunction(() => performance.getEntriesByName('vw-grid-painted').length > 0, undefined, { timeout: 30_000 });
-      const [data, draw, paint] = await page.evaluate(() => ['vw-grid-data', 'vw-grid-drawn', 'vw-grid-painted'].map((n) => performance.getEntriesByName(n)[0]!.startTime));
+      const [data, draw, paint] = await page.evaluate(() =>
+        ['vw-grid-data', 'vw-grid-drawn', 'vw-grid-painted'].map((n) => performance.getEntriesByName(n)[0]!.startTime),
+      );
       if (i === 0) continue;
       drawn.push(draw! - data!);
       painted.push(paint! - data!);

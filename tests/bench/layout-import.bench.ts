@@ -59,8 +59,10 @@ export default async function layoutImportBench(ctx: BenchContext) {
   }
   for (const id of created) await ctx.db('blocks').where({ id }).delete();
   const line = (what: string, times: number[], target: number) =>
-    `${what}: median ${median(times).toFixed(0)} ms, p95 ${percentile([...times].sort((x, y) => x - y), 95).toFixed(0)} ms ` +
-    `(target < ${target} ms, ratio ${(median(times) / target).toFixed(2)} of target)`;
+    `${what}: median ${median(times).toFixed(0)} ms, p95 ${percentile(
+      [...times].sort((x, y) => x - y),
+      95,
+    ).toFixed(0)} ms ` + `(target < ${target} ms, ratio ${(median(times) / target).toFixed(2)} of target)`;
   ctx.report(line('layout CSV preview, 150 × 150 with statuses', preview, 1000));
   ctx.report(line('layout CSV apply, 150 × 150 with statuses onto a 2 × 2 block', apply, 2000));
   ctx.report(line('create a 150 × 150 block from the form route', createLarge, 2000));

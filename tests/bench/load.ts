@@ -62,12 +62,20 @@ async function drive(base: string, cookies: { scout: string; manager: string }, 
     while (performance.now() < until) {
       const blockId = estate.blockIds[d % estate.blockIds.length]!;
       const observations = Array.from({ length: DEVICE_BATCH }, (_, i) => ({
-        id: randomUUID(), blockId, row: 1 + ((d * 7 + i) % side), position: 1 + ((d * 13 + i * 3) % side), kind: 'note', data: {},
-        note: `load ${d}`, observedAt: new Date().toISOString(),
+        id: randomUUID(),
+        blockId,
+        row: 1 + ((d * 7 + i) % side),
+        position: 1 + ((d * 13 + i * 3) % side),
+        kind: 'note',
+        data: {},
+        note: `load ${d}`,
+        observedAt: new Date().toISOString(),
       }));
       const t = performance.now();
       const res = await fetch(`${base}/api/sync`, {
-        method: 'POST', headers: { cookie: cookies.scout, 'content-type': 'application/json' }, body: JSON.stringify({ observations }),
+        method: 'POST',
+        headers: { cookie: cookies.scout, 'content-type': 'application/json' },
+        body: JSON.stringify({ observations }),
       }).catch(() => undefined);
       const ok = res?.status === 200 && ((await res.json()) as { results: { status: string }[] }).results.every((r) => r.status === 'created');
       run.syncMs.push(performance.now() - t);
@@ -79,7 +87,9 @@ async function drive(base: string, cookies: { scout: string; manager: string }, 
     let i = m;
     while (performance.now() < until) {
       const t = performance.now();
-      const res = await fetch(`${base}/api/grid/${estate.blockIds[i++ % estate.blockIds.length]}`, { headers: { cookie: cookies.manager } }).catch(() => undefined);
+      const res = await fetch(`${base}/api/grid/${estate.blockIds[i++ % estate.blockIds.length]}`, { headers: { cookie: cookies.manager } }).catch(
+        () => undefined,
+      );
       if (res) await res.arrayBuffer();
       run.gridMs.push(performance.now() - t);
       if (res?.status !== 200) run.failures++;

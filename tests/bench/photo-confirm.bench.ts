@@ -22,7 +22,9 @@ export default async function photoConfirmBench(ctx: BenchContext) {
   const photo = await twelveMegapixel();
   const observationId = randomUUID();
   await scout.json('/api/sync', 'POST', {
-    observations: [{ id: observationId, blockId: UPPER_TERRACE, row: 1, position: 1, kind: 'note', data: {}, note: 'bench', observedAt: new Date().toISOString() }],
+    observations: [
+      { id: observationId, blockId: UPPER_TERRACE, row: 1, position: 1, kind: 'note', data: {}, note: 'bench', observedAt: new Date().toISOString() },
+    ],
   });
   const times: number[] = [];
   for (let i = 0; i <= RUNS; i++) {

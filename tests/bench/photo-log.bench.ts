@@ -32,7 +32,13 @@ export default async function photoLogBench(ctx: BenchContext) {
   const browser = await chromium.launch(playwrightConfig.use?.launchOptions);
   try {
     // No service worker: every byte is fetched and counted.
-    const context = await browser.newContext({ baseURL: ctx.appUrl, viewport: { width: 360, height: 740 }, isMobile: true, hasTouch: true, serviceWorkers: 'block' });
+    const context = await browser.newContext({
+      baseURL: ctx.appUrl,
+      viewport: { width: 360, height: 740 },
+      isMobile: true,
+      hasTouch: true,
+      serviceWorkers: 'block',
+    });
     const page = await context.newPage();
     await page.goto('/signin');
     await page.getByLabel('E-mail').fill('manager@example.com');
@@ -74,7 +80,11 @@ export default async function photoLogBench(ctx: BenchContext) {
       } else if (/^\/api\/photos\/[0-9a-f-]{36}$/.test(url.pathname)) redirectBytes += size;
       else if (url.pathname === '/api/photos') listBytes += size;
     }
-    const ids = await page.evaluate((n) => [...document.querySelectorAll<HTMLImageElement>('[data-testid="photo-log"] img')].slice(0, n).map((img) => new URL(img.src).pathname.split('/').pop()!), SHOWN);
+    const ids = await page.evaluate(
+      (n) =>
+        [...document.querySelectorAll<HTMLImageElement>('[data-testid="photo-log"] img')].slice(0, n).map((img) => new URL(img.src).pathname.split('/').pop()!),
+      SHOWN,
+    );
     const originalBytes = Number((await ctx.db('photos').where({ organisation_id: org }).whereIn('id', ids).sum({ n: 'bytes' }).first())!.n);
     ctx.report(
       `photo log, first ${SHOWN} thumbnails on a phone: ${kb(thumbBytes)} of images from storage (${thumbs} thumbnails, ${kb(thumbBytes / Math.max(1, thumbs))} each on average, ` +

@@ -33,8 +33,15 @@ export async function fillEstate(ctx: BenchContext) {
   for (const [i, id] of BLOCKS.entries()) {
     if (await db('blocks').where({ id }).first('id')) continue;
     await db('blocks').insert({
-      id, organisation_id: ORG, name: `Bench block ${i + 1}`, variety: 'Bench Noir', training_system: i % 2 ? 'spur' : 'cane',
-      row_spacing_m: 2.5, vine_spacing_m: 1.2, row_count: 150, vines_per_row: 150,
+      id,
+      organisation_id: ORG,
+      name: `Bench block ${i + 1}`,
+      variety: 'Bench Noir',
+      training_system: i % 2 ? 'spur' : 'cane',
+      row_spacing_m: 2.5,
+      vine_spacing_m: 1.2,
+      row_count: 150,
+      vines_per_row: 150,
     });
     await db.raw(`insert into block_rows (block_id, row_number, vine_count) select ?, r, 150 from generate_series(1, 150) r`, [id]);
     // One slot in forty empty, as in an older block.
@@ -59,7 +66,9 @@ export async function fillEstate(ctx: BenchContext) {
   );
   await db.raw('vacuum analyze row_work, vine_positions, block_rows');
   const n = (await db('row_work').where({ organisation_id: ORG }).count({ n: '*' }).first())!.n;
-  ctx.report(`row work: ${Number(n).toLocaleString('en-US')} records over 9 blocks of 150 × 150 in every pass, made in ${((Date.now() - started) / 1000).toFixed(1)} s`);
+  ctx.report(
+    `row work: ${Number(n).toLocaleString('en-US')} records over 9 blocks of 150 × 150 in every pass, made in ${((Date.now() - started) / 1000).toFixed(1)} s`,
+  );
 }
 
 const ms = (xs: number[]) => {
@@ -93,7 +102,15 @@ export default async function rowWorkBench(ctx: BenchContext) {
     const ids = blocks.map((b) => b.id);
     const [coverage, days] = await Promise.all([q.countCoverage(ctx.db, ORG, ids, period), q.listWorkDays(ctx.db, ORG, ids, period)]);
     const pay = { basis: 'hourly', hourlyRate: 30, pieceRatePerVine: null } as const;
-    blocks.map((block) => buildBlockProgress({ block, rows: coverage.rows.get(block.id) ?? [], leads: coverage.leads.get(block.id) ?? [], workDays: days.get(block.id) ?? {}, pay }));
+    blocks.map((block) =>
+      buildBlockProgress({
+        block,
+        rows: coverage.rows.get(block.id) ?? [],
+        leads: coverage.leads.get(block.id) ?? [],
+        workDays: days.get(block.id) ?? {},
+        pay,
+      }),
+    );
     if (i >= 3) estate.push(performance.now() - t);
   }
   ctx.report(`estate progress (loadEstateProgress's statements and assembly), 9 blocks of 150 × 150: ${ms(estate)} (target p95 < 500 ms) over 15 runs`);
@@ -106,5 +123,7 @@ export default async function rowWorkBench(ctx: BenchContext) {
     if (res.status !== 200) throw new Error(`work page answered ${res.status}`);
     if (i >= 2) page.push(performance.now() - t);
   }
-  ctx.report(`estate work page (server render), 9 blocks of 150 × 150: ${ms(page)} (target p95 < 800 ms) over 10 requests; load average ${loadavg()[0]!.toFixed(1)} while measuring`);
+  ctx.report(
+    `estate work page (server render), 9 blocks of 150 × 150: ${ms(page)} (target p95 < 800 ms) over 10 requests; load average ${loadavg()[0]!.toFixed(1)} while measuring`,
+  );
 }

@@ -57,12 +57,22 @@ async function grids(ctx: BenchContext, estate: Estate, manager: Client) {
   const perBlock: string[] = [];
   for (const [i, id] of estate.blockIds.entries()) {
     const statements = gridStatements(estate.manager.organisationId, id, 'ascending', filters);
-    const t = await pair(runs, async () => ok(await manager.fetch(`/api/grid/${id}`)), () => runGridStatements(ctx.db, statements));
+    const t = await pair(
+      runs,
+      async () => ok(await manager.fetch(`/api/grid/${id}`)),
+      () => runGridStatements(ctx.db, statements),
+    );
     all.route.push(...t.route);
     all.bare.push(...t.bare);
     perBlock.push(`block ${i + 1} p95 ${ms(percentile(t.route, 95))} (${(median(t.route) / median(t.bare)).toFixed(2)}×)`);
   }
-  ctx.report(line(`scale grid route, all open findings, ${estate.blockIds.length} blocks of ${estate.size.side} × ${estate.size.side}`, { route: sorted(all.route), bare: sorted(all.bare) }, 'target p95 ≤ 60 ms, route/SQL ≤ 1.3'));
+  ctx.report(
+    line(
+      `scale grid route, all open findings, ${estate.blockIds.length} blocks of ${estate.size.side} × ${estate.size.side}`,
+      { route: sorted(all.route), bare: sorted(all.bare) },
+      'target p95 ≤ 60 ms, route/SQL ≤ 1.3',
+    ),
+  );
   ctx.report(`scale grid route per block: ${perBlock.join('; ')}`);
 }
 
@@ -75,7 +85,11 @@ async function reports(ctx: BenchContext, estate: Estate, manager: Client) {
   ctx.report(
     line(
       `scale block report (${estate.size.side} × ${estate.size.side}, ${SEASON} with ${SEASON - 1} beside it)`,
-      await pair(runs, async () => ok(await manager.fetch(`/api/reports/blocks/${block}?season=${SEASON}`)), () => loadBlockReport(estate.manager, block, options)),
+      await pair(
+        runs,
+        async () => ok(await manager.fetch(`/api/reports/blocks/${block}?season=${SEASON}`)),
+        () => loadBlockReport(estate.manager, block, options),
+      ),
       'target p95 ≤ 1,500 ms',
       'the service in-process',
     ),
@@ -83,7 +97,11 @@ async function reports(ctx: BenchContext, estate: Estate, manager: Client) {
   ctx.report(
     line(
       `scale estate report (${estate.blockIds.length} blocks, ${SEASON})`,
-      await pair(runs, async () => ok(await manager.fetch(`/api/reports?season=${SEASON}`)), () => loadEstateReport(estate.manager, options)),
+      await pair(
+        runs,
+        async () => ok(await manager.fetch(`/api/reports?season=${SEASON}`)),
+        () => loadEstateReport(estate.manager, options),
+      ),
       'target p95 ≤ 1,500 ms',
       'the service in-process',
     ),
@@ -131,7 +149,11 @@ async function progress(ctx: BenchContext, estate: Estate, manager: Client) {
   ctx.report(
     line(
       `scale work progress (one block, 5 passes over ${estate.size.side} rows)`,
-      await pair(ctx.scale === 'full' ? 20 : 10, async () => ok(await manager.fetch(`/api/blocks/${block}/progress?season=${SEASON}`)), () => blockProgressContract(estate.manager, block, SEASON)),
+      await pair(
+        ctx.scale === 'full' ? 20 : 10,
+        async () => ok(await manager.fetch(`/api/blocks/${block}/progress?season=${SEASON}`)),
+        () => blockProgressContract(estate.manager, block, SEASON),
+      ),
       'no target of its own',
       'the service in-process',
     ),
@@ -154,7 +176,9 @@ async function photoLog(ctx: BenchContext, estate: Estate, manager: Client) {
     },
     () => listPhotoLog(ctx.db, estate.manager.organisationId, filters, cursor ? decodeCursor(cursor) : null, 30),
   );
-  ctx.report(line(`scale photo log page (30 of ${estate.size.photos.toLocaleString('en-US')} photos, newest first, paged by cursor)`, t, 'target p95 ≤ 100 ms'));
+  ctx.report(
+    line(`scale photo log page (30 of ${estate.size.photos.toLocaleString('en-US')} photos, newest first, paged by cursor)`, t, 'target p95 ≤ 100 ms'),
+  );
 }
 
 export default async function scaleBench(ctx: BenchContext) {
@@ -173,7 +197,11 @@ export default async function scaleBench(ctx: BenchContext) {
     await progress(ctx, estate, manager);
     await photoLog(ctx, estate, manager);
     await exportCsv(ctx, estate, manager);
-    await measureIngest(ctx, { blockId: estate.blockIds[1]!, rows: size.side, vinesPerRow: size.side, email: estate.scoutEmail }, `, into the estate's ${size.observations.toLocaleString('en-US')}`);
+    await measureIngest(
+      ctx,
+      { blockId: estate.blockIds[1]!, rows: size.side, vinesPerRow: size.side, email: estate.scoutEmail },
+      `, into the estate's ${size.observations.toLocaleString('en-US')}`,
+    );
     if (!process.argv.includes('--no-load')) await underLoad(ctx, estate);
   } finally {
     if (!process.env.BENCH_KEEP_ESTATE) await dropEstate(ctx.db);

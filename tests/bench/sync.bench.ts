@@ -65,10 +65,24 @@ export async function measureIngest(ctx: BenchContext, t: IngestTarget, label: s
   const member = await ctx.db('users as u').join('memberships as m', 'm.user_id', 'u.id').where('u.email', t.email).first('u.id', 'm.organisation_id');
   // The route's one statement run from here: what the database spends, without HTTP, session and validation.
   const statement = () =>
-    ingestObservations(ctx.db, member.organisation_id, member.id, false, records(BATCH, t).map((r) => ({
-      id: r.id, block_id: r.blockId, row_number: r.row, position: r.position, kind: r.kind, data: r.data, note: r.note,
-      observed_at: r.observedAt, severity: 1, payload_sha256: 'bench',
-    })));
+    ingestObservations(
+      ctx.db,
+      member.organisation_id,
+      member.id,
+      false,
+      records(BATCH, t).map((r) => ({
+        id: r.id,
+        block_id: r.blockId,
+        row_number: r.row,
+        position: r.position,
+        kind: r.kind,
+        data: r.data,
+        note: r.note,
+        observed_at: r.observedAt,
+        severity: 1,
+        payload_sha256: 'bench',
+      })),
+    );
   await scout.json('/api/sync', 'POST', { observations: records(BATCH, t) }); // warm-up
   await ctx.db('observations').insert(raw());
 

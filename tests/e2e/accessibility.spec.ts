@@ -113,7 +113,10 @@ const PAGES: Record<string, PageCase> = {
         label: 'the photo viewer open',
         url: `/grid/${CREEK_FLAT}?kind=trunk-injury&row=1&position=9`,
         act: async (page) => {
-          const photo = page.getByTestId('vine-panel').getByRole('button', { name: /Open the photo/ }).first();
+          const photo = page
+            .getByTestId('vine-panel')
+            .getByRole('button', { name: /Open the photo/ })
+            .first();
           await photo.click();
           await expect(page.getByRole('dialog')).toBeVisible();
         },
@@ -164,9 +167,14 @@ function pageFiles(dir = path.join(process.cwd(), 'app'), base = ''): string[] {
 }
 
 const fill = (url: string) =>
-  url
-    .replace('INVITATION', invitationToken)
-    .replace('UNSUBSCRIBE', encodeURIComponent(`${SCOUT_ID}.${createHmac('sha256', process.env.NEXTAUTH_SECRET ?? '').update(`vineward-digest-unsubscribe:${SCOUT_ID}`).digest('base64url')}`));
+  url.replace('INVITATION', invitationToken).replace(
+    'UNSUBSCRIBE',
+    encodeURIComponent(
+      `${SCOUT_ID}.${createHmac('sha256', process.env.NEXTAUTH_SECRET ?? '')
+        .update(`vineward-digest-unsubscribe:${SCOUT_ID}`)
+        .digest('base64url')}`,
+    ),
+  );
 
 /** Waits until the page has drawn what it fetches after load (the field pages read their layout). */
 async function settle(page: Page) {
@@ -208,7 +216,9 @@ test.beforeAll(async () => {
 });
 
 test.afterAll(async () => {
-  await testDb()('invitations').where({ token_hash: createHash('sha256').update(invitationToken).digest('hex') }).del();
+  await testDb()('invitations')
+    .where({ token_hash: createHash('sha256').update(invitationToken).digest('hex') })
+    .del();
   await closeTestDb();
 });
 

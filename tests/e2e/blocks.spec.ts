@@ -99,8 +99,18 @@ test('a manager sets up a demo block from scratch with the form and its layout f
   const team = await makeTeam();
   await signIn(page, team.manager.email);
   await createBlockThroughForm(page, {
-    name: 'North Bench', variety: 'Chardonnay', clone: 'CH-95', rootstock: '5C', plantingYear: '2019', training: 'Cane',
-    rowSpacing: '2.4', vineSpacing: '1.4', rows: '12', vines: '45', perPanel: '5', origin: 'Vine 1 at the shed end',
+    name: 'North Bench',
+    variety: 'Chardonnay',
+    clone: 'CH-95',
+    rootstock: '5C',
+    plantingYear: '2019',
+    training: 'Cane',
+    rowSpacing: '2.4',
+    vineSpacing: '1.4',
+    rows: '12',
+    vines: '45',
+    perPanel: '5',
+    origin: 'Vine 1 at the shed end',
   });
   await page.getByRole('link', { name: 'Import layout CSV' }).click();
   await expect(page.getByLabel('Layout CSV file')).toBeEnabled();
@@ -110,7 +120,11 @@ test('a manager sets up a demo block from scratch with the form and its layout f
   await page.getByRole('link', { name: 'Back to North Bench' }).click();
 
   // The file is the seeded demo block's own export, so these are the demo estate's counts.
-  const letters = readFileSync(path.join(__dirname, '../fixtures/layout/demo/north-bench.csv'), 'utf8').split('\n').slice(1).map((l) => l.split(',')[2] ?? '').join('');
+  const letters = readFileSync(path.join(__dirname, '../fixtures/layout/demo/north-bench.csv'), 'utf8')
+    .split('\n')
+    .slice(1)
+    .map((l) => l.split(',')[2] ?? '')
+    .join('');
   const count = (letter: string) => String([...letters].filter((l) => l === letter).length);
   await expect(page.getByTestId('count-slots')).toHaveText(String(8 * 45 + 30 + 34 + 38 + 42));
   await expect(page.getByTestId('count-planted')).toHaveText(count('P'));
@@ -170,7 +184,15 @@ test('on an imperial estate spacings are typed and shown in feet and inches', as
 test('a scout sees the same block pages read-only', async ({ page }) => {
   const team = await makeTeam();
   const [block] = await testDb()('blocks')
-    .insert({ organisation_id: team.org.id, name: 'Quiet Corner', variety: 'Grenache', row_spacing_m: 2.4, vine_spacing_m: 1.2, row_count: 1, vines_per_row: 4 })
+    .insert({
+      organisation_id: team.org.id,
+      name: 'Quiet Corner',
+      variety: 'Grenache',
+      row_spacing_m: 2.4,
+      vine_spacing_m: 1.2,
+      row_count: 1,
+      vines_per_row: 4,
+    })
     .returning('id');
   await testDb()('block_rows').insert({ block_id: block.id, row_number: 1, vine_count: 4 });
   await testDb()('vine_positions').insert([1, 2, 3, 4].map((p) => ({ block_id: block.id, row_number: 1, position: p, status: p === 2 ? 'dead' : 'planted' })));

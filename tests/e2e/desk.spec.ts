@@ -47,7 +47,13 @@ test('a manager sees the morning page’s items and follows an overdue task to i
     flagged_at: new Date(Date.now() - 24 * HOUR).toISOString(),
     payload_sha256: 'e2e',
   });
-  await put('sprays', { organisation_id: DEMO_ORG, block_id: UPPER_TERRACE, product: `Test copper ${tag}`, applied_at: new Date(Date.now() - HOUR).toISOString(), rei_hours: 24 });
+  await put('sprays', {
+    organisation_id: DEMO_ORG,
+    block_id: UPPER_TERRACE,
+    product: `Test copper ${tag}`,
+    applied_at: new Date(Date.now() - HOUR).toISOString(),
+    rei_hours: 24,
+  });
   await put('observations', {
     organisation_id: DEMO_ORG,
     block_id: UPPER_TERRACE,
@@ -64,12 +70,24 @@ test('a manager sees the morning page’s items and follows an overdue task to i
   await signInAs(page, 'manager@example.com');
   await page.goto('/desk');
   await expect(page.getByRole('heading', { name: 'Desk', level: 1 })).toBeVisible();
-  for (const heading of ['Blocks under a re-entry interval now', 'New findings', 'Flags not yet in a task', 'Overdue tasks', 'Mail that may not have arrived', 'Team']) {
+  for (const heading of [
+    'Blocks under a re-entry interval now',
+    'New findings',
+    'Flags not yet in a task',
+    'Overdue tasks',
+    'Mail that may not have arrived',
+    'Team',
+  ]) {
     await expect(page.getByRole('heading', { name: heading })).toBeVisible();
   }
   await expect(page.getByRole('heading', { name: /Scouting coverage, season/ })).toBeVisible();
   await expect(page.getByTestId('desk-spray').filter({ hasText: `Test copper ${tag}` })).toBeVisible();
-  await expect(page.getByTestId('desk-findings').getByRole('link', { name: /Row 9, .*Trunk injury/ }).first()).toBeVisible();
+  await expect(
+    page
+      .getByTestId('desk-findings')
+      .getByRole('link', { name: /Row 9, .*Trunk injury/ })
+      .first(),
+  ).toBeVisible();
   await expect(page.getByTestId('desk-flag-block').filter({ hasText: 'Trunk renewal' }).first()).toBeVisible();
   await expect(page.getByTestId('desk-coverage').first()).toContainText('standing vines');
 
@@ -82,7 +100,11 @@ test('a manager sees the morning page’s items and follows an overdue task to i
 
   // And a finding to its vine on the grid.
   await page.goto('/desk');
-  await page.getByTestId('desk-findings').getByRole('link', { name: /Row 9, .*Trunk injury/ }).first().click();
+  await page
+    .getByTestId('desk-findings')
+    .getByRole('link', { name: /Row 9, .*Trunk injury/ })
+    .first()
+    .click();
   await expect(page).toHaveURL(new RegExp(`/grid/${UPPER_TERRACE}\\?row=9&position=4$`));
 
   // And the flags not in a task to the flags list, filtered to that block.

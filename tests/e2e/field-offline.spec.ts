@@ -58,7 +58,10 @@ test('a scout walks a row with no signal, reloads twice, and everything arrives 
   const stored = await testDb()('observations').where({ block_id: UPPER_TERRACE, recorded_by: SCOUT_ID, row_number: 5 }).where('received_at', '>=', started);
   expect(stored).toHaveLength(30);
   expect(new Set(stored.map((o) => o.position))).toEqual(new Set(Array.from({ length: 30 }, (_, i) => i + 1)));
-  const photos = await testDb()('photos').whereIn('observation_id', stored.map((o) => o.id));
+  const photos = await testDb()('photos').whereIn(
+    'observation_id',
+    stored.map((o) => o.id),
+  );
   expect(photos).toHaveLength(5);
   for (const p of photos) {
     expect(p.status).toBe('stored');

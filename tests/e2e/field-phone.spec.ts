@@ -142,7 +142,10 @@ test('the flag form and both row work forms open with their first field uncovere
 
   // The end of the row: "Row done".
   await expect(page.getByTestId('row-end')).toBeVisible();
-  await page.getByTestId('row-end').getByRole('button', { name: /Row done/ }).click();
+  await page
+    .getByTestId('row-end')
+    .getByRole('button', { name: /Row done/ })
+    .click();
   const rowEnd = page.getByRole('form', { name: 'Row 23 done' });
   await expectFirstFieldUncovered(rowEnd);
   await expectFocusedClearWithKeyboard(page, rowEnd.getByLabel('Person-hours'));
@@ -175,7 +178,10 @@ test('a scout has a one-line header and the field places at the bottom, and the 
 
   await places.getByRole('link', { name: 'Waiting on this phone' }).click();
   await expect(page).toHaveURL(/\/field\/outbox$/);
-  await expect(page.getByRole('navigation', { name: 'Field places' }).getByRole('link', { name: 'Waiting on this phone' })).toHaveAttribute('aria-current', 'page');
+  await expect(page.getByRole('navigation', { name: 'Field places' }).getByRole('link', { name: 'Waiting on this phone' })).toHaveAttribute(
+    'aria-current',
+    'page',
+  );
   await expectAccessible(page);
 
   await page.goto(`/field/blocks/${NORTH_BENCH}`);

@@ -66,7 +66,10 @@ test('a manager opens the large demo block, filters to one kind, clicks a red ce
   await expect(photo).toBeVisible();
   await imageLoaded(photo);
 
-  await panel.getByRole('button', { name: /Open the photo/ }).first().click();
+  await panel
+    .getByRole('button', { name: /Open the photo/ })
+    .first()
+    .click();
   const viewer = page.getByRole('dialog');
   await expect(viewer).toBeVisible();
   const full = viewer.getByRole('img');

@@ -23,7 +23,10 @@ test('the photo log loads more thumbnails as it scrolls, opens one full size and
   // Other tests add photos too, so scroll page after page until the log says it has them all.
   const end = page.getByText('That is every photo that matches.');
   for (let pages = 1; pages < 20 && !(await end.isVisible()); pages++) {
-    await end.or(page.getByRole('button', { name: 'Load more photos' })).first().scrollIntoViewIfNeeded();
+    await end
+      .or(page.getByRole('button', { name: 'Load more photos' }))
+      .first()
+      .scrollIntoViewIfNeeded();
     await expect.poll(async () => (await end.isVisible()) || (await thumbs.count()) > pages * 30).toBe(true);
   }
   await expect(end).toBeVisible();

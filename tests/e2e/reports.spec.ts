@@ -121,7 +121,9 @@ test('a manager opens the demo block’s report, changes the crop inputs, sees t
   }
 });
 
-test('the demo block’s report opens with a contents list that reaches every section, keeps records out of the incidence, estimates the crop in kg and shows no code', async ({ page }) => {
+test('the demo block’s report opens with a contents list that reaches every section, keeps records out of the incidence, estimates the crop in kg and shows no code', async ({
+  page,
+}) => {
   await signInAs(page, 'manager@example.com');
   await page.goto('/reports');
   await page.getByRole('link', { name: 'Creek Flat' }).click();

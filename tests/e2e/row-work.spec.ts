@@ -54,7 +54,10 @@ test('a crew lead marks two rows done with no signal, reloads, and they arrive o
 
   // The second row from the end of the row in the stepper: the crew's pass and size come back, and the last finish is this start.
   await page.goto(`/field/blocks/${UPPER_TERRACE}/walk?row=23&position=60`);
-  await page.getByTestId('row-end').getByRole('button', { name: /Row done$/ }).click();
+  await page
+    .getByTestId('row-end')
+    .getByRole('button', { name: /Row done$/ })
+    .click();
   const second = page.getByRole('form', { name: 'Row 23 done' });
   await expect(second.getByRole('button', { name: 'Pruning', exact: true })).toHaveAttribute('aria-pressed', 'true');
   await expect(second.getByLabel('Crew size')).toHaveValue('3');

@@ -70,7 +70,10 @@ test('sign-out on a shared phone clears the person’s cached pages and data, ke
   await expect(page.getByTestId('waiting-on-phone')).toContainText('1 record saved on this phone is waiting');
 
   const after = await cachedUrls(page);
-  expect(after.filter((u) => !/^vineward-(pages \/signin|icons )/.test(u)), after.join('\n')).toEqual([]);
+  expect(
+    after.filter((u) => !/^vineward-(pages \/signin|icons )/.test(u)),
+    after.join('\n'),
+  ).toEqual([]);
   expect(await page.evaluate(() => localStorage.getItem('vineward-crew'))).toBeNull();
   expect(await outboxIds(page)).toEqual([waitingId]);
   // Nothing personal answers from the phone either: the session is gone on the server.
@@ -96,11 +99,17 @@ test('sign-out with nothing waiting needs no question and leaves no cached pages
   await expect(page.getByRole('alertdialog')).toHaveCount(0);
   await expect(page.getByTestId('waiting-on-phone')).toHaveCount(0);
   const after = await cachedUrls(page);
-  expect(after.filter((u) => !/^vineward-(pages \/signin|icons )/.test(u)), after.join('\n')).toEqual([]);
+  expect(
+    after.filter((u) => !/^vineward-(pages \/signin|icons )/.test(u)),
+    after.join('\n'),
+  ).toEqual([]);
 });
 
 test('a hostile callbackUrl on the sign-in page lands on this site after sign-in', async ({ page, baseURL }) => {
-  await page.route((url) => url.hostname.endsWith('evil.example'), (route) => route.fulfill({ status: 200, contentType: 'text/html', body: '<h1>Elsewhere</h1>' }));
+  await page.route(
+    (url) => url.hostname.endsWith('evil.example'),
+    (route) => route.fulfill({ status: 200, contentType: 'text/html', body: '<h1>Elsewhere</h1>' }),
+  );
   for (const target of ['/%5Cevil.example/x', '//evil.example/x', '/%09/evil.example']) {
     await page.context().clearCookies();
     await page.goto(`/signin?callbackUrl=${target}`);

@@ -34,7 +34,10 @@ async function until<T>(read: () => Promise<T>, ok: (value: T) => boolean, timeo
   }
 }
 
-test('a pruner flags vines offline, the manager makes a task of it, the pruner works it on the phone, and an advisor’s comment reaches the scout by mail', async ({ page, browser }) => {
+test('a pruner flags vines offline, the manager makes a task of it, the pruner works it on the phone, and an advisor’s comment reaches the scout by mail', async ({
+  page,
+  browser,
+}) => {
   test.setTimeout(240_000);
 
   // The scout's finding on the vine, recorded earlier in the season.
@@ -43,7 +46,16 @@ test('a pruner flags vines offline, the manager makes a task of it, the pruner w
   const recorded = await scout.request.post('/api/sync', {
     data: {
       observations: [
-        { id: findingId, blockId: UPPER_TERRACE, row: ROW, position: 33, kind: 'trunk-injury', data: { cause: 'cold', severity: 'moderate', girdlingPercent: 30 }, note: 'Bark split', observedAt: new Date().toISOString() },
+        {
+          id: findingId,
+          blockId: UPPER_TERRACE,
+          row: ROW,
+          position: 33,
+          kind: 'trunk-injury',
+          data: { cause: 'cold', severity: 'moderate', girdlingPercent: 30 },
+          note: 'Bark split',
+          observedAt: new Date().toISOString(),
+        },
       ],
     },
   });
@@ -182,7 +194,11 @@ test('a crew lead records a pruning check with no signal, and the check counts i
   await page.getByRole('button', { name: 'Sync now' }).click();
   await expect.poll(() => waitingOnPhone(page), { timeout: 30_000 }).toEqual({ records: 0, photos: 0 });
   const stored = await testDb()('observations').where({ block_id: UPPER_TERRACE, kind: 'pruning-check', row_number: 22, position: 10 }).first();
-  expect(stored).toMatchObject({ recorded_by: PRUNER_ID, severity: 1, data: { prunedBy: PRUNER_ID, canesKept: 2, budsOnCanes: 30, renewalSpurs: 2, budTarget: 28 } });
+  expect(stored).toMatchObject({
+    recorded_by: PRUNER_ID,
+    severity: 1,
+    data: { prunedBy: PRUNER_ID, canesKept: 2, budsOnCanes: 30, renewalSpurs: 2, budTarget: 28 },
+  });
 
   await page.goto('/tasks/pruning-checks');
   await expect(page.getByTestId('pruner-row').filter({ hasText: 'Rosa Quintal' })).toBeVisible();

@@ -47,9 +47,7 @@ export async function makeMember(organisationId: string, role: Role) {
 /** An organisation with one member of each role. */
 export async function makeTeam() {
   const org = await makeOrganisation();
-  const [manager, scout, pruner, advisor] = await Promise.all(
-    (['manager', 'scout', 'pruner', 'advisor'] as const).map((r) => makeMember(org.id, r)),
-  );
+  const [manager, scout, pruner, advisor] = await Promise.all((['manager', 'scout', 'pruner', 'advisor'] as const).map((r) => makeMember(org.id, r)));
   return { org, manager: manager!, scout: scout!, pruner: pruner!, advisor: advisor! };
 }
 

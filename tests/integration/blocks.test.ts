@@ -45,7 +45,11 @@ async function createBlock(client: Client, o: Record<string, unknown> = {}) {
 
 /** Row number → slot count, straight from the database. */
 async function slotsPerRow(blockId: string) {
-  const rows = await testDb()('vine_positions').where({ block_id: blockId }).groupBy('row_number').orderBy('row_number').select('row_number', testDb().raw('count(*)::int as n'));
+  const rows = await testDb()('vine_positions')
+    .where({ block_id: blockId })
+    .groupBy('row_number')
+    .orderBy('row_number')
+    .select('row_number', testDb().raw('count(*)::int as n'));
   return Object.fromEntries(rows.map((r: { row_number: number; n: number }) => [r.row_number, r.n]));
 }
 
@@ -72,9 +76,16 @@ describe('blocks through the route handlers', () => {
     expect(block).toMatchObject({ rowCount: 4, vineCount: 40 });
 
     expect(await slotsPerRow(block.id)).toEqual({ 1: 10, 2: 10, 3: 10, 4: 10 });
-    const vines = await testDb()('vines as v').join('vine_positions as p', 'p.id', 'v.position_id').where('p.block_id', block.id).select('v.planting_year', 'v.clone', 'v.removed_year');
+    const vines = await testDb()('vines as v')
+      .join('vine_positions as p', 'p.id', 'v.position_id')
+      .where('p.block_id', block.id)
+      .select('v.planting_year', 'v.clone', 'v.removed_year');
     expect(vines).toHaveLength(40);
-    expect(vines.every((v: { planting_year: number; clone: string; removed_year: null }) => v.planting_year === 2016 && v.clone === 'PG-2' && v.removed_year === null)).toBe(true);
+    expect(
+      vines.every(
+        (v: { planting_year: number; clone: string; removed_year: null }) => v.planting_year === 2016 && v.clone === 'PG-2' && v.removed_year === null,
+      ),
+    ).toBe(true);
 
     const { blocks } = await (await client.fetch('/api/blocks')).json();
     expect(blocks).toEqual([
@@ -139,8 +150,16 @@ describe('blocks through the route handlers', () => {
     const block = await createBlock(client, { rowCount: 2, vinesPerRow: 6 });
     const slot = await testDb()('vine_positions').where({ block_id: block.id, row_number: 2, position: 6 }).first('id');
     await testDb()('flags').insert({
-      id: randomUUID(), organisation_id: org.id, block_id: block.id, position_id: slot.id, row_number: 2, position: 6, to_position: 6,
-      reason: 'replant', flagged_at: new Date(), payload_sha256: 'f'.repeat(64),
+      id: randomUUID(),
+      organisation_id: org.id,
+      block_id: block.id,
+      position_id: slot.id,
+      row_number: 2,
+      position: 6,
+      to_position: 6,
+      reason: 'replant',
+      flagged_at: new Date(),
+      payload_sha256: 'f'.repeat(64),
     });
     const shorter = await client.json(`/api/blocks/${block.id}/rows/2`, 'PATCH', { vineCount: 5 });
     expect(shorter.status).toBe(409);
@@ -209,7 +228,16 @@ describe('blocks through the route handlers', () => {
     expect(res.status).toBe(422);
     const { error } = await res.json();
     expect(error.code).toBe('invalid-input');
-    expect(Object.keys(error.fields).sort()).toEqual(['firstRow', 'name', 'plantingYear', 'rowCount', 'rowSpacingM', 'trainingSystem', 'vineSpacingM', 'vinesPerRow']);
+    expect(Object.keys(error.fields).sort()).toEqual([
+      'firstRow',
+      'name',
+      'plantingYear',
+      'rowCount',
+      'rowSpacingM',
+      'trainingSystem',
+      'vineSpacingM',
+      'vinesPerRow',
+    ]);
     expect(error.fields.name).toEqual(['Give the block a name']);
     expect(error.fields.vinesPerRow).toEqual(['A row has between 1 and 1000 vines']);
     expect(await testDb()('blocks').where({ organisation_id: org.id })).toEqual([]);
@@ -270,7 +298,13 @@ describe('blocks through the route handlers', () => {
       expect(res.status, role).toBe(200);
       const body = await res.json();
       expect(body.vinesPerPanel).toBe(5);
-      expect(body.positions.map((p: { position: number; status: string }) => `${p.position}:${p.status}`)).toEqual(['1:planted', '2:planted', '3:planted', '4:planted', '5:dead']);
+      expect(body.positions.map((p: { position: number; status: string }) => `${p.position}:${p.status}`)).toEqual([
+        '1:planted',
+        '2:planted',
+        '3:planted',
+        '4:planted',
+        '5:dead',
+      ]);
     }
     expect((await manager.fetch(`/api/blocks/${block.id}/positions?row=3`)).status).toBe(404);
     expect((await manager.fetch(`/api/blocks/${block.id}/positions?row=two`)).status).toBe(404);
@@ -298,7 +332,11 @@ describe('blocks through the route handlers', () => {
       expect(res.status, `${method} ${path}`).toBe(403);
       expect((await res.json()).error.code).toBe('forbidden');
     }
-    const layout = await client.fetch(`/api/blocks/${block.id}/layout?mode=apply`, { method: 'POST', headers: { 'content-type': 'text/csv' }, body: 'row,vines\n1,1\n' });
+    const layout = await client.fetch(`/api/blocks/${block.id}/layout?mode=apply`, {
+      method: 'POST',
+      headers: { 'content-type': 'text/csv' },
+      body: 'row,vines\n1,1\n',
+    });
     expect(layout.status).toBe(403);
     expect(await slotsPerRow(block.id)).toEqual({ 1: 4, 2: 4 });
     expect(await testDb()('blocks').where({ organisation_id: team.org.id }).count<{ count: string }[]>()).toEqual([{ count: '1' }]);
@@ -327,7 +365,11 @@ describe('blocks through the route handlers', () => {
       expect(text).not.toContain('Their Block');
       expect(JSON.parse(text).error.code).toBe('not-found');
     }
-    const layout = await a.client.fetch(`/api/blocks/${theirs.id}/layout?mode=apply`, { method: 'POST', headers: { 'content-type': 'text/csv' }, body: 'row,vines\n1,1\n' });
+    const layout = await a.client.fetch(`/api/blocks/${theirs.id}/layout?mode=apply`, {
+      method: 'POST',
+      headers: { 'content-type': 'text/csv' },
+      body: 'row,vines\n1,1\n',
+    });
     expect(layout.status).toBe(404);
     const still = await testDb()('blocks').where({ id: theirs.id }).first();
     expect(still).toMatchObject({ name: 'Their Block', archived_at: null, row_count: 4 });

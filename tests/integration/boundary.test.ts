@@ -39,7 +39,12 @@ describe('cross-site requests (finding 5)', () => {
 
   it('refuses JSON from a foreign Origin, from Origin null, and a request the browser marks Sec-Fetch-Site: cross-site', async () => {
     const email = uniqueEmail('csrf-json');
-    for (const headers of [{ origin: 'https://evil.example' }, { origin: 'null' }, { 'sec-fetch-site': 'cross-site' }, { origin: `${APP_URL}.evil.example` }] as Record<string, string>[]) {
+    for (const headers of [
+      { origin: 'https://evil.example' },
+      { origin: 'null' },
+      { 'sec-fetch-site': 'cross-site' },
+      { origin: `${APP_URL}.evil.example` },
+    ] as Record<string, string>[]) {
       const res = await manager.fetch('/api/invitations', {
         method: 'POST',
         headers: { 'content-type': 'application/json', ...headers },
@@ -63,7 +68,11 @@ describe('cross-site requests (finding 5)', () => {
   it('refuses a body that is not JSON with 415 even without an Origin, and stores nothing', async () => {
     const email = uniqueEmail('plain');
     for (const type of ['text/plain', 'application/x-www-form-urlencoded', 'multipart/form-data; boundary=x']) {
-      const res = await manager.fetch('/api/invitations', { method: 'POST', headers: { 'content-type': type }, body: JSON.stringify({ email, role: 'scout' }) });
+      const res = await manager.fetch('/api/invitations', {
+        method: 'POST',
+        headers: { 'content-type': type },
+        body: JSON.stringify({ email, role: 'scout' }),
+      });
       expect(res.status, type).toBe(415);
       expect((await res.json()).error.code).toBe('unsupported-media-type');
     }
@@ -148,23 +157,33 @@ describe('request bodies are bounded while they stream (finding 8)', () => {
     const big = Buffer.alloc(20 * 1024 * 1024, ' ');
     const declared = await raw({ path: '/api/sync', headers: { cookie: manager.cookieHeader, 'content-type': 'application/json' }, body: big });
     expect(declared.status).toBe(413);
-    const streamed = await raw({ path: '/api/sync', headers: { cookie: manager.cookieHeader, 'content-type': 'application/json' }, stream: { bytes: big.length } });
+    const streamed = await raw({
+      path: '/api/sync',
+      headers: { cookie: manager.cookieHeader, 'content-type': 'application/json' },
+      stream: { bytes: big.length },
+    });
     expect(streamed.status).toBe(413);
   });
 });
 
 describe('mail keeps what people wrote (finding 8)', () => {
-  it('sends a comment with $\', $& and $1 in it unchanged, in the text and the HTML part', async () => {
+  it("sends a comment with $', $& and $1 in it unchanged, in the text and the HTML part", async () => {
     const block = await makeBlock(team.org.id);
     const scout = new Client();
     await scout.signIn(team.scout.email, PASSWORD);
     const observationId = randomUUID();
     const synced = await scout.json('/api/sync', 'POST', {
-      observations: [{ id: observationId, blockId: block.id, row: 1, position: 2, kind: 'note', data: {}, note: 'Dollar test', observedAt: '2026-11-12T09:00:00Z' }],
+      observations: [
+        { id: observationId, blockId: block.id, row: 1, position: 2, kind: 'note', data: {}, note: 'Dollar test', observedAt: '2026-11-12T09:00:00Z' },
+      ],
     });
     expect(synced.status).toBe(200);
     const words = `Budget $1 a vine; keep $' and $& and $$ as typed`;
-    const res = await manager.json('/api/comments', 'POST', { subject: 'observation', subjectId: observationId, body: `@${team.advisor.email} ${words}\nsecond line` });
+    const res = await manager.json('/api/comments', 'POST', {
+      subject: 'observation',
+      subjectId: observationId,
+      body: `@${team.advisor.email} ${words}\nsecond line`,
+    });
     expect(res.status).toBe(201);
     const [mail] = await waitForMail(team.advisor.email, 1, 30_000);
     expect(mail!.text).toContain(words);
@@ -195,7 +214,9 @@ describe('invitations are limited per manager and revocable (finding 8)', () => 
     expect((await m.json('/api/invitations', 'POST', { email, role: 'scout' })).status).toBe(429);
     // It is a rolling window: once the oldest is a day old there is room for one more.
     const [oldest] = await testDb()('invitations').where({ invited_by: t.manager.id }).orderBy('created_at').limit(1);
-    await testDb()('invitations').where({ id: oldest.id }).update({ created_at: new Date(Date.now() - 25 * 3600 * 1000) });
+    await testDb()('invitations')
+      .where({ id: oldest.id })
+      .update({ created_at: new Date(Date.now() - 25 * 3600 * 1000) });
     expect((await m.json('/api/invitations', 'POST', { email, role: 'scout' })).status).toBe(201);
     // The limit is the manager's own: another manager of the same organisation still invites.
     const second = await makeMember(t.org.id, 'manager');
@@ -240,7 +261,13 @@ describe('invitations are limited per manager and revocable (finding 8)', () => 
     expect((await new Client().json('/api/invitations/accept', 'POST', { token, name: 'P', password: 'a long password' })).status).toBe(200);
     const res = await manager.fetch(`/api/invitations/${invitation.id}`, { method: 'DELETE' });
     expect(res.status).toBe(409);
-    expect(await testDb()('memberships').where({ organisation_id: team.org.id }).join('users', 'users.id', 'memberships.user_id').where('users.email', email).first()).toBeDefined();
+    expect(
+      await testDb()('memberships')
+        .where({ organisation_id: team.org.id })
+        .join('users', 'users.id', 'memberships.user_id')
+        .where('users.email', email)
+        .first(),
+    ).toBeDefined();
   });
 });
 

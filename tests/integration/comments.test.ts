@@ -23,7 +23,18 @@ beforeAll(async () => {
 async function finding(client: Client, row = 2, position = 4) {
   const id = randomUUID();
   const res = await client.json('/api/sync', 'POST', {
-    observations: [{ id, blockId: block.id, row, position, kind: 'trunk-injury', data: { cause: 'mechanical', severity: 'moderate', girdlingPercent: 20 }, note: '', observedAt: '2026-11-02T09:00:00Z' }],
+    observations: [
+      {
+        id,
+        blockId: block.id,
+        row,
+        position,
+        kind: 'trunk-injury',
+        data: { cause: 'mechanical', severity: 'moderate', girdlingPercent: 20 },
+        note: '',
+        observedAt: '2026-11-02T09:00:00Z',
+      },
+    ],
   });
   expect((await res.json()).results[0].status).toBe('created');
   return id;
@@ -92,7 +103,9 @@ describe('POST /api/comments', () => {
     const theirs = new Client();
     await theirs.signIn(other.scout.email, PASSWORD);
     const id = randomUUID();
-    await theirs.json('/api/sync', 'POST', { observations: [{ id, blockId: theirBlock.id, row: 1, position: 1, kind: 'note', data: {}, note: 'x', observedAt: '2026-11-02T09:00:00Z' }] });
+    await theirs.json('/api/sync', 'POST', {
+      observations: [{ id, blockId: theirBlock.id, row: 1, position: 1, kind: 'note', data: {}, note: 'x', observedAt: '2026-11-02T09:00:00Z' }],
+    });
     const slot = await testDb()('vine_positions').where({ block_id: theirBlock.id, row_number: 1, position: 1 }).first('id');
     expect((await comment(as.manager, 'observation', id, 'Hi')).status).toBe(404);
     expect((await comment(as.advisor, 'vine', slot.id, 'Hi')).status).toBe(404);
@@ -117,7 +130,9 @@ describe('comment mail', () => {
     expect((await res.json()).comment.mentions).toEqual([crewLead.id]);
 
     const [mail] = await waitForMail(crewLead.email, 1);
-    expect(mail!.subject).toBe(`${team.advisor.name} mentioned you on trunk injury at ${(await testDb()('blocks').where({ id: block.id }).first()).name}, row 1, vine 7`);
+    expect(mail!.subject).toBe(
+      `${team.advisor.name} mentioned you on trunk injury at ${(await testDb()('blocks').where({ id: block.id }).first()).name}, row 1, vine 7`,
+    );
     expect(mail!.text).toContain('please renew it');
     expect(mail!.text).toContain(`/grid/${block.id}?row=1&position=7`);
     await settle();
@@ -141,7 +156,13 @@ describe('comment mail', () => {
 
   it('tells nobody of their own comment, and respects a person who turned comment mail off', async () => {
     const id = await finding(as.scout, 2, 9);
-    const prefs = await as.scout.json('/api/notifications/preferences', 'PUT', { assignment: true, comment: false, mention: true, overdue: true, digest: false });
+    const prefs = await as.scout.json('/api/notifications/preferences', 'PUT', {
+      assignment: true,
+      comment: false,
+      mention: true,
+      overdue: true,
+      digest: false,
+    });
     expect(prefs.status).toBe(200);
     const before = (await mailsTo(team.scout.email)).length;
     await comment(as.scout, 'observation', id, `Note to self, @${team.scout.name}`);

@@ -69,7 +69,14 @@ async function observe(
   return id;
 }
 
-async function flag(org: { id: string }, block: Block, row: number, from: number, to: number, o: { reason?: string; taskId?: string; status?: 'open' | 'closed' } = {}) {
+async function flag(
+  org: { id: string },
+  block: Block,
+  row: number,
+  from: number,
+  to: number,
+  o: { reason?: string; taskId?: string; status?: 'open' | 'closed' } = {},
+) {
   const id = randomUUID();
   await testDb()('flags').insert({
     id,
@@ -90,7 +97,13 @@ async function flag(org: { id: string }, block: Block, row: number, from: number
 
 async function task(org: { id: string }, block: Block, o: { status?: 'open' | 'done' | 'cancelled'; dueOn?: string | null; title?: string } = {}) {
   const [row] = await testDb()('tasks')
-    .insert({ organisation_id: org.id, block_id: block.id, title: o.title ?? 'Retrain', status: o.status ?? 'open', due_on: o.dueOn === undefined ? dayOffset(7) : o.dueOn })
+    .insert({
+      organisation_id: org.id,
+      block_id: block.id,
+      title: o.title ?? 'Retrain',
+      status: o.status ?? 'open',
+      due_on: o.dueOn === undefined ? dayOffset(7) : o.dueOn,
+    })
     .returning('id');
   return row.id as string;
 }
@@ -195,7 +208,9 @@ describe('new findings since the person last looked', () => {
     expect((await desk(client)).findings).toEqual(first.findings);
 
     // The sitting ends: the last look is two hours old.
-    await db('desk_looks').where({ user_id: looker.id, organisation_id: estate.id }).update({ looked_at: ago(2) });
+    await db('desk_looks')
+      .where({ user_id: looker.id, organisation_id: estate.id })
+      .update({ looked_at: ago(2) });
     await observe(estate, south, 2, 4, { severity: 1, receivedAt: ago(1) });
     await observe(estate, north, 3, 7, { severity: 3, receivedAt: ago(1), observedAt: ago(24 * 5) }); // observed earlier, synced late
     await observe(estate, north, 3, 7, { severity: 1, receivedAt: ago(1) }); // same vine: counted once, at its worst
@@ -305,7 +320,14 @@ describe('the advisor’s Desk', () => {
     await observe(stranger.org, strangerBlock, 1, 1, { severity: 3, receivedAt: ago(1) });
 
     const subject = await observe(team.org, a2, 2, 1, { severity: 1, receivedAt: ago(30) });
-    await db('comments').insert({ organisation_id: team.org.id, subject_kind: 'observation', subject_id: subject, body: 'Seen this', author_id: advisor.id, created_at: ago(2) });
+    await db('comments').insert({
+      organisation_id: team.org.id,
+      subject_kind: 'observation',
+      subject_id: subject,
+      body: 'Seen this',
+      author_id: advisor.id,
+      created_at: ago(2),
+    });
     await observe(team.org, a2, 2, 2, { severity: 3, receivedAt: ago(3) }); // before the comment
     await observe(team.org, a2, 2, 3, { severity: 3, receivedAt: ago(1) });
     await observe(team.org, a2, 2, 4, { severity: 2, receivedAt: ago(1) });
@@ -332,7 +354,9 @@ describe('the advisor’s Desk', () => {
 
     // Their findings in the current organisation start at the same comment.
     expect(mine.findings.basis).toBe('last-comment');
-    expect(mine.findings.blocks.map((b: { blockId: string; actNow: number; actThisSeason: number }) => [b.blockId, b.actNow, b.actThisSeason])).toEqual([[a2.id, 1, 1]]);
+    expect(mine.findings.blocks.map((b: { blockId: string; actNow: number; actThisSeason: number }) => [b.blockId, b.actNow, b.actThisSeason])).toEqual([
+      [a2.id, 1, 1],
+    ]);
   });
 });
 
@@ -348,7 +372,9 @@ describe('winter work under way', () => {
     expect(res.status, await res.clone().text()).toBe(200);
 
     const progress = (await desk(manager)).progress;
-    expect(progress).toEqual([{ blockId: a1.id, blockName: 'A North', pass: 'pruning', vinesDone: 20, vineCount: 30, projectedFinish: expect.stringMatching(/^\d{4}-\d{2}-\d{2}/) }]);
+    expect(progress).toEqual([
+      { blockId: a1.id, blockName: 'A North', pass: 'pruning', vinesDone: 20, vineCount: 30, projectedFinish: expect.stringMatching(/^\d{4}-\d{2}-\d{2}/) },
+    ]);
     expect((await desk(await as(team.scout.email))).progress).toBeNull();
     expect((await desk(otherManager)).progress).toEqual([]);
   });
@@ -357,7 +383,15 @@ describe('winter work under way', () => {
 describe('roles and organisations', () => {
   it('gives scouts and crew leads the field-first Desk, and managers’ items to no one else', async () => {
     const scout = await desk(await as(team.scout.email));
-    expect(scout).toMatchObject({ role: 'scout', untaskedFlags: null, overdueTasks: null, findings: null, undeliveredMail: null, advisorOrganisations: null, myTasks: null });
+    expect(scout).toMatchObject({
+      role: 'scout',
+      untaskedFlags: null,
+      overdueTasks: null,
+      findings: null,
+      undeliveredMail: null,
+      advisorOrganisations: null,
+      myTasks: null,
+    });
     expect(scout.reentry.length).toBeGreaterThan(0);
 
     const pruner = await as(team.pruner.email);

@@ -26,8 +26,15 @@ beforeAll(async () => {
   manager = new Client();
   await manager.signIn(team.manager.email, PASSWORD);
   const observations = Object.entries(NOTES).map(([key, note], i) => ({
-    id: randomUUID(), blockId: block.id, row: 1, position: i + 1, kind: 'weak-budbreak', data: { budsRetained: 28, budsPushed: 20 + i },
-    note, observedAt: `2024-04-2${i}T09:00:00Z`, key,
+    id: randomUUID(),
+    blockId: block.id,
+    row: 1,
+    position: i + 1,
+    kind: 'weak-budbreak',
+    data: { budsRetained: 28, budsPushed: 20 + i },
+    note,
+    observedAt: `2024-04-2${i}T09:00:00Z`,
+    key,
   }));
   const res = await manager.json('/api/sync', 'POST', { observations: observations.map(({ key: _key, ...o }) => o) });
   expect((await res.json()).results.map((r: { status: string }) => r.status)).toEqual(['created', 'created', 'created', 'created']);
@@ -74,8 +81,18 @@ describe('GET /api/reports/observations.csv', () => {
     const insert = async (organisationId: string, blockId: string, observedAt: string, deleted = false) => {
       const s = await slot(blockId);
       await db('observations').insert({
-        id: randomUUID(), organisation_id: organisationId, block_id: blockId, position_id: s.id, row_number: s.row_number, position: s.position,
-        kind: 'note', data: {}, note: 'x', observed_at: observedAt, payload_sha256: 'x', deleted_at: deleted ? db.fn.now() : null,
+        id: randomUUID(),
+        organisation_id: organisationId,
+        block_id: blockId,
+        position_id: s.id,
+        row_number: s.row_number,
+        position: s.position,
+        kind: 'note',
+        data: {},
+        note: 'x',
+        observed_at: observedAt,
+        payload_sha256: 'x',
+        deleted_at: deleted ? db.fn.now() : null,
       });
     };
     await insert(team.org.id, otherBlock.id, '2024-06-01T00:00:00Z');
@@ -133,6 +150,8 @@ describe('GET /api/reports/observations.csv', () => {
     // Holding the file (a JavaScript string of it is twice its bytes) or the 200,000 rows behind it
     // would take well over 100 MB; streaming page by page, the server grows by garbage awaiting
     // collection only (about 35 MB when this was written).
-    expect(peak - before, `server memory grew by ${((peak - before) / 1048576).toFixed(0)} MB for a ${(bytes / 1048576).toFixed(0)} MB export`).toBeLessThan(64 * 1024 * 1024);
+    expect(peak - before, `server memory grew by ${((peak - before) / 1048576).toFixed(0)} MB for a ${(bytes / 1048576).toFixed(0)} MB export`).toBeLessThan(
+      64 * 1024 * 1024,
+    );
   }, 180_000);
 });

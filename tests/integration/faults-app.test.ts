@@ -42,7 +42,10 @@ async function freshSpare() {
 /** Sends on the spare server and kills it `afterMs` later: the device never gets this answer. */
 async function killedMidRequest(send: () => Promise<Response>, afterMs: number) {
   const server = spare!;
-  const answer = send().then((r) => r.status, () => 0);
+  const answer = send().then(
+    (r) => r.status,
+    () => 0,
+  );
   await new Promise((r) => setTimeout(r, afterMs));
   server.child.kill('SIGKILL');
   return answer;
@@ -52,7 +55,13 @@ describe('an app server killed mid-batch', () => {
   it('loses nothing and doubles nothing: the retried sync batch is stored once', async () => {
     await freshSpare();
     const observations = Array.from({ length: 200 }, (_, i) => ({
-      id: randomUUID(), blockId: block.id, row: 1 + (i % 10), position: 1 + (i % 20), kind: 'note', data: {}, note: `killed ${i}`,
+      id: randomUUID(),
+      blockId: block.id,
+      row: 1 + (i % 10),
+      position: 1 + (i % 20),
+      kind: 'note',
+      data: {},
+      note: `killed ${i}`,
       observedAt: new Date(Date.now() - i * 1000).toISOString(),
     }));
     const status = await killedMidRequest(() => onSpare.json('/api/sync', 'POST', { observations }), 40);
@@ -64,7 +73,12 @@ describe('an app server killed mid-batch', () => {
     const { results } = await retry.json();
     expect(results).toHaveLength(200);
     for (const r of results) expect(['created', 'duplicate']).toContain(r.status);
-    const stored = await testDb()('observations').whereIn('id', observations.map((o) => o.id)).count<{ count: string }[]>();
+    const stored = await testDb()('observations')
+      .whereIn(
+        'id',
+        observations.map((o) => o.id),
+      )
+      .count<{ count: string }[]>();
     expect(Number(stored[0]!.count)).toBe(200);
   });
 
@@ -72,10 +86,14 @@ describe('an app server killed mid-batch', () => {
     await freshSpare();
     const observationId = randomUUID();
     await onMain.json('/api/sync', 'POST', {
-      observations: [{ id: observationId, blockId: block.id, row: 2, position: 2, kind: 'note', data: {}, note: 'killed confirm', observedAt: new Date().toISOString() }],
+      observations: [
+        { id: observationId, blockId: block.id, row: 2, position: 2, kind: 'note', data: {}, note: 'killed confirm', observedAt: new Date().toISOString() },
+      ],
     });
     // Large enough that the confirm is still working when the server dies.
-    const noise = await sharp({ create: { width: 1500, height: 1000, channels: 3, background: '#6e6450', noise: { type: 'gaussian', mean: 110, sigma: 40 } } }).png().toBuffer();
+    const noise = await sharp({ create: { width: 1500, height: 1000, channels: 3, background: '#6e6450', noise: { type: 'gaussian', mean: 110, sigma: 40 } } })
+      .png()
+      .toBuffer();
     const photo = await sharp(noise).resize(4000, 3000).jpeg({ quality: 90 }).toBuffer();
     const id = randomUUID();
     const presign = await (await onMain.json('/api/photos/presign', 'POST', { id, observationId, contentType: 'image/jpeg', bytes: photo.length })).json();
@@ -90,7 +108,9 @@ describe('an app server killed mid-batch', () => {
       expect(again.headers.get('retry-after')).toBeTruthy();
       expect((await testDb()('photos').where({ id }).first()).status).toBe('pending');
       // Later, after its lease ran out (moved forward here rather than waited for):
-      await testDb()('photos').where({ id }).update({ confirm_until: new Date(Date.now() - 1000) });
+      await testDb()('photos')
+        .where({ id })
+        .update({ confirm_until: new Date(Date.now() - 1000) });
       again = await onMain.json('/api/photos/confirm', 'POST', { id });
     }
     expect(again.status, await again.clone().text()).toBe(200);

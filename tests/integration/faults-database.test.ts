@@ -28,7 +28,13 @@ afterAll(async () => {
 
 const batch = (n: number) =>
   Array.from({ length: n }, (_, i) => ({
-    id: randomUUID(), blockId: block.id, row: 1 + (i % 10), position: 1 + (i % 20), kind: 'note', data: {}, note: `restart ${i}`,
+    id: randomUUID(),
+    blockId: block.id,
+    row: 1 + (i % 10),
+    position: 1 + (i % 20),
+    kind: 'note',
+    data: {},
+    note: `restart ${i}`,
     observedAt: new Date(Date.now() - i * 1000).toISOString(),
   }));
 
@@ -46,7 +52,12 @@ describe('PostgreSQL restarted mid-sync', () => {
       const giveUp = Date.now() + 45_000;
       while (Date.now() < giveUp) {
         const res = await timed(postSync(observations), 15_000);
-        answers.push({ status: res.status, ms: res.ms, retryAfter: res.headers.get('retry-after'), code: res.status === 503 ? res.json().error.code : undefined });
+        answers.push({
+          status: res.status,
+          ms: res.ms,
+          retryAfter: res.headers.get('retry-after'),
+          code: res.status === 503 ? res.json().error.code : undefined,
+        });
         if (res.status === 200) {
           final = res.json();
           return;
@@ -88,11 +99,21 @@ describe('PostgreSQL restarted mid-sync', () => {
     const retried = await timed(postSync(second));
     expect(retried.status).toBe(200);
     for (const r of retried.json().results) expect(['created', 'duplicate']).toContain(r.status);
-    const storedSecond = await testDb()('observations').whereIn('id', second.map((o) => o.id)).count<{ count: string }[]>();
+    const storedSecond = await testDb()('observations')
+      .whereIn(
+        'id',
+        second.map((o) => o.id),
+      )
+      .count<{ count: string }[]>();
     expect(Number(storedSecond[0]!.count)).toBe(200);
     const odd = final!.results.filter((r) => r.status !== 'created' && r.status !== 'duplicate');
     expect(odd, JSON.stringify(odd.slice(0, 3))).toEqual([]);
-    const stored = await testDb()('observations').whereIn('id', observations.map((o) => o.id)).count<{ count: string }[]>();
+    const stored = await testDb()('observations')
+      .whereIn(
+        'id',
+        observations.map((o) => o.id),
+      )
+      .count<{ count: string }[]>();
     expect(Number(stored[0]!.count)).toBe(200);
 
     // The pool recovered: the same server answers the grid again.

@@ -43,7 +43,9 @@ describe('a stalled mail server', () => {
   it('holds no request, lets the worker give up in time and retry, and delivers each mail once when it answers again', async () => {
     const observationId = randomUUID();
     await as.scout.json('/api/sync', 'POST', {
-      observations: [{ id: observationId, blockId: block.id, row: 1, position: 2, kind: 'note', data: {}, note: 'Bleeding cut', observedAt: '2026-11-12T09:00:00Z' }],
+      observations: [
+        { id: observationId, blockId: block.id, row: 1, position: 2, kind: 'note', data: {}, note: 'Bleeding cut', observedAt: '2026-11-12T09:00:00Z' },
+      ],
     });
     stallMail();
     let queuedAt: number;
@@ -54,22 +56,32 @@ describe('a stalled mail server', () => {
     try {
       comment = await timed((signal) =>
         as.advisor.fetch('/api/comments', {
-          method: 'POST', signal, headers: { 'content-type': 'application/json' },
+          method: 'POST',
+          signal,
+          headers: { 'content-type': 'application/json' },
           body: JSON.stringify({ subject: 'observation', subjectId: observationId, body: `@${team.pruner.email} see the cut` }),
         }),
       );
       queuedAt = Date.now();
       health = await timed((signal) => as.scout.fetch('/api/health', { signal }));
       // An invitation sends its mail during the request: bounded by the SMTP deadlines, not hung.
-      invitation = await timed((signal) =>
-        as.manager.fetch('/api/invitations', {
-          method: 'POST', signal, headers: { 'content-type': 'application/json' },
-          body: JSON.stringify({ email: uniqueEmail('stalled'), role: 'scout' }),
-        }), 20_000);
+      invitation = await timed(
+        (signal) =>
+          as.manager.fetch('/api/invitations', {
+            method: 'POST',
+            signal,
+            headers: { 'content-type': 'application/json' },
+            body: JSON.stringify({ email: uniqueEmail('stalled'), role: 'scout' }),
+          }),
+        20_000,
+      );
       const id = comment.json().comment.id;
       failed = await until(
         'the worker to give up on the attempt',
-        () => testDb()('mail_outbox').where({ dedupe_key: `comment:${id}:${team.pruner.id}` }).first(),
+        () =>
+          testDb()('mail_outbox')
+            .where({ dedupe_key: `comment:${id}:${team.pruner.id}` })
+            .first(),
         (r) => r?.attempts >= 1 && r?.status === 'queued',
         15_000,
       );
@@ -90,7 +102,15 @@ describe('a stalled mail server', () => {
     const [mail] = await waitForMail(team.pruner.email, 1, 45_000);
     expect(mail!.text).toContain('see the cut');
     const id = comment.json().comment.id;
-    const sent = await until('the row marked sent', () => testDb()('mail_outbox').where({ dedupe_key: `comment:${id}:${team.pruner.id}` }).first(), (r) => r?.status === 'sent', 20_000);
+    const sent = await until(
+      'the row marked sent',
+      () =>
+        testDb()('mail_outbox')
+          .where({ dedupe_key: `comment:${id}:${team.pruner.id}` })
+          .first(),
+      (r) => r?.status === 'sent',
+      20_000,
+    );
     expect(sent.attempts).toBeGreaterThanOrEqual(2);
     await new Promise((r) => setTimeout(r, 3000));
     expect((await mailsTo(team.pruner.email)).filter((m) => m.text.includes('see the cut'))).toHaveLength(1);

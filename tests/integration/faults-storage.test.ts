@@ -19,7 +19,14 @@ let observationId: string;
 
 const sha256 = (b: Buffer) => createHash('sha256').update(b).digest('hex');
 const observation = (note: string, id = randomUUID()) => ({
-  id, blockId: block.id, row: 1, position: 2, kind: 'note', data: {}, note, observedAt: new Date().toISOString(),
+  id,
+  blockId: block.id,
+  row: 1,
+  position: 2,
+  kind: 'note',
+  data: {},
+  note,
+  observedAt: new Date().toISOString(),
 });
 
 beforeAll(async () => {
@@ -78,7 +85,8 @@ async function gridAndSync() {
   const grid = await timed((signal) => scout.fetch(`/api/grid/${block.id}`, { signal }), 10_000);
   const obs = observation('written while storage is down');
   const sync = await timed(
-    (signal) => scout.fetch('/api/sync', { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ observations: [obs] }), signal }),
+    (signal) =>
+      scout.fetch('/api/sync', { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ observations: [obs] }), signal }),
     10_000,
   );
   return { grid, sync, obs };
@@ -238,7 +246,9 @@ describe('the sweep, with upload keys', () => {
   it('removes a week-old pending photo with its upload, and uploads no pending photo waits on, but keeps live ones', async () => {
     const live = await upload(await smallJpeg(31));
     const stale = await upload(await smallJpeg(32));
-    await testDb()('photos').where({ id: stale.id }).update({ created_at: new Date(Date.now() - 8 * 24 * 3600 * 1000) });
+    await testDb()('photos')
+      .where({ id: stale.id })
+      .update({ created_at: new Date(Date.now() - 8 * 24 * 3600 * 1000) });
     const staleKey = (await testDb()('photos').where({ id: stale.id }).first()).upload_key;
     // A PUT after its photo was confirmed leaves an upload nobody waits on.
     const done = await upload(await smallJpeg(33));

@@ -69,13 +69,18 @@ describe('sprays and the re-entry warning', () => {
     expect(Date.parse(layout.sprays[0].reentryAt) - Date.parse(appliedAt)).toBe(12 * 3600 * 1000);
   });
 
-  it('refuses a spray without a re-entry interval or on another organisation\'s block', async () => {
+  it("refuses a spray without a re-entry interval or on another organisation's block", async () => {
     const missing = await clients.manager!.json('/api/sprays', 'POST', { blockId: block.id, product: 'X', appliedAt: new Date().toISOString() });
     expect(missing.status).toBe(422);
     expect(Object.keys((await missing.json()).error.fields).sort()).toEqual(['product', 'reiHours']);
     const other = await makeTeam();
     const foreign = await makeBlock(other.org.id);
-    const res = await clients.manager!.json('/api/sprays', 'POST', { blockId: foreign.id, product: 'Example', appliedAt: new Date().toISOString(), reiHours: 4 });
+    const res = await clients.manager!.json('/api/sprays', 'POST', {
+      blockId: foreign.id,
+      product: 'Example',
+      appliedAt: new Date().toISOString(),
+      reiHours: 4,
+    });
     expect(res.status).toBe(404);
   });
 });
@@ -101,7 +106,7 @@ describe('sampling plans', () => {
 });
 
 describe('language', () => {
-  it('is kept on the person\'s account and mirrored in a cookie', async () => {
+  it("is kept on the person's account and mirrored in a cookie", async () => {
     const res = await clients.pruner!.json('/api/me/locale', 'PUT', { locale: 'es' });
     expect(res.status).toBe(200);
     expect(clients.pruner!.cookie('vw-locale')).toBe('es');
@@ -114,14 +119,27 @@ describe('unconfirmed uploads', () => {
   it('are swept after a week: the pending row and the object are removed, stored photos stay', async () => {
     const observationId = randomUUID();
     await clients.scout!.json('/api/sync', 'POST', {
-      observations: [{ id: observationId, blockId: block.id, row: 1, position: 1, kind: 'note', data: {}, note: 'sweep', observedAt: new Date().toISOString() }],
+      observations: [
+        { id: observationId, blockId: block.id, row: 1, position: 1, kind: 'note', data: {}, note: 'sweep', observedAt: new Date().toISOString() },
+      ],
     });
     const stale = randomUUID();
     const key = `orgs/${team.org.id}/photos/${stale}.jpg`;
-    await testDb()('photos').insert({ id: stale, organisation_id: team.org.id, observation_id: observationId, object_key: key, created_at: new Date(Date.now() - 8 * 24 * 3600 * 1000) });
+    await testDb()('photos').insert({
+      id: stale,
+      organisation_id: team.org.id,
+      observation_id: observationId,
+      object_key: key,
+      created_at: new Date(Date.now() - 8 * 24 * 3600 * 1000),
+    });
     await testS3().send(new PutObjectCommand({ Bucket: process.env.S3_BUCKET!, Key: key, Body: 'half an upload' }));
     const fresh = randomUUID();
-    await testDb()('photos').insert({ id: fresh, organisation_id: team.org.id, observation_id: observationId, object_key: `orgs/${team.org.id}/photos/${fresh}.jpg` });
+    await testDb()('photos').insert({
+      id: fresh,
+      organisation_id: team.org.id,
+      observation_id: observationId,
+      object_key: `orgs/${team.org.id}/photos/${fresh}.jpg`,
+    });
 
     expect(await sweepPendingPhotos()).toBeGreaterThanOrEqual(1);
     expect(await testDb()('photos').where({ id: stale })).toHaveLength(0);

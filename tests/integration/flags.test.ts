@@ -107,14 +107,21 @@ describe('POST /api/sync/flags', () => {
       ['rejected', ['flaggedAt']],
       ['rejected', ['blockId']],
     ]);
-    expect(await testDb()('flags').whereIn('id', bad.slice(1).map((b) => b.id))).toHaveLength(0);
+    expect(
+      await testDb()('flags').whereIn(
+        'id',
+        bad.slice(1).map((b) => b.id),
+      ),
+    ).toHaveLength(0);
   });
 
   it('refuses a vine of another organisation as if the block did not exist, and does not reveal a stored id', async () => {
     const other = await makeTeam();
     const foreign = await makeBlock(other.org.id);
     const f = flag({ blockId: foreign.id, row: 1, position: 1 });
-    expect(await results(as.scout, [f])).toEqual([{ id: f.id, status: 'rejected', errors: [{ field: 'blockId', message: 'No such block in your organisation' }] }]);
+    expect(await results(as.scout, [f])).toEqual([
+      { id: f.id, status: 'rejected', errors: [{ field: 'blockId', message: 'No such block in your organisation' }] },
+    ]);
 
     const mine = flag();
     await results(as.scout, [mine]);
@@ -125,7 +132,10 @@ describe('POST /api/sync/flags', () => {
   });
 
   it('refuses a batch of 501 flags as a whole', async () => {
-    const res = await sync(as.scout, Array.from({ length: 501 }, () => flag()));
+    const res = await sync(
+      as.scout,
+      Array.from({ length: 501 }, () => flag()),
+    );
     expect(res.status).toBe(422);
     expect((await res.json()).error.fields.flags[0]).toMatch(/At most 500/);
   });
@@ -138,7 +148,17 @@ describe('reading and closing flags', () => {
     const res = await as.advisor.fetch(`/api/flags?block=${block.id}`);
     expect(res.status).toBe(200);
     const listed = (await res.json()).flags.find((x: { id: string }) => x.id === f.id);
-    expect(listed).toMatchObject({ blockId: block.id, row: 4, position: 11, toPosition: 11, reason: 'heavier-bud-load', note: 'Strong vine, short canes', flaggedByName: team.pruner.name, status: 'open', taskId: null });
+    expect(listed).toMatchObject({
+      blockId: block.id,
+      row: 4,
+      position: 11,
+      toPosition: 11,
+      reason: 'heavier-bud-load',
+      note: 'Strong vine, short canes',
+      flaggedByName: team.pruner.name,
+      status: 'open',
+      taskId: null,
+    });
   });
 
   it('answers 404 for another organisation’s flag and never lists it', async () => {
@@ -174,7 +194,16 @@ describe('reading and closing flags', () => {
 
   it('shows open flags on the vine panel and lets the grid’s “flagged only” filter find the vine', async () => {
     const own = await makeBlock(team.org.id, { rows: 2, vinesPerRow: 6 });
-    const observation = { id: randomUUID(), blockId: own.id, row: 1, position: 3, kind: 'weak-budbreak', data: { budsRetained: 20, budsPushed: 3 }, note: '', observedAt: '2026-10-01T09:00:00Z' };
+    const observation = {
+      id: randomUUID(),
+      blockId: own.id,
+      row: 1,
+      position: 3,
+      kind: 'weak-budbreak',
+      data: { budsRetained: 20, budsPushed: 3 },
+      note: '',
+      observedAt: '2026-10-01T09:00:00Z',
+    };
     expect((await (await as.scout.json('/api/sync', 'POST', { observations: [observation] })).json()).results[0].status).toBe('created');
     const before = await (await as.manager.fetch(`/api/grid/${own.id}?flagged=1`)).json();
     expect(before.cells[0][2] % 5).toBe(0);

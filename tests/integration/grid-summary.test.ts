@@ -146,7 +146,10 @@ describe('the grid summary kept by triggers', () => {
         async (batches, changes, flagged) => {
           const block = await makeBlock(team.org.id, { rows: ROWS, vinesPerRow: VINES });
           const slots = new Map<string, string>(
-            (await db('vine_positions').where({ block_id: block.id }).select('id', 'row_number', 'position')).map((s) => [`${s.row_number}:${s.position}`, s.id]),
+            (await db('vine_positions').where({ block_id: block.id }).select('id', 'row_number', 'position')).map((s) => [
+              `${s.row_number}:${s.position}`,
+              s.id,
+            ]),
           );
           if (flagged) {
             await db('flags').insert({
@@ -217,7 +220,9 @@ describe('the grid summary kept by triggers', () => {
     const adding = await db.transaction();
     try {
       await closing('observations').where({ position_id: slots[1], kind: 'note' }).update({ status: 'closed' });
-      const waiting = adding('observations').insert(row(slots[1], 2, 1, 'shade-cane')).then(() => undefined);
+      const waiting = adding('observations')
+        .insert(row(slots[1], 2, 1, 'shade-cane'))
+        .then(() => undefined);
       await new Promise((resolve) => setTimeout(resolve, 200));
       await closing.commit();
       await waiting;
@@ -255,7 +260,8 @@ describe('the grid summary kept by triggers', () => {
       return block;
     };
     const summaryRows = async (blockId: string) =>
-      Number((await db('grid_vines').where({ block_id: blockId }).count({ n: '*' }))[0]!.n) + Number((await db('grid_counts').where({ block_id: blockId }).count({ n: '*' }))[0]!.n);
+      Number((await db('grid_vines').where({ block_id: blockId }).count({ n: '*' }))[0]!.n) +
+      Number((await db('grid_counts').where({ block_id: blockId }).count({ n: '*' }))[0]!.n);
     const block = await recorded();
     await db('blocks').where({ id: block.id }).delete();
     expect(await summaryRows(block.id)).toBe(0);

@@ -59,7 +59,18 @@ beforeAll(async () => {
   await record(scout, 'r3v4', 3, 4, budbreak(27), '2026-04-20'); // 0
   // Vines 2 and 3 of row 1 flagged for trunk renewal, as one run.
   const flag = await pruner.json('/api/sync/flags', 'POST', {
-    flags: [{ id: randomUUID(), blockId: block.id, row: 1, position: 2, toPosition: 3, reason: 'trunk-renewal', note: 'Mower scar', flaggedAt: '2026-02-12T09:00:00Z' }],
+    flags: [
+      {
+        id: randomUUID(),
+        blockId: block.id,
+        row: 1,
+        position: 2,
+        toPosition: 3,
+        reason: 'trunk-renewal',
+        note: 'Mower scar',
+        flaggedAt: '2026-02-12T09:00:00Z',
+      },
+    ],
   });
   expect((await flag.json()).results[0].status).toBe('created');
   await db('observations').where({ id: ids.r1v3 }).update({ status: 'closed', closed_at: db.fn.now() });
@@ -113,19 +124,39 @@ describe('GET /api/grid/:blockId', () => {
   });
 
   it('applies kind, status, person, date and flag filters in the query', async () => {
-    expect((await grid('?kind=trunk-injury')).cells).toEqual([[0, 4, 0, 0, 10, 5], [15, 0, 0, 0, 0, 0], [2, 0, 0, 0]]);
-    expect((await grid('?status=closed')).cells).toEqual([[0, 0, 3, 0, 10, 5], [15, 0, 0, 0, 0, 0], [0, 0, 0, 0]]);
+    expect((await grid('?kind=trunk-injury')).cells).toEqual([
+      [0, 4, 0, 0, 10, 5],
+      [15, 0, 0, 0, 0, 0],
+      [2, 0, 0, 0],
+    ]);
+    expect((await grid('?status=closed')).cells).toEqual([
+      [0, 0, 3, 0, 10, 5],
+      [15, 0, 0, 0, 0, 0],
+      [0, 0, 0, 0],
+    ]);
     expect((await grid('?kind=trunk-injury&status=all')).cells[0]).toEqual([0, 4, 3, 0, 10, 5]);
-    expect((await grid(`?by=${team.pruner.id}`)).cells).toEqual([[0, 4, 0, 0, 10, 5], [15, 0, 0, 0, 0, 0], [2, 0, 0, 0]]);
+    expect((await grid(`?by=${team.pruner.id}`)).cells).toEqual([
+      [0, 4, 0, 0, 10, 5],
+      [15, 0, 0, 0, 0, 0],
+      [2, 0, 0, 0],
+    ]);
     const days = await grid('?from=2026-04-21&to=2026-04-22');
-    expect(days.cells).toEqual([[0, 0, 0, 0, 10, 9], [15, 3, 0, 0, 0, 0], [0, 0, 0, 0]]);
+    expect(days.cells).toEqual([
+      [0, 0, 0, 0, 10, 9],
+      [15, 3, 0, 0, 0, 0],
+      [0, 0, 0, 0],
+    ]);
     // The period and the person scope the denominator too; kind and status do not.
     expect(days.summary.vinesScouted).toBe(2);
     expect((await grid('?kind=note')).summary.vinesScouted).toBe(8);
     expect((await grid('?kind=weak-budbreak,missing-vine')).cells[0]).toEqual([1, 2, 0, 0, 13, 9]);
     // Only the flagged run (row 1, vines 2–3) keeps its colour; vine 3's one finding is closed.
     const flagged = await grid('?flagged=1');
-    expect(flagged.cells).toEqual([[0, 4, 0, 0, 10, 5], [15, 0, 0, 0, 0, 0], [0, 0, 0, 0]]);
+    expect(flagged.cells).toEqual([
+      [0, 4, 0, 0, 10, 5],
+      [15, 0, 0, 0, 0, 0],
+      [0, 0, 0, 0],
+    ]);
     expect(flagged.summary.kinds.map((k: { kind: string; bySeverity: number[] }) => [k.kind, k.bySeverity])).toEqual([
       ['trunk-injury', [0, 0, 0, 1]],
       ['weak-budbreak', [0, 1, 0, 0]],
@@ -206,7 +237,14 @@ describe('the vine panel', () => {
     await record(pruner, 'cane-a', 2, 4, cane(9.5, 70), '2026-01-20T09:00:00Z');
     await record(pruner, 'cane-b', 2, 4, cane(11.5, 80), '2026-01-20T09:01:00Z');
     await record(pruner, 'cane-c', 2, 4, cane(7, 120), '2026-01-20T09:02:00Z');
-    await record(pruner, 'weight', 2, 4, { kind: 'pruning-record', data: { canesKept: 2, budsPerCane: 14, renewalSpurs: 2, pruningWeightKg: 0.9 } }, '2026-01-21');
+    await record(
+      pruner,
+      'weight',
+      2,
+      4,
+      { kind: 'pruning-record', data: { canesKept: 2, budsPerCane: 14, renewalSpurs: 2, pruningWeightKg: 0.9 } },
+      '2026-01-21',
+    );
     const panel = await (await manager.fetch(`/api/vines?block=${block.id}&row=2&position=4`)).json();
     const canes = [
       { baseDiameterMm: 9.5, longestInternodeMm: 70, exposure: 'sun' },

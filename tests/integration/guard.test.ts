@@ -48,9 +48,7 @@ describe('the server-side guard', () => {
     const res = await client.fetch('/api/members');
     expect(res.status).toBe(200);
     const { members } = await res.json();
-    expect(members.map((m: { email: string }) => m.email).sort()).toEqual(
-      [team.manager, team.scout, team.pruner, team.advisor].map((u) => u.email).sort(),
-    );
+    expect(members.map((m: { email: string }) => m.email).sort()).toEqual([team.manager, team.scout, team.pruner, team.advisor].map((u) => u.email).sort());
   });
 
   it('never shows one organisation the data of another, and refuses switching into it', async () => {

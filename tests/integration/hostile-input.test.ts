@@ -117,7 +117,11 @@ const ROWS: Record<string, Row> = {
   'POST /api/invitations/accept': { public: true, body: 'json' },
   'PUT /api/me/locale': { body: 'json' },
   'GET /api/me': {},
-  'GET /api/measurements': { path: (o) => `/api/measurements?blockId=${o.block}&season=2026`, foreign: (t) => `/api/measurements?blockId=${t.block}&season=2026`, idQuery: ['blockId'] },
+  'GET /api/measurements': {
+    path: (o) => `/api/measurements?blockId=${o.block}&season=2026`,
+    foreign: (t) => `/api/measurements?blockId=${t.block}&season=2026`,
+    idQuery: ['blockId'],
+  },
   'POST /api/measurements': { body: 'json' },
   'DELETE /api/measurements/[id]': { body: 'none', foreign: (t) => `/api/measurements/${t.measurement}` },
   'GET /api/members': {},
@@ -134,7 +138,11 @@ const ROWS: Record<string, Row> = {
   'GET /api/pruning-checks': { idQuery: ['block'] },
   'GET /api/reports': {},
   'GET /api/reports/blocks/[blockId]': { foreign: (t) => `/api/reports/blocks/${t.block}` },
-  'GET /api/reports/observations.csv': { path: () => '/api/reports/observations.csv?season=2026', foreign: (t) => `/api/reports/observations.csv?season=2026&blockId=${t.block}`, idQuery: ['blockId'] },
+  'GET /api/reports/observations.csv': {
+    path: () => '/api/reports/observations.csv?season=2026',
+    foreign: (t) => `/api/reports/observations.csv?season=2026&blockId=${t.block}`,
+    idQuery: ['blockId'],
+  },
   'GET /api/reports/row-work.csv': { path: () => '/api/reports/row-work.csv?season=2026', idQuery: ['blockId'] },
   'GET /api/sampling-plans': { idQuery: ['blockId'] },
   'POST /api/sampling-plans': { body: 'json', foreign: () => '/api/sampling-plans' },
@@ -150,7 +158,11 @@ const ROWS: Record<string, Row> = {
   'POST /api/tasks': { body: 'json', foreign: () => '/api/tasks' },
   'GET /api/tasks/[id]': { foreign: (t) => `/api/tasks/${t.task}` },
   'PATCH /api/tasks/[id]': { body: 'json', foreign: (t) => `/api/tasks/${t.task}`, valid: { status: 'cancelled' } },
-  'GET /api/vines': { path: (o) => `/api/vines?block=${o.block}&row=1&position=1`, foreign: (t) => `/api/vines?block=${t.block}&row=1&position=1`, idQuery: ['block'] },
+  'GET /api/vines': {
+    path: (o) => `/api/vines?block=${o.block}&row=1&position=1`,
+    foreign: (t) => `/api/vines?block=${t.block}&row=1&position=1`,
+    idQuery: ['block'],
+  },
   'GET /api/vines/[positionId]': { foreign: (t) => `/api/vines/${t.position}` },
 };
 
@@ -177,7 +189,9 @@ async function snapshot() {
     .sort();
   const out: Record<string, string> = {};
   for (const table of tables) {
-    const [row] = (await db.raw(`select count(*)::text || ':' || coalesce(md5(string_agg(md5(t::text), '' order by md5(t::text))), '') as h from ?? t`, [table])).rows;
+    const [row] = (
+      await db.raw(`select count(*)::text || ':' || coalesce(md5(string_agg(md5(t::text), '' order by md5(t::text))), '') as h from ?? t`, [table])
+    ).rows;
     out[table] = row.h;
   }
   return out;
@@ -200,7 +214,13 @@ async function makeRows(team: Awaited<ReturnType<typeof makeTeam>>, client: Clie
   const tasks = await client.json('/api/tasks', 'POST', { flagIds: [flagId], assigneeId: team.pruner.id, dueOn: today() });
   expect(tasks.status).toBe(201);
   const measured = await client.json('/api/measurements', 'POST', {
-    blockId: block.id, kind: 'yield', row: 1, position: 1, weight: 2.5, weightUnit: 'kg', measuredOn: today(),
+    blockId: block.id,
+    kind: 'yield',
+    row: 1,
+    position: 1,
+    weight: 2.5,
+    weightUnit: 'kg',
+    measuredOn: today(),
   });
   expect(measured.status).toBe(201);
   const observationId = randomUUID();
@@ -212,8 +232,16 @@ async function makeRows(team: Awaited<ReturnType<typeof makeTeam>>, client: Clie
   expect(presigned.status).toBe(200);
   const [mail] = await testDb()('mail_outbox')
     .insert({
-      organisation_id: team.org.id, user_id: team.scout.id, to_email: team.scout.email, kind: 'comment',
-      dedupe_key: `hostile:${randomUUID()}`, subject: 'Failed', text_body: 'x', html_body: 'x', status: 'failed', attempts: 5,
+      organisation_id: team.org.id,
+      user_id: team.scout.id,
+      to_email: team.scout.email,
+      kind: 'comment',
+      dedupe_key: `hostile:${randomUUID()}`,
+      subject: 'Failed',
+      text_body: 'x',
+      html_body: 'x',
+      status: 'failed',
+      attempts: 5,
     })
     .returning('id');
   const invited = await client.json('/api/invitations', 'POST', { email: `hostile-${randomUUID().slice(0, 8)}@example.com`, role: 'scout' });
@@ -250,7 +278,13 @@ function fill(route: string, row: Row, override?: { param: string; value: string
   if (row.path && !override) return row.path(ours);
   const own: Record<string, string> = { blockId: ours.block, positionId: ours.position };
   const idOf: Record<string, string> = {
-    blocks: ours.block, flags: ours.flag, tasks: ours.task, measurements: ours.measurement, photos: ours.photo, undelivered: ours.mail, invitations: ours.invitation,
+    blocks: ours.block,
+    flags: ours.flag,
+    tasks: ours.task,
+    measurements: ours.measurement,
+    photos: ours.photo,
+    undelivered: ours.mail,
+    invitations: ours.invitation,
   };
   const parts = route.split('/');
   const filled = parts.map((part, i) => {
@@ -278,14 +312,22 @@ const BIG = 20 * 1024 * 1024;
 function casesFor(key: string, row: Row): Case[] {
   const [method, route] = key.split(' ') as [Method, string];
   const cookie: Record<string, string> = row.public ? {} : { cookie: manager.cookieHeader };
-  const send = (p: string, headers: Record<string, string> = {}, body?: string | Buffer, stream?: { bytes: number }) => () =>
-    raw({ method, path: p, headers: { ...cookie, ...headers }, body, stream, timeoutMs: 60_000 });
+  const send =
+    (p: string, headers: Record<string, string> = {}, body?: string | Buffer, stream?: { bytes: number }) =>
+    () =>
+      raw({ method, path: p, headers: { ...cookie, ...headers }, body, stream, timeoutMs: 60_000 });
   const at = fill(route, row);
   const type = row.body === 'csv' ? 'text/csv' : 'application/json';
   const out: Case[] = [];
 
   for (const [, name] of route.matchAll(/\[([^\]]+)\]/g)) {
-    if (isIdParam(name!)) out.push({ name: `path ${name} "not-an-id"`, status: 422, code: 'invalid-input', send: send(fill(route, row, { param: name!, value: 'not-an-id' }), row.body && row.body !== 'none' ? { 'content-type': type } : {}) });
+    if (isIdParam(name!))
+      out.push({
+        name: `path ${name} "not-an-id"`,
+        status: 422,
+        code: 'invalid-input',
+        send: send(fill(route, row, { param: name!, value: 'not-an-id' }), row.body && row.body !== 'none' ? { 'content-type': type } : {}),
+      });
   }
   for (const q of row.idQuery ?? []) {
     const url = new URL(at, 'http://x');
@@ -295,24 +337,52 @@ function casesFor(key: string, row: Row): Case[] {
   if (row.foreign) {
     const body = FOREIGN_BODIES[key]?.(theirs, { userId: managerId }) ?? row.valid;
     const payload = body === undefined ? undefined : typeof body === 'string' ? body : JSON.stringify(body);
-    out.push({ name: 'another organisation’s id', status: 404, code: 'not-found', send: send(row.foreign(theirs), payload === undefined ? {} : { 'content-type': type }, payload) });
+    out.push({
+      name: 'another organisation’s id',
+      status: 404,
+      code: 'not-found',
+      send: send(row.foreign(theirs), payload === undefined ? {} : { 'content-type': type }, payload),
+    });
   }
   // GET bodies are never read (the framework gives GET handlers none), so only changes get these.
   if (method === 'GET') return out;
 
-  if (!row.public) out.push({ name: 'a change from another site', status: 403, code: 'cross-site', send: send(at, { 'content-type': type, origin: 'https://evil.example' }, '{}') });
+  if (!row.public)
+    out.push({
+      name: 'a change from another site',
+      status: 403,
+      code: 'cross-site',
+      send: send(at, { 'content-type': type, origin: 'https://evil.example' }, '{}'),
+    });
   out.push({ name: 'text/plain', status: 415, code: 'unsupported-media-type', send: send(at, { 'content-type': 'text/plain' }, '{"a":1}') });
-  if (row.body !== 'token') out.push({ name: 'a form', status: 415, code: 'unsupported-media-type', send: send(at, { 'content-type': 'application/x-www-form-urlencoded' }, 'a=1') });
-  if (row.body === 'csv') out.push({ name: 'JSON where a CSV file belongs', status: 415, code: 'unsupported-media-type', send: send(at, { 'content-type': 'application/json' }, '{}') });
+  if (row.body !== 'token')
+    out.push({ name: 'a form', status: 415, code: 'unsupported-media-type', send: send(at, { 'content-type': 'application/x-www-form-urlencoded' }, 'a=1') });
+  if (row.body === 'csv')
+    out.push({
+      name: 'JSON where a CSV file belongs',
+      status: 415,
+      code: 'unsupported-media-type',
+      send: send(at, { 'content-type': 'application/json' }, '{}'),
+    });
 
   const bodyless = row.body === 'none';
   const json = { 'content-type': type };
   if (row.body === 'json' || row.body === 'token' || bodyless) {
-    out.push({ name: 'malformed JSON', status: bodyless ? 413 : 400, code: bodyless ? 'payload-too-large' : 'bad-request', send: send(at, { 'content-type': 'application/json' }, '{"email": "a@example.com",') });
+    out.push({
+      name: 'malformed JSON',
+      status: bodyless ? 413 : 400,
+      code: bodyless ? 'payload-too-large' : 'bad-request',
+      send: send(at, { 'content-type': 'application/json' }, '{"email": "a@example.com",'),
+    });
     // Scalars and arrays where an object belongs, then the usual field names with the wrong types.
     const kitchenSink = '{"email":7,"role":[],"id":{},"blockId":false,"name":7,"status":1,"vineCount":"x","action":3,"locale":5,"organisationId":1,"token":5}';
     for (const wrong of ['[1,2]', '"text"', '42', 'null', kitchenSink]) {
-      out.push({ name: `wrong types ${wrong}`, status: bodyless ? 413 : 422, code: bodyless ? 'payload-too-large' : 'invalid-input', send: send(at, { 'content-type': 'application/json' }, wrong) });
+      out.push({
+        name: `wrong types ${wrong}`,
+        status: bodyless ? 413 : 422,
+        code: bodyless ? 'payload-too-large' : 'invalid-input',
+        send: send(at, { 'content-type': 'application/json' }, wrong),
+      });
     }
   }
   out.push({ name: '20 MB with Content-Length', status: 413, code: 'payload-too-large', send: send(at, json, Buffer.alloc(BIG, ' ')) });
@@ -324,8 +394,14 @@ describe('hostile input', () => {
   it('has a row for every route under app/api (a new route needs one), and no row without a route', () => {
     const onDisk = routesOnDisk().filter((r) => !EXCLUDED.test(r));
     expect(onDisk.length).toBeGreaterThan(40);
-    expect(onDisk.filter((r) => !ROWS[r]), 'routes without a row').toEqual([]);
-    expect(Object.keys(ROWS).filter((r) => !onDisk.includes(r)), 'rows without a route').toEqual([]);
+    expect(
+      onDisk.filter((r) => !ROWS[r]),
+      'routes without a row',
+    ).toEqual([]);
+    expect(
+      Object.keys(ROWS).filter((r) => !onDisk.includes(r)),
+      'rows without a route',
+    ).toEqual([]);
   });
 
   for (const key of routesOnDisk().filter((r) => !EXCLUDED.test(r))) {

@@ -55,7 +55,9 @@ describe('invitations', () => {
     const email = uniqueEmail('late');
     await client.json('/api/invitations', 'POST', { email, role: 'advisor' });
     const token = tokenFrom(firstLink((await waitForMail(email))[0]!, '/invite/'));
-    await testDb()('invitations').where({ email }).update({ expires_at: new Date(Date.now() - 1000) });
+    await testDb()('invitations')
+      .where({ email })
+      .update({ expires_at: new Date(Date.now() - 1000) });
 
     const res = await new Client().json('/api/invitations/accept', 'POST', { token, name: 'L', password: 'a long password' });
     expect(res.status).toBe(410);

@@ -129,12 +129,7 @@ describe('layout CSV import', () => {
     ],
     ['an empty file', '', 422, { file: ['The file is empty. A layout file starts with the header row,vines,statuses and has one line per row.'] }],
     ['a header and nothing else', 'row,vines,statuses\n', 422, { file: ['The file has a header but no rows; a block needs at least one row.'] }],
-    [
-      'a gap in the rows',
-      'row,vines\n1,5\n2,5\n4,5\n',
-      422,
-      { file: ["Rows must run from the block's first row (1) without gaps, but row 3 is missing."] },
-    ],
+    ['a gap in the rows', 'row,vines\n1,5\n2,5\n4,5\n', 422, { file: ["Rows must run from the block's first row (1) without gaps, but row 3 is missing."] }],
     [
       'statuses that do not match the vines',
       'row,vines,statuses\n1,3,PPX\n2,3,PP\n',
@@ -198,8 +193,16 @@ describe('layout CSV import', () => {
     const { client, block, org } = await managerWithBlock({ rowCount: 2, vinesPerRow: 5 });
     const slot = await testDb()('vine_positions').where({ block_id: block.id, row_number: 2, position: 5 }).first('id');
     await testDb()('observations').insert({
-      id: randomUUID(), organisation_id: org.id, block_id: block.id, position_id: slot.id, row_number: 2, position: 5,
-      kind: 'note', data: {}, observed_at: new Date(), payload_sha256: 'y'.repeat(64),
+      id: randomUUID(),
+      organisation_id: org.id,
+      block_id: block.id,
+      position_id: slot.id,
+      row_number: 2,
+      position: 5,
+      kind: 'note',
+      data: {},
+      observed_at: new Date(),
+      payload_sha256: 'y'.repeat(64),
     });
     const before = await snapshot(block.id);
     for (const mode of ['preview', 'apply'] as const) {
@@ -216,7 +219,12 @@ describe('layout CSV import', () => {
     const res = await upload(client, block.id, csv, 'apply');
     expect(res.status).toBe(200);
     const { summary } = await res.json();
-    const letters = csv.split('\n').slice(1).filter(Boolean).map((l) => l.split(',')[2]!).join('');
+    const letters = csv
+      .split('\n')
+      .slice(1)
+      .filter(Boolean)
+      .map((l) => l.split(',')[2]!)
+      .join('');
     const count = (c: string) => [...letters].filter((l) => l === c).length;
     expect(summary.after).toEqual({ planted: count('P'), missing: count('M'), dead: count('D'), replant: count('R') });
     expect(summary.slots.after).toBe(22_500);

@@ -41,15 +41,24 @@ describe('the mail outbox', () => {
   it('keeps mail while the mail server is down, retries with back-off, and sends each mail once when it is back', async () => {
     const observationId = randomUUID();
     await as.scout.json('/api/sync', 'POST', {
-      observations: [{ id: observationId, blockId: block.id, row: 1, position: 3, kind: 'note', data: {}, note: 'Odd growth', observedAt: '2026-11-10T09:00:00Z' }],
+      observations: [
+        { id: observationId, blockId: block.id, row: 1, position: 3, kind: 'note', data: {}, note: 'Odd growth', observedAt: '2026-11-10T09:00:00Z' },
+      ],
     });
     await smtp('pause');
     try {
-      const res = await as.advisor.json('/api/comments', 'POST', { subject: 'observation', subjectId: observationId, body: `@${team.pruner.email} have a look` });
+      const res = await as.advisor.json('/api/comments', 'POST', {
+        subject: 'observation',
+        subjectId: observationId,
+        body: `@${team.pruner.email} have a look`,
+      });
       // The request does not wait for the mail server.
       expect(res.status).toBe(201);
       const { comment } = await res.json();
-      const row = () => testDb()('mail_outbox').where({ dedupe_key: `comment:${comment.id}:${team.pruner.id}` }).first();
+      const row = () =>
+        testDb()('mail_outbox')
+          .where({ dedupe_key: `comment:${comment.id}:${team.pruner.id}` })
+          .first();
       const failed = await until('a failed attempt', row, (r) => r?.attempts >= 1 && r?.status === 'queued');
       expect(failed.last_error).toMatch(/ECONNREFUSED|connect/i);
       expect(new Date(failed.next_attempt_at).getTime()).toBeGreaterThan(Date.now());
@@ -58,7 +67,11 @@ describe('the mail outbox', () => {
       await smtp('resume');
     }
     const [mail] = await waitForMail(team.pruner.email, 1, 30_000);
-    const stored = await until('the row marked sent', () => testDb()('mail_outbox').where({ user_id: team.pruner.id, kind: 'mention' }).first(), (r) => r?.status === 'sent');
+    const stored = await until(
+      'the row marked sent',
+      () => testDb()('mail_outbox').where({ user_id: team.pruner.id, kind: 'mention' }).first(),
+      (r) => r?.status === 'sent',
+    );
     expect(stored.attempts).toBeGreaterThanOrEqual(2);
     expect((mail as unknown as { messageId: string }).messageId).toBe(`<${stored.id}@localhost>`);
     // Several polls later there is still exactly one copy.
@@ -93,13 +106,19 @@ describe('notification settings and the daily digest', () => {
 
   it('sends a digest to a person who chose one, with a link back and an unsubscribe link that works without signing in', async () => {
     const flagId = randomUUID();
-    await as.scout.json('/api/sync/flags', 'POST', { flags: [{ id: flagId, blockId: block.id, row: 2, position: 2, reason: 'replant', note: '', flaggedAt: '2026-11-20T08:00:00Z' }] });
+    await as.scout.json('/api/sync/flags', 'POST', {
+      flags: [{ id: flagId, blockId: block.id, row: 2, position: 2, reason: 'replant', note: '', flaggedAt: '2026-11-20T08:00:00Z' }],
+    });
     const due = new Date(Date.now() + 5 * 24 * 3600 * 1000).toISOString().slice(0, 10);
     await as.manager.json('/api/tasks', 'POST', { flagIds: [flagId], assigneeId: team.pruner.id, dueOn: due, title: 'Replant the gap' });
 
     const res = await as.pruner.json('/api/notifications/preferences', 'PUT', { assignment: true, comment: true, mention: true, overdue: true, digest: true });
     expect((await res.json()).preferences.digest).toBe(true);
-    const digest = await until('the digest', async () => (await mailsTo(team.pruner.email)).filter((m) => m.subject.startsWith('Your Vineward digest')), (m) => m.length > 0);
+    const digest = await until(
+      'the digest',
+      async () => (await mailsTo(team.pruner.email)).filter((m) => m.subject.startsWith('Your Vineward digest')),
+      (m) => m.length > 0,
+    );
     expect(digest).toHaveLength(1);
     expect(digest[0]!.text).toContain('Replant the gap');
     expect(digest[0]!.text).toContain('/tasks');

@@ -18,20 +18,44 @@ beforeAll(async () => {
   }
 });
 
-const entry = (over: object = {}) => ({ blockId: block.id, kind: 'yield', row: 1, position: 3, weight: 5.5, weightUnit: 'kg', clusters: 44, measuredOn: '2024-09-18', ...over });
+const entry = (over: object = {}) => ({
+  blockId: block.id,
+  kind: 'yield',
+  row: 1,
+  position: 3,
+  weight: 5.5,
+  weightUnit: 'kg',
+  clusters: 44,
+  measuredOn: '2024-09-18',
+  ...over,
+});
 
 describe('POST /api/measurements', () => {
   it('stores a vine’s yield on its slot, and a row sample without one', async () => {
     const res = await clients.scout.json('/api/measurements', 'POST', entry({ note: 'Picked with the crew' }));
     expect(res.status).toBe(201);
     const { measurement } = await res.json();
-    expect(measurement).toMatchObject({ kind: 'yield', row: 1, position: 3, vines: 1, weightKg: 5.5, clusters: 44, measuredOn: '2024-09-18', note: 'Picked with the crew', recordedBy: team.scout.id });
+    expect(measurement).toMatchObject({
+      kind: 'yield',
+      row: 1,
+      position: 3,
+      vines: 1,
+      weightKg: 5.5,
+      clusters: 44,
+      measuredOn: '2024-09-18',
+      note: 'Picked with the crew',
+      recordedBy: team.scout.id,
+    });
     const stored = await testDb()('measurements').where({ id: measurement.id }).first();
     const slot = await testDb()('vine_positions').where({ block_id: block.id, row_number: 1, position: 3 }).first('id');
     expect(stored.position_id).toBe(slot.id);
     expect(stored.organisation_id).toBe(team.org.id);
 
-    const sample = await clients.pruner.json('/api/measurements', 'POST', entry({ kind: 'pruning-weight', row: 2, position: null, vines: 8, weight: 15, weightUnit: 'lb', clusters: null, measuredOn: '2025-01-20' }));
+    const sample = await clients.pruner.json(
+      '/api/measurements',
+      'POST',
+      entry({ kind: 'pruning-weight', row: 2, position: null, vines: 8, weight: 15, weightUnit: 'lb', clusters: null, measuredOn: '2025-01-20' }),
+    );
     expect(sample.status).toBe(201);
     const body = await sample.json();
     expect(body.measurement).toMatchObject({ position: null, vines: 8, clusters: null });

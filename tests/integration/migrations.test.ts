@@ -51,7 +51,16 @@ describe('migrations', () => {
     try {
       const [org] = await db('organisations').insert({ name: 'Truncation Test Estate' }).returning('id');
       const [block] = await db('blocks')
-        .insert({ organisation_id: org.id, name: 'T', variety: 'Test Noir', training_system: 'cane', row_spacing_m: 2.5, vine_spacing_m: 1.2, row_count: 1, vines_per_row: 1 })
+        .insert({
+          organisation_id: org.id,
+          name: 'T',
+          variety: 'Test Noir',
+          training_system: 'cane',
+          row_spacing_m: 2.5,
+          vine_spacing_m: 1.2,
+          row_count: 1,
+          vines_per_row: 1,
+        })
         .returning('id');
       await db('block_rows').insert({ block_id: block.id, row_number: 1, vine_count: 1 });
       const [slot] = await db('vine_positions').insert({ block_id: block.id, row_number: 1, position: 1 }).returning('id');

@@ -58,7 +58,10 @@ describe('two app servers on one database, storage and mail server', () => {
       const client = b % 2 === 0 ? onMain : onSpare;
       if (b === 3) {
         // The spare server dies while it works on this batch; the device never sees its answer.
-        const sent = onSpare.json('/api/sync', 'POST', { observations: batch }).then((r) => r.status, () => 0);
+        const sent = onSpare.json('/api/sync', 'POST', { observations: batch }).then(
+          (r) => r.status,
+          () => 0,
+        );
         await new Promise((r) => setTimeout(r, 30));
         spare!.child.kill('SIGKILL');
         expect([0, 200]).toContain(await sent);

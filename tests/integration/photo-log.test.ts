@@ -31,8 +31,12 @@ async function observe(client: Client, name: string, blockId: string, row: numbe
 
 async function photo(client: Client, observationId: string, takenAt: string, confirm = true) {
   const id = randomUUID();
-  const bytes = await sharp({ create: { width: 800, height: 600, channels: 3, background: { r: 120, g: 90, b: 60 } } }).jpeg().toBuffer();
-  const presign = await (await client.json('/api/photos/presign', 'POST', { id, observationId, contentType: 'image/jpeg', bytes: bytes.length, takenAt })).json();
+  const bytes = await sharp({ create: { width: 800, height: 600, channels: 3, background: { r: 120, g: 90, b: 60 } } })
+    .jpeg()
+    .toBuffer();
+  const presign = await (
+    await client.json('/api/photos/presign', 'POST', { id, observationId, contentType: 'image/jpeg', bytes: bytes.length, takenAt })
+  ).json();
   expect((await fetch(presign.uploadUrl, { method: 'PUT', headers: presign.headers, body: new Uint8Array(bytes) })).status).toBe(200);
   if (confirm) expect((await client.json('/api/photos/confirm', 'POST', { id })).status).toBe(200);
   return id;
@@ -136,7 +140,10 @@ describe('GET /api/photos (the photo log)', () => {
 describe('GET /api/photos/:id', () => {
   it('redirects a member to a short-lived signed link: the thumbnail or the full photo', async () => {
     const row = await testDb()('photos').where({ id: photos[0] }).first();
-    for (const [size, key] of [['thumb', row.thumb_key], ['full', row.object_key]] as const) {
+    for (const [size, key] of [
+      ['thumb', row.thumb_key],
+      ['full', row.object_key],
+    ] as const) {
       const res = await manager.fetch(`/api/photos/${photos[0]}?size=${size}`);
       expect(res.status, size).toBe(302);
       const location = new URL(res.headers.get('location')!);
@@ -146,7 +153,9 @@ describe('GET /api/photos/:id', () => {
       const image = Buffer.from(await (await fetch(location)).arrayBuffer());
       expect(image.equals((await getObjectBytes(key))!), size).toBe(true);
     }
-    const thumb = await sharp(Buffer.from(await (await fetch((await manager.fetch(`/api/photos/${photos[0]}?size=thumb`)).headers.get('location')!)).arrayBuffer())).metadata();
+    const thumb = await sharp(
+      Buffer.from(await (await fetch((await manager.fetch(`/api/photos/${photos[0]}?size=thumb`)).headers.get('location')!)).arrayBuffer()),
+    ).metadata();
     expect([thumb.width, thumb.height]).toEqual([320, 240]);
   });
 

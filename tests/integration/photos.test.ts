@@ -20,8 +20,18 @@ beforeAll(async () => {
   await scout.signIn(team.scout.email, PASSWORD);
   observationId = randomUUID();
   const res = await scout.json('/api/sync', 'POST', {
-    observations: [{ id: observationId, blockId: block.id, row: 1, position: 1, kind: 'trunk-injury',
-      data: { cause: 'mechanical', severity: 'moderate', girdlingPercent: 30 }, note: '', observedAt: new Date().toISOString() }],
+    observations: [
+      {
+        id: observationId,
+        blockId: block.id,
+        row: 1,
+        position: 1,
+        kind: 'trunk-injury',
+        data: { cause: 'mechanical', severity: 'moderate', girdlingPercent: 30 },
+        note: '',
+        observedAt: new Date().toISOString(),
+      },
+    ],
   });
   expect((await res.json()).results[0].status).toBe('created');
 });

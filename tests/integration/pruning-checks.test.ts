@@ -74,7 +74,14 @@ describe('GET /api/pruning-checks', () => {
     const at = (row: number, position: number, data: Record<string, unknown>) => check(row, position, { prunedBy: lead.id, ...data }, { blockId: own.id });
     // Two canes measured on vine 1/5 before the check: the plan comes from planVine.
     const canes = [9.5, 10.2, 6.0].map((diameterMm) => ({
-      id: randomUUID(), blockId: own.id, row: 1, position: 5, kind: 'cane-diameter', data: { diameterMm }, note: '', observedAt: '2026-11-30T09:00:00Z',
+      id: randomUUID(),
+      blockId: own.id,
+      row: 1,
+      position: 5,
+      kind: 'cane-diameter',
+      data: { diameterMm },
+      note: '',
+      observedAt: '2026-11-30T09:00:00Z',
     }));
     await sync(as.pruner, canes);
     await sync(as.manager, [

@@ -6,7 +6,10 @@ import { Client } from '../helpers/http';
 
 /** What a reader sees of a page: the HTML without its scripts, styles and tags, entities read. */
 function pageText(html: string) {
-  const body = html.replace(/<script[\s\S]*?<\/script>/g, ' ').replace(/<style[\s\S]*?<\/style>/g, ' ').replace(/<head[\s\S]*?<\/head>/, ' ');
+  const body = html
+    .replace(/<script[\s\S]*?<\/script>/g, ' ')
+    .replace(/<style[\s\S]*?<\/style>/g, ' ')
+    .replace(/<head[\s\S]*?<\/head>/, ' ');
   return body
     .replace(/<[^>]+>/g, ' ')
     .replace(/&#x27;|&#39;/g, "'")
@@ -55,7 +58,9 @@ async function as(email: string) {
 async function record(client: Client, name: string, row: number, position: number, kind: string, data: object, day: string, note = '') {
   const id = randomUUID();
   ids[name] = id;
-  const res = await client.json('/api/sync', 'POST', { observations: [{ id, blockId: block.id, row, position, kind, data, note, observedAt: `${day}T09:00:00Z` }] });
+  const res = await client.json('/api/sync', 'POST', {
+    observations: [{ id, blockId: block.id, row, position, kind, data, note, observedAt: `${day}T09:00:00Z` }],
+  });
   expect((await res.json()).results[0], name).toMatchObject({ status: 'created' });
 }
 
@@ -108,7 +113,15 @@ beforeAll(async () => {
   await record(pruner, 'r2v1-pruning', 2, 1, 'pruning-record', { canesKept: 2, budsPerCane: 14, renewalSpurs: 1 }, '2024-01-22');
   await record(pruner, 'r3v1-pruning', 3, 1, 'pruning-record', { canesKept: 2, budsPerCane: 10, renewalSpurs: 2 }, '2024-01-22');
   // The manager checks the pruner's work on vine 1/1: 34 buds on 2 canes + 2 renewal spurs = 38 against 28, 36% over.
-  await record(manager, 'r1v1-check', 1, 1, 'pruning-check', { prunedBy: team.pruner.id, canesKept: 2, budsOnCanes: 34, renewalSpurs: 2, budTarget: 28 }, '2024-01-23');
+  await record(
+    manager,
+    'r1v1-check',
+    1,
+    1,
+    'pruning-check',
+    { prunedBy: team.pruner.id, canesKept: 2, budsOnCanes: 34, renewalSpurs: 2, budTarget: 28 },
+    '2024-01-23',
+  );
   await weigh(pruner, { kind: 'pruning-weight', row: 2, position: 1, weight: 0.8, measuredOn: '2024-01-22' });
   await weigh(pruner, { kind: 'pruning-weight', row: 3, vines: 10, weight: 9, measuredOn: '2024-01-23' });
   // The 2024 harvest on vine 1/1, and that vine's wood weighed at the 2025 pruning: Ravaz 6 / 0.75.
@@ -177,7 +190,9 @@ describe('GET /api/reports/blocks/:blockId', () => {
     expect(r.budbreak.weakShare.lower).toBeCloseTo(wilson(3, 6).lower, 12);
     expect(r.budbreak.weakShare.upper).toBeCloseTo(wilson(3, 6).upper, 12);
     expect(r.budbreak.histogram.map((h: { count: number }) => h.count)).toEqual([0, 1, 0, 1, 0, 0, 0, 1, 1, 2]);
-    expect(r.budbreak.pooled.how).toBe(`${pushed} of ${retained} buds retained pushed a shoot: ${pushed} ÷ ${retained} × 100 = ${(Math.round((pushed / retained) * 1000) / 10).toString()}%`);
+    expect(r.budbreak.pooled.how).toBe(
+      `${pushed} of ${retained} buds retained pushed a shoot: ${pushed} ÷ ${retained} × 100 = ${(Math.round((pushed / retained) * 1000) / 10).toString()}%`,
+    );
   });
 
   it('sets buds kept against the balanced-pruning target from the record’s, the vine’s or the row sample’s weight', async () => {
@@ -277,8 +292,24 @@ describe('GET /api/reports/blocks/:blockId', () => {
     const db = testDb();
     const hasTasks = (await db.raw(`select to_regclass('public.tasks') is not null as ok`)).rows[0].ok as boolean;
     if (hasTasks) {
-      const [open] = await db('tasks').insert({ organisation_id: team.org.id, block_id: block.id, title: 'Renew trunk 1/2', assignee_id: team.pruner.id, status: 'open', created_at: '2024-02-12T08:00:00Z' }).returning('id');
-      await db('tasks').insert({ organisation_id: team.org.id, block_id: block.id, title: 'Replant row 3', status: 'done', created_at: '2024-03-02T08:00:00Z', closed_at: '2024-04-01T08:00:00Z' });
+      const [open] = await db('tasks')
+        .insert({
+          organisation_id: team.org.id,
+          block_id: block.id,
+          title: 'Renew trunk 1/2',
+          assignee_id: team.pruner.id,
+          status: 'open',
+          created_at: '2024-02-12T08:00:00Z',
+        })
+        .returning('id');
+      await db('tasks').insert({
+        organisation_id: team.org.id,
+        block_id: block.id,
+        title: 'Replant row 3',
+        status: 'done',
+        created_at: '2024-03-02T08:00:00Z',
+        closed_at: '2024-04-01T08:00:00Z',
+      });
       await db('tasks').insert({ organisation_id: team.org.id, block_id: block.id, title: 'Next year', status: 'open', created_at: '2025-03-02T08:00:00Z' });
       const slot = await db('vine_positions').where({ block_id: block.id, row_number: 1, position: 2 }).first('id');
       await db('task_items').insert({ task_id: open.id, position_id: slot.id, row_number: 1, position: 2, sequence: 1, status: 'done' });
@@ -335,7 +366,11 @@ describe('GET /api/reports/blocks/:blockId', () => {
     expect(text).toMatch(/29 vines × 1\.75 min = 0\.8 h; at 25 an hour, 21/);
     expect(codeWords(text)).toEqual([]);
     const { report: r } = await report();
-    expect(stringsIn(r).filter(({ path }) => !/\.missing\[/.test(path)).flatMap(({ path, text: t }) => codeWords(t).map((w) => `${path}: ${w}`))).toEqual([]);
+    expect(
+      stringsIn(r)
+        .filter(({ path }) => !/\.missing\[/.test(path))
+        .flatMap(({ path, text: t }) => codeWords(t).map((w) => `${path}: ${w}`)),
+    ).toEqual([]);
   });
 
   it('answers 404 for another organisation’s block or a malformed id, 401 when signed out, and 422 for an input it cannot read', async () => {

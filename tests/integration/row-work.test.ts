@@ -114,13 +114,20 @@ describe('POST /api/sync/row-work: rejected one by one', () => {
     expect(fields).toEqual(['row', 'personHours', 'personHours', 'pass', 'toPosition', 'toPosition', 'crewSize', 'finishedAt', 'created', 'id', '_']);
     expect(answer[0]!.errors![0]!.message).toMatch(/no row 5/);
     expect(answer.map((a) => a.id).slice(0, 9)).toEqual(batch.slice(0, 9).map((b) => b.id));
-    const stored = await testDb()('row_work').whereIn('id', batch.map((b) => b.id).filter((id) => id !== 'not-a-uuid')).pluck('id');
+    const stored = await testDb()('row_work')
+      .whereIn(
+        'id',
+        batch.map((b) => b.id).filter((id) => id !== 'not-a-uuid'),
+      )
+      .pluck('id');
     expect(stored).toEqual([good.id]);
   });
 
   it("rejects another organisation's block as if it did not exist", async () => {
     const r = work({ blockId: otherBlock.id });
-    expect(await results(as.manager, [r])).toEqual([{ id: r.id, status: 'rejected', errors: [{ field: 'blockId', message: 'No such block in your organisation' }] }]);
+    expect(await results(as.manager, [r])).toEqual([
+      { id: r.id, status: 'rejected', errors: [{ field: 'blockId', message: 'No such block in your organisation' }] },
+    ]);
     expect(await testDb()('row_work').where({ id: r.id })).toHaveLength(0);
   });
 
@@ -129,14 +136,29 @@ describe('POST /api/sync/row-work: rejected one by one', () => {
     const res = await sync(as.manager, batch);
     expect(res.status).toBe(422);
     expect((await res.json()).error.fields).toHaveProperty('records');
-    expect(await testDb()('row_work').whereIn('id', batch.map((b) => b.id))).toHaveLength(0);
+    expect(
+      await testDb()('row_work').whereIn(
+        'id',
+        batch.map((b) => b.id),
+      ),
+    ).toHaveLength(0);
   });
 
   it('stores 500 records in one request', async () => {
     const batch = Array.from({ length: 500 }, (_, i) => work({ row: 1 + (i % 4) }));
     const answer = await results(as.manager, batch);
     expect(answer.every((a) => a.status === 'created')).toBe(true);
-    expect(Number((await testDb()('row_work').whereIn('id', batch.map((b) => b.id)).count({ n: '*' }).first())!.n)).toBe(500);
+    expect(
+      Number(
+        (await testDb()('row_work')
+          .whereIn(
+            'id',
+            batch.map((b) => b.id),
+          )
+          .count({ n: '*' })
+          .first())!.n,
+      ),
+    ).toBe(500);
   });
 });
 
@@ -170,7 +192,9 @@ describe('GET /api/blocks/{id}/progress', () => {
       ).map((x) => x.status),
     ).toEqual(Array(6).fill('created'));
     // Overlapping the pruner's run 1–6: row 2 is now covered end to end, vines 5 and 6 once.
-    expect((await results(as.manager, [r({ row: 2, fromPosition: 5, toPosition: 10, crewSize: 1, personHours: 1.5, finishedAt: at('02') })]))[0]!.status).toBe('created');
+    expect((await results(as.manager, [r({ row: 2, fromPosition: 5, toPosition: 10, crewSize: 1, personHours: 1.5, finishedAt: at('02') })]))[0]!.status).toBe(
+      'created',
+    );
   });
 
   it('answers exactly the contract, with figures worked by hand', async () => {
@@ -201,7 +225,15 @@ describe('GET /api/blocks/{id}/progress', () => {
     });
     // Tying: 10 vines on 3 July, 28 left at 10 a day → 3 more days.
     expect(pass(body, 'tying')).toMatchObject({ rowsDone: 1, vinesDone: 10, personHours: 1, estimatedHours: null, projectedFinish: '2026-07-06' });
-    expect(pass(body, 'shoot-thinning')).toMatchObject({ rowsDone: 0, vinesDone: 0, personHours: 0, vinesPerPersonHour: null, projectedFinish: null, costToDate: 0, projectedCost: null });
+    expect(pass(body, 'shoot-thinning')).toMatchObject({
+      rowsDone: 0,
+      vinesDone: 0,
+      personHours: 0,
+      vinesPerPersonHour: null,
+      projectedFinish: null,
+      costToDate: 0,
+      projectedCost: null,
+    });
   });
 
   it('counts no vine in a missing slot, whether the run covers the whole row or only part of it', async () => {
@@ -265,6 +297,8 @@ describe('GET /api/blocks/{id}/progress', () => {
     // Six pruning and tying records of 2026 and three of pre-pruning; last season's stays out.
     expect(parsed.data).toHaveLength(9);
     expect(parsed.data.map((d) => Number(d.person_hours)).reduce((a, b) => a + b, 0)).toBe(34);
-    expect(parsed.data).toContainEqual(expect.objectContaining({ season: '2026', pass: 'pruning', row: '1', person_hours: '8', recorded_by: team.pruner.name }));
+    expect(parsed.data).toContainEqual(
+      expect.objectContaining({ season: '2026', pass: 'pruning', row: '1', person_hours: '8', recorded_by: team.pruner.name }),
+    );
   });
 });

@@ -15,7 +15,9 @@ let block: { id: string };
 let manager: Client;
 
 async function record(client: Client, row: number, position: number, kind: string, data: object, at: string) {
-  const res = await client.json('/api/sync', 'POST', { observations: [{ id: randomUUID(), blockId: block.id, row, position, kind, data, note: '', observedAt: at }] });
+  const res = await client.json('/api/sync', 'POST', {
+    observations: [{ id: randomUUID(), blockId: block.id, row, position, kind, data, note: '', observedAt: at }],
+  });
   expect((await res.json()).results[0].status).toBe('created');
 }
 

@@ -36,7 +36,9 @@ const LONG = { diameterMm: 9.5, longestInternodeMm: 140 };
 
 async function cane(blockId: string, row: number, data: object) {
   const res = await scout.json('/api/sync', 'POST', {
-    observations: [{ id: randomUUID(), blockId, row, position: 1, kind: 'cane-diameter', data, note: '', observedAt: new Date(Date.now() - 3600_000).toISOString() }],
+    observations: [
+      { id: randomUUID(), blockId, row, position: 1, kind: 'cane-diameter', data, note: '', observedAt: new Date(Date.now() - 3600_000).toISOString() },
+    ],
   });
   expect((await res.json()).results[0]).toMatchObject({ status: 'created' });
 }
@@ -88,7 +90,11 @@ describe('judgement settings', () => {
     const field = await (await scout.fetch(`/api/field/blocks/${blockA.id}`)).json();
     expect(field.settings.canes).toMatchObject({ bullAboveMm: 11.5, shadeInternodeAboveMm: 127, thinBelowMm: 7.9375 });
     const row = await testDb()('block_settings').where({ block_id: blockA.id }).first();
-    expect(row).toMatchObject({ organisation_id: team.org.id, updated_by: team.manager.id, overrides: { canes: { bullAboveMm: 11.5, shadeInternodeAboveMm: 127 } } });
+    expect(row).toMatchObject({
+      organisation_id: team.org.id,
+      updated_by: team.manager.id,
+      overrides: { canes: { bullAboveMm: 11.5, shadeInternodeAboveMm: 127 } },
+    });
   });
 
   it("apply the organisation's setting to blocks without their own", async () => {
@@ -96,7 +102,11 @@ describe('judgement settings', () => {
     expect(res.status, await res.clone().text()).toBe(200);
     expect(await verdicts(blockB.id)).toEqual({ 'fruit-cane': 1, 'if-nothing-better': 1, remove: 0 });
     const b = await (await manager.fetch(`/api/blocks/${blockB.id}/settings`)).json();
-    expect(b.settings.find((s: { key: string }) => s.key === 'canes.shadeInternodeAboveMm')).toMatchObject({ value: 130, origin: 'organisation', inherited: 130 });
+    expect(b.settings.find((s: { key: string }) => s.key === 'canes.shadeInternodeAboveMm')).toMatchObject({
+      value: 130,
+      origin: 'organisation',
+      inherited: 130,
+    });
     const a = await (await manager.fetch(`/api/blocks/${blockA.id}/settings`)).json();
     expect(a.settings.find((s: { key: string }) => s.key === 'canes.shadeInternodeAboveMm')).toMatchObject({ value: 127, origin: 'block', inherited: 130 });
     expect((await (await scout.fetch(`/api/field/blocks/${blockB.id}`)).json()).settings.canes.shadeInternodeAboveMm).toBe(130);

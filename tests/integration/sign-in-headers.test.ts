@@ -50,7 +50,10 @@ describe('the client address behind a configured proxy', () => {
   it('counts failures under the address the proxy appended, not what the client wrote before it', async () => {
     const { scout } = await makeTeam();
     const csrfRes = await fetch(`${PROXIED}/api/auth/csrf`);
-    const jar = csrfRes.headers.getSetCookie().map((c) => c.split(';')[0]).join('; ');
+    const jar = csrfRes.headers
+      .getSetCookie()
+      .map((c) => c.split(';')[0])
+      .join('; ');
     const { csrfToken } = (await csrfRes.json()) as { csrfToken: string };
     const res = await fetch(`${PROXIED}/api/auth/callback/credentials`, {
       method: 'POST',
@@ -71,7 +74,10 @@ describe('Content-Security-Policy', () => {
     for (const path of ['/signin', '/offline', '/signin']) {
       const res = await fetch(new URL(path, APP_URL));
       const csp = res.headers.get('content-security-policy')!;
-      const scriptSrc = csp.split(';').map((d) => d.trim()).find((d) => d.startsWith('script-src '))!;
+      const scriptSrc = csp
+        .split(';')
+        .map((d) => d.trim())
+        .find((d) => d.startsWith('script-src '))!;
       expect(scriptSrc).not.toContain("'unsafe-inline'");
       expect(scriptSrc).not.toContain("'unsafe-eval'");
       const nonce = /'nonce-([A-Za-z0-9+/=_-]+)'/.exec(scriptSrc)?.[1];

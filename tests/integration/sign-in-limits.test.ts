@@ -58,8 +58,18 @@ describe('sign-in limits hold however the body is encoded', () => {
     // next-auth keeps the last of repeated fields (Object.fromEntries): a decoy first must not pick the count.
     const repeated = new Client();
     const csrfToken = await repeated.csrf();
-    const body = new URLSearchParams([['email', uniqueEmail('decoy')], ['email', manager.email], ['password', PASSWORD], ['csrfToken', csrfToken], ['json', 'true']]);
-    const res = await repeated.fetch('/api/auth/callback/credentials', { method: 'POST', headers: { 'content-type': 'application/x-www-form-urlencoded' }, body });
+    const body = new URLSearchParams([
+      ['email', uniqueEmail('decoy')],
+      ['email', manager.email],
+      ['password', PASSWORD],
+      ['csrfToken', csrfToken],
+      ['json', 'true'],
+    ]);
+    const res = await repeated.fetch('/api/auth/callback/credentials', {
+      method: 'POST',
+      headers: { 'content-type': 'application/x-www-form-urlencoded' },
+      body,
+    });
     expect(res.status).toBe(429);
     expect(repeated.signedIn).toBe(false);
 
@@ -100,7 +110,9 @@ describe('known and unknown addresses get the same answer', () => {
     // The server hashes at BCRYPT_COST; the known person's hash has the same cost, as it would in production.
     const cost = Number(process.env.BCRYPT_COST ?? 12);
     const user = await makeUser('timed');
-    await testDb()('users').where({ id: user.id }).update({ password_hash: await bcrypt.hash(PASSWORD, cost) });
+    await testDb()('users')
+      .where({ id: user.id })
+      .update({ password_hash: await bcrypt.hash(PASSWORD, cost) });
     const stranger = uniqueEmail('stranger');
     const time = async (email: string) => {
       const started = performance.now();

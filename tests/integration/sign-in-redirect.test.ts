@@ -68,7 +68,13 @@ describe('redirects after sign-in stay on the site', () => {
     for (const target of HOSTILE) {
       const client = new Client();
       const csrfToken = await client.csrf();
-      const res = await client.postForm('/api/auth/callback/credentials', { email: pruner.email, password: PASSWORD, csrfToken, json: 'true', callbackUrl: target });
+      const res = await client.postForm('/api/auth/callback/credentials', {
+        email: pruner.email,
+        password: PASSWORD,
+        csrfToken,
+        json: 'true',
+        callbackUrl: target,
+      });
       expect(res.status).toBe(200);
       onSite(((await res.json()) as { url: string }).url);
     }

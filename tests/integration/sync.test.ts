@@ -95,7 +95,14 @@ describe('POST /api/sync', () => {
       ['position'],
       ['note'],
     ]);
-    expect(await testDb()('observations').whereIn('id', bad.map((b) => b.id).filter((id) => id !== 'not-a-uuid')).count()).toEqual([{ count: '0' }]);
+    expect(
+      await testDb()('observations')
+        .whereIn(
+          'id',
+          bad.map((b) => b.id).filter((id) => id !== 'not-a-uuid'),
+        )
+        .count(),
+    ).toEqual([{ count: '0' }]);
   });
 
   it('answers 401 to a signed-out device and stores nothing', async () => {
@@ -138,7 +145,14 @@ describe('POST /api/sync', () => {
     expect(res.status).toBe(422);
     const body = await res.json();
     expect(body.error.fields.observations[0]).toMatch(/At most 500/);
-    expect(await testDb()('observations').whereIn('id', batch.map((b) => b.id)).count()).toEqual([{ count: '0' }]);
+    expect(
+      await testDb()('observations')
+        .whereIn(
+          'id',
+          batch.map((b) => b.id),
+        )
+        .count(),
+    ).toEqual([{ count: '0' }]);
   });
 
   it('stores a batch of 500 and answers one result per record, in order', async () => {

@@ -116,7 +116,12 @@ describe('roles table: complete an assigned task', () => {
 describe('POST /api/tasks', () => {
   it('turns flags into one task per block, its vines in walking order, and tells the assignee by mail', async () => {
     const second = await makeBlock(team.org.id, { rows: 2, vinesPerRow: 5, name: `Second ${randomUUID().slice(0, 4)}` });
-    const flags = [await flagVines(as.scout, 2, 3, 5), await flagVines(as.pruner, 3, 1, 2), await flagVines(as.pruner, 2, 8), await flagVines(as.scout, 1, 2, 2, second)];
+    const flags = [
+      await flagVines(as.scout, 2, 3, 5),
+      await flagVines(as.pruner, 3, 1, 2),
+      await flagVines(as.pruner, 2, 8),
+      await flagVines(as.scout, 1, 2, 2, second),
+    ];
     const tasks = await makeTask(flags, team.pruner.id, { title: 'Winter care', note: 'Before budbreak' });
     expect(tasks).toHaveLength(2);
     const main = tasks.find((t) => t.blockId === block.id)!;
@@ -124,7 +129,14 @@ describe('POST /api/tasks', () => {
 
     const detail = await (await as.pruner.fetch(`/api/tasks/${main.id}`)).json();
     // Up row 2, back down row 3.
-    expect(detail.items.map((i: { row: number; position: number }) => [i.row, i.position])).toEqual([[2, 3], [2, 4], [2, 5], [2, 8], [3, 2], [3, 1]]);
+    expect(detail.items.map((i: { row: number; position: number }) => [i.row, i.position])).toEqual([
+      [2, 3],
+      [2, 4],
+      [2, 5],
+      [2, 8],
+      [3, 2],
+      [3, 1],
+    ]);
     expect(detail.items[0].flags).toEqual([expect.objectContaining({ reason: 'retrain' })]);
 
     const mine = await waitForSubject(team.pruner.email, 'New task for you: Winter care', 2);
@@ -164,7 +176,16 @@ describe('POST /api/tasks', () => {
 describe('working a task on the phone', () => {
   it('checks vines off once by device id, closes the task and its flags with the last one, and the grid follows', async () => {
     const own = await makeBlock(team.org.id, { rows: 1, vinesPerRow: 6 });
-    const finding = { id: randomUUID(), blockId: own.id, row: 1, position: 2, kind: 'trunk-injury', data: { cause: 'cold', severity: 'moderate', girdlingPercent: 10 }, note: '', observedAt: '2026-11-01T09:00:00Z' };
+    const finding = {
+      id: randomUUID(),
+      blockId: own.id,
+      row: 1,
+      position: 2,
+      kind: 'trunk-injury',
+      data: { cause: 'cold', severity: 'moderate', girdlingPercent: 10 },
+      note: '',
+      observedAt: '2026-11-01T09:00:00Z',
+    };
     await as.scout.json('/api/sync', 'POST', { observations: [finding] });
     const flagId = await flagVines(as.pruner, 1, 2, 3, own);
     const [task] = await makeTask([flagId]);
@@ -207,7 +228,9 @@ describe('working a task on the phone', () => {
     const [task] = await makeTask([await flagVines(as.pruner, 3, 11)]);
     const observationId = randomUUID();
     await as.pruner.json('/api/sync', 'POST', {
-      observations: [{ id: observationId, blockId: block.id, row: 3, position: 11, kind: 'note', data: {}, note: 'Task done', observedAt: '2026-11-28T10:00:00Z' }],
+      observations: [
+        { id: observationId, blockId: block.id, row: 3, position: 11, kind: 'note', data: {}, note: 'Task done', observedAt: '2026-11-28T10:00:00Z' },
+      ],
     });
     await sendUpdates(as.pruner, [done(task!.id, 3, 11, { observationId })]);
     const detail = await (await as.manager.fetch(`/api/tasks/${task!.id}`)).json();
@@ -253,7 +276,11 @@ describe('managing tasks', () => {
     expect(mails.map((m) => m.subject).sort()).toEqual(['New task for you: Late job', 'Overdue: Late job']);
     await new Promise((r) => setTimeout(r, 3000));
     expect(await mailsTo(late.email)).toHaveLength(2);
-    expect(await testDb()('mail_outbox').where({ dedupe_key: `overdue:${task!.id}:${inDays(-2)}` }).pluck('status')).toEqual(['sent']);
+    expect(
+      await testDb()('mail_outbox')
+        .where({ dedupe_key: `overdue:${task!.id}:${inDays(-2)}` })
+        .pluck('status'),
+    ).toEqual(['sent']);
   });
 });
 
@@ -266,7 +293,9 @@ describe('organisation scope', () => {
     const theirPruner = new Client();
     await theirPruner.signIn(other.pruner.email, PASSWORD);
     const flagId = randomUUID();
-    await theirPruner.json('/api/sync/flags', 'POST', { flags: [{ id: flagId, blockId: theirBlock.id, row: 1, position: 1, reason: 'replant', note: '', flaggedAt: '2026-11-20T08:00:00Z' }] });
+    await theirPruner.json('/api/sync/flags', 'POST', {
+      flags: [{ id: flagId, blockId: theirBlock.id, row: 1, position: 1, reason: 'replant', note: '', flaggedAt: '2026-11-20T08:00:00Z' }],
+    });
     const made = await theirManager.json('/api/tasks', 'POST', { flagIds: [flagId], assigneeId: other.pruner.id, dueOn: inDays(5) });
     const [theirs] = (await made.json()).tasks;
 

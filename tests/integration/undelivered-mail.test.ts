@@ -47,7 +47,12 @@ describe('mail that failed or may not have arrived', () => {
     expect(res.status).toBe(200);
     const { mail } = await res.json();
     expect(mail.map((m: { id: string }) => m.id).sort()).toEqual([failed, uncertain].sort());
-    expect(mail.find((m: { id: string }) => m.id === failed)).toMatchObject({ status: 'failed', attempts: 5, lastError: '550 mailbox unavailable', toEmail: team.scout.email });
+    expect(mail.find((m: { id: string }) => m.id === failed)).toMatchObject({
+      status: 'failed',
+      attempts: 5,
+      lastError: '550 mailbox unavailable',
+      toEmail: team.scout.email,
+    });
 
     const scout = new Client();
     await scout.signIn(team.scout.email, PASSWORD);

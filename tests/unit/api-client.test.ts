@@ -24,13 +24,21 @@ beforeAll(async () => {
         res.end(text);
       };
       switch (req.url) {
-        case '/ok': return send(200, JSON.stringify({ n: 1 }));
-        case '/empty': res.writeHead(204); return res.end();
-        case '/invalid': return send(422, JSON.stringify({ error: { code: 'invalid-input', message: 'Some fields are not valid.', fields: { name: ['Required'] } } }));
-        case '/html-error': return send(502, '<html>Bad gateway</html>', 'text/html');
-        case '/html-ok': return send(200, '<html>Sign in to the wifi</html>', 'text/html');
-        case '/slow': return setTimeout(() => send(200, '{}'), 2_000);
-        default: return send(404, JSON.stringify({ error: { code: 'not-found', message: 'No such thing.' } }));
+        case '/ok':
+          return send(200, JSON.stringify({ n: 1 }));
+        case '/empty':
+          res.writeHead(204);
+          return res.end();
+        case '/invalid':
+          return send(422, JSON.stringify({ error: { code: 'invalid-input', message: 'Some fields are not valid.', fields: { name: ['Required'] } } }));
+        case '/html-error':
+          return send(502, '<html>Bad gateway</html>', 'text/html');
+        case '/html-ok':
+          return send(200, '<html>Sign in to the wifi</html>', 'text/html');
+        case '/slow':
+          return setTimeout(() => send(200, '{}'), 2_000);
+        default:
+          return send(404, JSON.stringify({ error: { code: 'not-found', message: 'No such thing.' } }));
       }
     });
   });
@@ -40,7 +48,11 @@ beforeAll(async () => {
 
 afterAll(() => new Promise<void>((resolve) => server.close(() => resolve())));
 
-const failure = (p: Promise<unknown>) => p.then(() => expect.unreachable('should have failed'), (e: unknown) => e as ApiError);
+const failure = (p: Promise<unknown>) =>
+  p.then(
+    () => expect.unreachable('should have failed'),
+    (e: unknown) => e as ApiError,
+  );
 
 describe('api client', () => {
   it('reads JSON answers and sends JSON bodies', async () => {
@@ -59,7 +71,7 @@ describe('api client', () => {
     expect([missing.status, missing.code, missing.message]).toEqual([404, 'not-found', 'No such thing.']);
   });
 
-  it('names the status when the error body is not JSON, or uses the caller\'s words', async () => {
+  it("names the status when the error body is not JSON, or uses the caller's words", async () => {
     const err = await failure(apiGet(`${base}/html-error`));
     expect([err.status, err.code, err.message]).toEqual([502, 'http-502', 'The server answered 502.']);
     const worded = await failure(apiGet(`${base}/html-error`, { fallback: 'The plan was not made.' }));
@@ -80,7 +92,7 @@ describe('api client', () => {
     expect([err.status, err.code, err.message, err.unanswered]).toEqual([0, 'offline', OFFLINE_MESSAGE, true]);
   });
 
-  it('gives up at its deadline, and rethrows the caller\'s own abort', async () => {
+  it("gives up at its deadline, and rethrows the caller's own abort", async () => {
     const err = await failure(apiGet(`${base}/slow`, { deadlineMs: 100 }));
     expect([err.status, err.code, err.message]).toEqual([0, 'timeout', TIMEOUT_MESSAGE]);
     const controller = new AbortController();
@@ -91,7 +103,7 @@ describe('api client', () => {
 });
 
 describe('response contracts', () => {
-  it('add nothing to a route\'s options at run time', () => {
+  it("add nothing to a route's options at run time", () => {
     const marker: Contract<{ n: number }> = responds<{ n: number }>();
     expect(Object.keys(marker)).toEqual([]);
   });

@@ -45,14 +45,28 @@ describe('rows from the grid statement', () => {
   it('tally vines by their kind bits across rows', () => {
     const packed = (position: number, mask: number) => position * 65536 + mask;
     const row = (kinds: number[]): RawGridRow => [1, 10, null, null, null, 10, kinds, kinds.length];
-    expect(new Map(kindMasks([row([packed(1, 8), packed(2, 8), packed(3, 24)]), row([packed(10000, 8)])]))).toEqual(new Map([[8, 3], [24, 1]]));
+    expect(new Map(kindMasks([row([packed(1, 8), packed(2, 8), packed(3, 24)]), row([packed(10000, 8)])]))).toEqual(
+      new Map([
+        [8, 3],
+        [24, 1],
+      ]),
+    );
   });
 
   it('count findings by kind and severity, and vines affected per kind from their kind bits', () => {
     const bit = (kind: string) => 1 << (GRID_KINDS.indexOf(kind) + 1);
-    const counts: [string, number, number][] = [['weak-budbreak', 0, 4], ['weak-budbreak', 2, 3], ['trunk-injury', 3, 2], ['note', 0, 1]];
+    const counts: [string, number, number][] = [
+      ['weak-budbreak', 0, 4],
+      ['weak-budbreak', 2, 3],
+      ['trunk-injury', 3, 2],
+      ['note', 0, 1],
+    ];
     // 2 vines with budbreak only, 1 with both, 1 with trunk injury only.
-    const masks: [number, number][] = [[bit('weak-budbreak'), 2], [bit('weak-budbreak') | bit('trunk-injury'), 1], [bit('trunk-injury'), 1]];
+    const masks: [number, number][] = [
+      [bit('weak-budbreak'), 2],
+      [bit('weak-budbreak') | bit('trunk-injury'), 1],
+      [bit('trunk-injury'), 1],
+    ];
     expect(kindCounts(GRID_KINDS, counts, masks)).toEqual([
       { kind: 'note', bySeverity: [1, 0, 0, 0], vinesAffected: 0 },
       { kind: 'trunk-injury', bySeverity: [0, 0, 0, 2], vinesAffected: 2 },
@@ -124,11 +138,7 @@ describe('words for the canvas', () => {
   });
 
   it('find the next and previous vine at a level, wrapping round the block and skipping short rows', () => {
-    const grid = [
-      [P(null), P(3), P(2)],
-      [P(3)],
-      [P(1), P(null), P(3)],
-    ];
+    const grid = [[P(null), P(3), P(2)], [P(3)], [P(1), P(null), P(3)]];
     expect(nextProblem(grid, { r: 0, c: 0 }, 3)).toEqual({ r: 0, c: 1 });
     expect(nextProblem(grid, { r: 0, c: 1 }, 3)).toEqual({ r: 1, c: 0 });
     expect(nextProblem(grid, { r: 2, c: 2 }, 3)).toEqual({ r: 0, c: 1 });
@@ -200,7 +210,10 @@ describe('a vine’s pruning plan from its records', () => {
   it('reads the plan per foot of row and caps spurs by the cordon when the vine spacing is known (Ohio State primer: 4–6 buds a foot)', () => {
     const canes = Array.from({ length: 30 }, (_, i) => cane(9.5, `2026-01-20T09:${String(i).padStart(2, '0')}:00Z`));
     // 4 lb of prunings (1.814 kg) under 20 + 20: 80 buds, at 5 ft (1.524 m) spacing 16 a foot.
-    const heavy = [...canes, { kind: 'pruning-record', data: { canesKept: 2, budsPerCane: 13, renewalSpurs: 2, pruningWeightKg: 4 * 0.45359237 }, observedAt: '2026-01-21T09:00:00Z' }];
+    const heavy = [
+      ...canes,
+      { kind: 'pruning-record', data: { canesKept: 2, budsPerCane: 13, renewalSpurs: 2, pruningWeightKg: 4 * 0.45359237 }, observedAt: '2026-01-21T09:00:00Z' },
+    ];
     const reading = planFromObservations('spur', heavy, 1.524);
     expect(reading.plan!.targetBuds).toBe(80);
     expect(reading.budLoad).toMatchObject({ reading: 'over', rangePerVine: { min: 20, max: 30 } });

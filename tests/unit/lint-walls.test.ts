@@ -12,16 +12,56 @@ async function messagesFor(file: string, code: string) {
 }
 
 const cases: [string, string, string, string][] = [
-  ['a component importing app/', 'components/x/wall.tsx', "import { inviteMember } from '@/app/(app)/team/actions';\nexport const a = inviteMember;\n", 'no-restricted-imports'],
-  ['a component importing a server type', 'components/x/wall.tsx', "import type { Member } from '@/lib/server/auth/guard';\nexport type A = Member;\n", 'no-restricted-imports'],
-  ['client lib importing lib/server', 'lib/offline/wall.ts', "import { AppError } from '@/lib/server/errors';\nexport const a = AppError;\n", 'no-restricted-imports'],
+  [
+    'a component importing app/',
+    'components/x/wall.tsx',
+    "import { inviteMember } from '@/app/(app)/team/actions';\nexport const a = inviteMember;\n",
+    'no-restricted-imports',
+  ],
+  [
+    'a component importing a server type',
+    'components/x/wall.tsx',
+    "import type { Member } from '@/lib/server/auth/guard';\nexport type A = Member;\n",
+    'no-restricted-imports',
+  ],
+  [
+    'client lib importing lib/server',
+    'lib/offline/wall.ts',
+    "import { AppError } from '@/lib/server/errors';\nexport const a = AppError;\n",
+    'no-restricted-imports',
+  ],
   ['lib/grid importing react', 'lib/grid/wall.ts', "import { useState } from 'react';\nexport const a = useState;\n", 'no-restricted-imports'],
-  ['lib/reports importing next', 'lib/reports/wall.ts', "import { NextResponse } from 'next/server';\nexport const a = NextResponse;\n", 'no-restricted-imports'],
-  ['lib/validation importing a node: module', 'lib/validation/wall.ts', "import { readFileSync } from 'node:fs';\nexport const a = readFileSync;\n", 'no-restricted-imports'],
+  [
+    'lib/reports importing next',
+    'lib/reports/wall.ts',
+    "import { NextResponse } from 'next/server';\nexport const a = NextResponse;\n",
+    'no-restricted-imports',
+  ],
+  [
+    'lib/validation importing a node: module',
+    'lib/validation/wall.ts',
+    "import { readFileSync } from 'node:fs';\nexport const a = readFileSync;\n",
+    'no-restricted-imports',
+  ],
   ['lib/contracts calling fetch', 'lib/contracts/wall.ts', "export const a = () => fetch('/api/me');\n", 'no-restricted-globals'],
-  ['a handler building a query', 'app/api/wall/route.ts', "import { db } from '@/lib/server/db';\nexport const a = () => db()('users').first();\n", 'no-restricted-syntax'],
-  ['a service building a query in a transaction', 'lib/server/services/wall.ts', "import type { Db } from '@/lib/server/db';\nexport const a = (trx: Db) => trx('flags').pluck('id');\n", 'no-restricted-syntax'],
-  ['raw SQL outside queries', 'lib/server/services/wall.ts', "import { db } from '@/lib/server/db';\nexport const a = () => db().raw('select 1');\n", 'no-restricted-syntax'],
+  [
+    'a handler building a query',
+    'app/api/wall/route.ts',
+    "import { db } from '@/lib/server/db';\nexport const a = () => db()('users').first();\n",
+    'no-restricted-syntax',
+  ],
+  [
+    'a service building a query in a transaction',
+    'lib/server/services/wall.ts',
+    "import type { Db } from '@/lib/server/db';\nexport const a = (trx: Db) => trx('flags').pluck('id');\n",
+    'no-restricted-syntax',
+  ],
+  [
+    'raw SQL outside queries',
+    'lib/server/services/wall.ts',
+    "import { db } from '@/lib/server/db';\nexport const a = () => db().raw('select 1');\n",
+    'no-restricted-syntax',
+  ],
 ];
 
 describe('lint walls', () => {

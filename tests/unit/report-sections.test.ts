@@ -23,7 +23,20 @@ const obs = (row: number, position: number, kind: MeasuredObservation['kind'], d
 
 function input(over: Partial<BlockReportInput> = {}): BlockReportInput {
   return {
-    block: { id: 'b1', name: 'Test', variety: 'Noir', clone: null, rootstock: null, plantingYear: null, trainingSystem: 'cane', rowSpacingM: 2.5, vineSpacingM: 5 * FT, rowCount: 1, vinesPerRow: 10, vinesPerPanel: null },
+    block: {
+      id: 'b1',
+      name: 'Test',
+      variety: 'Noir',
+      clone: null,
+      rootstock: null,
+      plantingYear: null,
+      trainingSystem: 'cane',
+      rowSpacingM: 2.5,
+      vineSpacingM: 5 * FT,
+      rowCount: 1,
+      vinesPerRow: 10,
+      vinesPerPanel: null,
+    },
     season: 2024,
     units: 'metric',
     slots: { planted: 10, replant: 0, missing: 0, dead: 0, bearingReplants: 0 },
@@ -64,7 +77,9 @@ describe('the block report in words', () => {
     expect(Math.abs(estimatePruningLabour({ vines: 807, minutesPerVine: 1, hourlyCost: 20 }).hours - 13.5)).toBeLessThanOrEqual(0.05 + 1e-9);
     expect(labourWorking(807, 1, 20)).toBe('807 vines × 1 min = 13 h; at 20 an hour, 269');
     const v = (value: number) => ({ value, source: 'entered', defaultValue: null, defaultSource: '' });
-    expect(labourEstimate({ vines: 807, trainingSystem: 'spur', areaM2: 4046.8564224 }, { minutesPerVine: v(1), hourlyCost: v(20) }).how).toBe('807 vines × 1 min = 13 h; at 20 an hour, 269');
+    expect(labourEstimate({ vines: 807, trainingSystem: 'spur', areaM2: 4046.8564224 }, { minutesPerVine: v(1), hourlyCost: v(20) }).how).toBe(
+      '807 vines × 1 min = 13 h; at 20 an hour, 269',
+    );
   });
 
   it('reads the Ravaz index with its working (AJEV, the Oakville table: 9.8 kg on 1.30 kg of prunings is 7.5)', () => {
@@ -83,7 +98,9 @@ describe('the block report in words', () => {
     expect(targetWorking(3 * LB, concord)).toBe('1.36 kg of prunings is 3 lb: 30 + 10 × 2 = 50 buds (rounded down)');
     expect(targetWorking(2.55 * LB, concord)).toBe('1.16 kg of prunings is 2.55 lb: 30 + 10 × 1.55 = 45 buds (rounded down)');
     const l = buildBlockReport(input()).budLoad!;
-    expect(l.meanTarget!.how).toMatch(/^Each weighed vine's target is 30 buds for the first pound of prunings and 10 for each further pound; for example 1\.36 kg of prunings is 3 lb: 30 \+ 10 × 2 = 50 buds/);
+    expect(l.meanTarget!.how).toMatch(
+      /^Each weighed vine's target is 30 buds for the first pound of prunings and 10 for each further pound; for example 1\.36 kg of prunings is 3 lb: 30 \+ 10 × 2 = 50 buds/,
+    );
     expect(l.meanTarget!.source).toMatch(/Ohio State University, "2023 Grape Pruning Primer"/);
   });
 
@@ -91,7 +108,9 @@ describe('the block report in words', () => {
     const l = buildBlockReport(input()).budLoad!;
     // 2 × 20 + 2 spurs × 2 = 44; 2 × 10 + 1 × 2 = 22 (the check's rule: 2 buds a renewal spur).
     expect(l.kept).toEqual({ canes: 2, budsPerCane: 15, renewalSpurs: 1.5, budsPerRenewalSpur: 2 });
-    expect(l.meanKept.how).toBe('On each vine: canes kept × buds on each cane + renewal spurs × 2 buds. On average 2 canes × 15 buds + 1.5 renewal spurs × 2. Over the block: 66 buds ÷ 2 vines = 33 buds a vine');
+    expect(l.meanKept.how).toBe(
+      'On each vine: canes kept × buds on each cane + renewal spurs × 2 buds. On average 2 canes × 15 buds + 1.5 renewal spurs × 2. Over the block: 66 buds ÷ 2 vines = 33 buds a vine',
+    );
   });
 
   it('reads the bud load per foot of row (Ohio State 2023 primer: 4–6 buds a foot, 20–30 a vine at 5 ft)', () => {
@@ -127,19 +146,29 @@ describe('the block report in words', () => {
     const w = wilsonInterval(81, 263);
     expect(w.lower).toBeCloseTo(0.2553, 4);
     expect(w.upper).toBeCloseTo(0.3662, 4);
-    expect(shareWorking(81, 263, 'vines scouted had it', w)).toBe("81 of 263 vines scouted had it: 81 ÷ 263 = 30.8%; the 95% range around it, by Wilson's score interval, is 25.5% to 36.6%");
+    expect(shareWorking(81, 263, 'vines scouted had it', w)).toBe(
+      "81 of 263 vines scouted had it: 81 ÷ 263 = 30.8%; the 95% range around it, by Wilson's score interval, is 25.5% to 36.6%",
+    );
   });
 
   it('works out the crop estimate in words (Dami, Ohio State: vines × clusters × cluster weight; the arithmetic is illustrative, no published example)', () => {
     const v = (value: number) => ({ value, source: 'entered', defaultValue: null, defaultSource: '' });
     // Illustrative: 767 vines on an acre × 40 clusters × 0.25 lb = 3.835 short tons an acre.
     const acre = 4046.8564224;
-    const crop = cropEstimate({ vines: 767, vinesSource: '', areaM2: acre }, { budsPerVine: v(0), budbreakPercent: v(0), clustersPerShoot: v(0), clusterWeightG: v(0.25 / (1 / LB) * 1000 * (1 / LB) * LB), clustersPerVine: v(40) });
+    const crop = cropEstimate(
+      { vines: 767, vinesSource: '', areaM2: acre },
+      { budsPerVine: v(0), budbreakPercent: v(0), clustersPerShoot: v(0), clusterWeightG: v((0.25 / (1 / LB)) * 1000 * (1 / LB) * LB), clustersPerVine: v(40) },
+    );
     expect(crop.shortTonsPerAcre).toBeCloseTo(3.835, 3);
     expect(crop.how).toMatch(/^767 bearing vines × 40 clusters counted a vine × 113\.4 g a cluster = 3,479 kg\./);
     // University of Maryland Extension (Fiola): "cluster weights will double from lag phase to harvest".
-    const lag = cropEstimate({ vines: 10, vinesSource: '', areaM2: 0, lagPhaseMultiplier: 2 }, { budsPerVine: v(20), budbreakPercent: v(90), clustersPerShoot: v(1.5), clusterWeightG: v(100), lagClusterWeightG: v(60) });
-    expect(lag.how).toBe('10 bearing vines × 20 buds kept a vine × 90% budbreak × 1.5 clusters a shoot × 120 g a cluster = 32 kg. The harvest cluster weight is 60 g at lag phase × 2 = 120 g.');
+    const lag = cropEstimate(
+      { vines: 10, vinesSource: '', areaM2: 0, lagPhaseMultiplier: 2 },
+      { budsPerVine: v(20), budbreakPercent: v(90), clustersPerShoot: v(1.5), clusterWeightG: v(100), lagClusterWeightG: v(60) },
+    );
+    expect(lag.how).toBe(
+      '10 bearing vines × 20 buds kept a vine × 90% budbreak × 1.5 clusters a shoot × 120 g a cluster = 32 kg. The harvest cluster weight is 60 g at lag phase × 2 = 120 g.',
+    );
   });
 
   it('sizes next season’s sample in words (Wolpert & Vilas, AJEV 1992: CV 30% at ±10% is 35 vines)', () => {
@@ -151,7 +180,18 @@ describe('the block report in words', () => {
 
   it('names a published source, or says there is none, beside every figure', () => {
     const report = buildBlockReport(input());
-    const figures = [report.scouting.coverage, report.budbreak!.pooled, report.budbreak!.weakFigure, report.canes!.shadeFigure, report.budLoad!.meanKept, report.budLoad!.meanTarget!, report.pruningChecks!.meanLeft, report.ravaz!.index, report.harvest!.kgPerVine, report.budInjury!.kill];
+    const figures = [
+      report.scouting.coverage,
+      report.budbreak!.pooled,
+      report.budbreak!.weakFigure,
+      report.canes!.shadeFigure,
+      report.budLoad!.meanKept,
+      report.budLoad!.meanTarget!,
+      report.pruningChecks!.meanLeft,
+      report.ravaz!.index,
+      report.harvest!.kgPerVine,
+      report.budInjury!.kill,
+    ];
     for (const f of figures) {
       expect(f.how, f.label).not.toBe('');
       expect(f.source, f.label).toMatch(/\w{4}/);
@@ -162,7 +202,12 @@ describe('the block report in words', () => {
   });
 
   it('has no code in any of its words: no calls, settings paths, arrows or camelCase names', () => {
-    for (const over of [{}, { options: {} }, { measured: [], measurements: [], kindRows: [] }, { options: { clustersPerVine: 30, lagClusterWeightG: 55, budTarget: 40 } }]) {
+    for (const over of [
+      {},
+      { options: {} },
+      { measured: [], measurements: [], kindRows: [] },
+      { options: { clustersPerVine: 30, lagClusterWeightG: 55, budTarget: 40 } },
+    ]) {
       const report = buildBlockReport(input(over));
       // `missing` lists the estimate's input codes for the page, which names them in words.
       const leaks = stringsIn(report)

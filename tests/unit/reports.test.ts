@@ -32,8 +32,18 @@ const obs = (row: number, position: number, kind: MeasuredObservation['kind'], d
 function input(over: Partial<BlockReportInput> = {}): BlockReportInput {
   return {
     block: {
-      id: 'b1', name: 'Test', variety: 'Noir', clone: 'C-1', rootstock: 'R-1', plantingYear: 2010, trainingSystem: 'cane',
-      rowSpacingM: 2.5, vineSpacingM: 1.2, rowCount: 2, vinesPerRow: 5, vinesPerPanel: null,
+      id: 'b1',
+      name: 'Test',
+      variety: 'Noir',
+      clone: 'C-1',
+      rootstock: 'R-1',
+      plantingYear: 2010,
+      trainingSystem: 'cane',
+      rowSpacingM: 2.5,
+      vineSpacingM: 1.2,
+      rowCount: 2,
+      vinesPerRow: 5,
+      vinesPerPanel: null,
     },
     season: 2024,
     units: 'metric',
@@ -181,9 +191,12 @@ describe('block report assembly', () => {
     expect(report.crop.basis.vines).toBe(8);
     expect(report.crop.inputs.budsPerVine.value).toBe(26.7);
     expect(report.crop.inputs.budbreakPercent.value).toBe(80);
-    expect(report.crop.inputs.clusterWeightG).toMatchObject({ value: 120, source: expect.stringMatching(/^mean cluster weight of the 2023 harvest samples \(\d+ vines, \d+ clusters\)$/) });
+    expect(report.crop.inputs.clusterWeightG).toMatchObject({
+      value: 120,
+      source: expect.stringMatching(/^mean cluster weight of the 2023 harvest samples \(\d+ vines, \d+ clusters\)$/),
+    });
     expect(report.crop.estimate.kg).toBeCloseTo((8 * 26.7 * 0.8 * 1.5 * 120) / 1000, 9);
-    expect(report.crop.estimate.tonnesPerHa).toBeCloseTo(report.crop.estimate.kg! / 1000 / (10 * 2.5 * 1.2 / 10000), 9);
+    expect(report.crop.estimate.tonnesPerHa).toBeCloseTo(report.crop.estimate.kg! / 1000 / ((10 * 2.5 * 1.2) / 10000), 9);
   });
 
   it('reads Ravaz against the grape type: Concord vines at 15 are balanced, not over-cropped (Bates, Cornell LERGP, "Vine Size: Magic Number 15")', () => {
@@ -203,7 +216,12 @@ describe('block report assembly', () => {
   it('warns when the bud target crowds the row: 20 + 20 at 4 lb is 80 buds, 16 a foot at 5 ft spacing (Ohio State primer: 4–6)', () => {
     const block = { ...input().block, vineSpacingM: 5 * 0.3048 };
     const heavy = buildBlockReport(
-      input({ block, kindRows: [], measured: [obs(1, 1, 'pruning-record', { canesKept: 2, budsPerCane: 12, renewalSpurs: 2, pruningWeightKg: 4 * LB })], measurements: [] }),
+      input({
+        block,
+        kindRows: [],
+        measured: [obs(1, 1, 'pruning-record', { canesKept: 2, budsPerCane: 12, renewalSpurs: 2, pruningWeightKg: 4 * LB })],
+        measurements: [],
+      }),
     );
     const d = heavy.budLoad!.density;
     expect(heavy.budLoad!.meanTarget!.value).toBe(80);
@@ -215,7 +233,12 @@ describe('block report assembly', () => {
     expect(d.kept.reading).toBe('within');
     // 1 lb of prunings under 20 + 20 is 20 buds: 4 a foot, the low end, no warning.
     const light = buildBlockReport(
-      input({ block, kindRows: [], measured: [obs(1, 1, 'pruning-record', { canesKept: 2, budsPerCane: 8, renewalSpurs: 2, pruningWeightKg: LB })], measurements: [] }),
+      input({
+        block,
+        kindRows: [],
+        measured: [obs(1, 1, 'pruning-record', { canesKept: 2, budsPerCane: 8, renewalSpurs: 2, pruningWeightKg: LB })],
+        measurements: [],
+      }),
     );
     expect(light.budLoad!.meanTarget!.value).toBe(20);
     expect(light.budLoad!.density.target!.reading).toBe('within');
@@ -262,7 +285,9 @@ describe('block report assembly', () => {
   it('takes clusters counted per vine and a lag-phase cluster weight × 2 (University of Maryland Extension)', () => {
     const counted = buildBlockReport(input({ options: { clustersPerVine: 30, lagClusterWeightG: 60 } }));
     expect(counted.crop.estimate.kg).toBeCloseTo((8 * 30 * 120) / 1000, 9);
-    expect(counted.crop.estimate.how).toMatch(/^8 bearing vines × 30 clusters counted a vine × 120 g a cluster = 29 kg\. The harvest cluster weight is 60 g at lag phase × 2 = 120 g\./);
+    expect(counted.crop.estimate.how).toMatch(
+      /^8 bearing vines × 30 clusters counted a vine × 120 g a cluster = 29 kg\. The harvest cluster weight is 60 g at lag phase × 2 = 120 g\./,
+    );
     const missing = buildBlockReport(input({ measured: [], options: { clustersPerVine: 30 } }));
     expect(missing.crop.estimate.missing).toEqual([]);
   });
@@ -297,7 +322,10 @@ describe('block report assembly', () => {
       { clone: 'C-1', rootstock: 'R-1', vines: 1 },
       { clone: 'C-2', rootstock: 'R-1', vines: 1 },
     ]);
-    expect(report.replant.byRow).toEqual([{ row: 1, positions: [5] }, { row: 2, positions: [5] }]);
+    expect(report.replant.byRow).toEqual([
+      { row: 1, positions: [5] },
+      { row: 2, positions: [5] },
+    ]);
   });
 
   it('says when tasks are not available rather than reporting none', () => {
@@ -314,7 +342,10 @@ describe('block report assembly', () => {
     expect(empty.crop.estimate).toMatchObject({ kg: null, missing: ['budbreakPercent'] });
     expect(empty.crop.estimate.how).toBe('The estimate needs the budbreak.');
     // 5 buds a foot (the middle of Ohio State 2023 primer's 4–6) × 1.2 m = 3.94 ft → 19.7 buds, marked a default.
-    expect(empty.crop.inputs.budsPerVine).toMatchObject({ value: 19.7, source: expect.stringMatching(/^default, as no pruning records were made this season: 5 buds a foot of row \(the middle of Ohio State's 4–6\)/) });
+    expect(empty.crop.inputs.budsPerVine).toMatchObject({
+      value: 19.7,
+      source: expect.stringMatching(/^default, as no pruning records were made this season: 5 buds a foot of row \(the middle of Ohio State's 4–6\)/),
+    });
   });
 });
 
@@ -324,9 +355,13 @@ describe('estimates', () => {
     const v = (value: number | null) => ({ value, source: 'entered', defaultValue: null, defaultSource: '' });
     const crop = cropEstimate(basis, { budsPerVine: v(30), budbreakPercent: v(90), clustersPerShoot: v(1.5), clusterWeightG: v(100) });
     expect(crop.kg).toBeCloseTo(4050, 9);
-    expect(crop.how).toBe('1,000 bearing vines × 30 buds kept a vine × 90% budbreak × 1.5 clusters a shoot × 100 g a cluster = 4,050 kg. Over 0.3 ha of planted slots that is 13.5 t/ha.');
+    expect(crop.how).toBe(
+      '1,000 bearing vines × 30 buds kept a vine × 90% budbreak × 1.5 clusters a shoot × 100 g a cluster = 4,050 kg. Over 0.3 ha of planted slots that is 13.5 t/ha.',
+    );
     expect(crop.shortTonsPerAcre).toBeCloseTo(4050 / 907.18474 / (0.3 / 0.40468564224), 9);
-    expect(cropEstimate(basis, { budsPerVine: v(null), budbreakPercent: v(90), clustersPerShoot: v(1.5), clusterWeightG: v(100) }).missing).toEqual(['budsPerVine']);
+    expect(cropEstimate(basis, { budsPerVine: v(null), budbreakPercent: v(90), clustersPerShoot: v(1.5), clusterWeightG: v(100) }).missing).toEqual([
+      'budsPerVine',
+    ]);
     const labour = labourEstimate({ vines: 807, trainingSystem: 'spur', areaM2: 4046.8564224 }, { minutesPerVine: v(1), hourlyCost: v(20) });
     // One minute a vine on an acre of 807 vines: 13.45 hours (Cornell's "13.5").
     expect(labour.hoursPerAcre).toBeCloseTo(13.45, 9);
@@ -337,8 +372,19 @@ describe('estimates', () => {
 describe('year over year', () => {
   it('sets both seasons’ figures side by side and lists persisting problems by kind', () => {
     const now = buildBlockReport(input());
-    const before = buildBlockReport(input({ season: 2023, kindRows: [{ row: 1, kind: 'trunk-injury', recorded: 2, affected: 1, observations: 2 }], scoutedRows: [{ row: 1, vines: 4, slots: 5 }], measured: [] }));
-    const c = compareReports(now, before, { total: 1, byKind: [{ kind: 'trunk-injury', vines: 1 }], vines: [{ row: 2, position: 3, kind: 'trunk-injury', before: 1, now: 3 }] });
+    const before = buildBlockReport(
+      input({
+        season: 2023,
+        kindRows: [{ row: 1, kind: 'trunk-injury', recorded: 2, affected: 1, observations: 2 }],
+        scoutedRows: [{ row: 1, vines: 4, slots: 5 }],
+        measured: [],
+      }),
+    );
+    const c = compareReports(now, before, {
+      total: 1,
+      byKind: [{ kind: 'trunk-injury', vines: 1 }],
+      vines: [{ row: 2, position: 3, kind: 'trunk-injury', before: 1, now: 3 }],
+    });
     expect(c.rows.find((r) => r.label === 'Vines scouted')).toMatchObject({ before: 4, now: 5 });
     expect(c.rows.find((r) => r.label === 'Share of weak vines')).toMatchObject({ before: null, beforeText: '–', now: 0.5, nowText: '50%' });
     expect(c.kinds.find((k) => k.kind === 'trunk-injury')).toMatchObject({ before: 0.25, now: 0.2 });
@@ -347,7 +393,13 @@ describe('year over year', () => {
 
   it('adds blocks into an estate incidence over all vines scouted', () => {
     const a = buildBlockReport(input());
-    const b = buildBlockReport(input({ block: { ...input().block, id: 'b2' }, kindRows: [{ row: 1, kind: 'trunk-injury', recorded: 1, affected: 1, observations: 1 }], scoutedRows: [{ row: 1, vines: 10, slots: 10 }] }));
+    const b = buildBlockReport(
+      input({
+        block: { ...input().block, id: 'b2' },
+        kindRows: [{ row: 1, kind: 'trunk-injury', recorded: 1, affected: 1, observations: 1 }],
+        scoutedRows: [{ row: 1, vines: 10, slots: 10 }],
+      }),
+    );
     const estate = buildEstateReport(2024, [a, b]);
     const trunk = estate.kinds.find((k) => k.kind === 'trunk-injury')!;
     expect(trunk.vinesAffected).toBe(2);
@@ -363,8 +415,18 @@ describe('year over year', () => {
 
 describe('observation CSV', () => {
   const row = {
-    id: '7f1c2d3e-0000-4000-8000-000000000001', blockId: 'b1', blockName: 'Creek, "low" end', row: 3, position: 7, kind: 'weak-budbreak', severity: 2,
-    status: 'open', observedAt: new Date('2024-04-20T09:30:00.123Z'), closedAt: null, recordedBy: 'Ana', note: 'cold pocket,\nsee "row 4"',
+    id: '7f1c2d3e-0000-4000-8000-000000000001',
+    blockId: 'b1',
+    blockName: 'Creek, "low" end',
+    row: 3,
+    position: 7,
+    kind: 'weak-budbreak',
+    severity: 2,
+    status: 'open',
+    observedAt: new Date('2024-04-20T09:30:00.123Z'),
+    closedAt: null,
+    recordedBy: 'Ana',
+    note: 'cold pocket,\nsee "row 4"',
     data: { budsRetained: 28, budsPushed: 11 },
   };
 

@@ -1,14 +1,6 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import {
-  formatAreaM2,
-  formatLengthM,
-  formatLengthMm,
-  formatVinesPerArea,
-  parseAreaM2,
-  parseLength,
-  vinesPerAreaFor,
-} from '@/lib/units';
+import { formatAreaM2, formatLengthM, formatLengthMm, formatVinesPerArea, parseAreaM2, parseLength, vinesPerAreaFor } from '@/lib/units';
 import { ftToM, inToMm } from '@/lib/viticulture';
 
 describe('lengths for display', () => {
@@ -55,7 +47,7 @@ describe('lengths as typed', () => {
     ['8', 8],
     ['8 ft', 8],
     ['8 feet', 8],
-    ["7' 6\"", 7.5],
+    ['7\' 6"', 7.5],
     ['7′6″', 7.5],
     ['7 ft 6 in', 7.5],
     ['7 6', 7.5],

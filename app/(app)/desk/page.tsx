@@ -9,5 +9,11 @@ export const metadata: Metadata = { title: 'Desk' };
 export default async function DeskPage() {
   const member = await memberForPage();
   const desk = await loadDesk(member);
-  return <DeskView desk={desk} name={member.name ?? member.email} progress={desk.progress && <DeskProgress rows={desk.progress} blockHref={(id) => `/work/${id}`} />} />;
+  return (
+    <DeskView
+      desk={desk}
+      name={member.name ?? member.email}
+      progress={desk.progress && <DeskProgress rows={desk.progress} blockHref={(id) => `/work/${id}`} />}
+    />
+  );
 }

@@ -25,8 +25,8 @@ export default async function PlansPage() {
       <div>
         <h1 className="text-3xl font-extrabold">Sampling plans</h1>
         <p className="mt-1 max-w-2xl text-bark-soft">
-          A plan is a fixed list of vines spread over a block&apos;s quarters and its edge and inner rows, drawn from a stored seed
-          so that every scout walks the same vines and next year&apos;s check can repeat them. Missing and dead slots are left out.
+          A plan is a fixed list of vines spread over a block&apos;s quarters and its edge and inner rows, drawn from a stored seed so that every scout walks
+          the same vines and next year&apos;s check can repeat them. Missing and dead slots are left out.
         </p>
       </div>
       {can(member.role, 'plan-sampling') && (

@@ -46,8 +46,8 @@ export default function SafetyPage() {
     <article className="mx-auto flex max-w-2xl flex-col gap-5">
       <h1 className="text-3xl font-extrabold">Cautions for pruning and scouting</h1>
       <p className="rounded-lg border-2 border-cut bg-cut-tint p-3 font-bold">
-        These are the usual cautions, not a safety programme. Local rules, the pesticide label, your employer’s safety
-        plan and licensed practice always come first.
+        These are the usual cautions, not a safety programme. Local rules, the pesticide label, your employer’s safety plan and licensed practice always come
+        first.
       </p>
       {CAUTIONS.map((c) => (
         <section key={c.title}>
@@ -60,8 +60,8 @@ export default function SafetyPage() {
         </section>
       ))}
       <p className="text-sm text-bark-faint">
-        Drawn from extension guidance on vineyard pruning safety, agricultural tractor rules and the US Worker Protection
-        Standard (40 CFR part 170). Follow the rules that apply where you work.
+        Drawn from extension guidance on vineyard pruning safety, agricultural tractor rules and the US Worker Protection Standard (40 CFR part 170). Follow the
+        rules that apply where you work.
       </p>
     </article>
   );

@@ -12,7 +12,9 @@ import { seasonStartSchema } from '@/lib/validation/organisation';
 export const saveUnitPreference = memberAction('manage-organisation', unitPreferenceSchema, async (member, input) => {
   await updateUnitSystem(db(), member.organisationId, input.unitSystem);
   revalidatePath('/', 'layout');
-  return input.unitSystem === 'metric' ? 'Lengths now show in metres and millimetres, areas in hectares.' : 'Lengths now show in feet and inches, areas in acres.';
+  return input.unitSystem === 'metric'
+    ? 'Lengths now show in metres and millimetres, areas in hectares.'
+    : 'Lengths now show in feet and inches, areas in acres.';
 });
 
 export const saveSeasonStart = memberAction('manage-organisation', seasonStartSchema, async (member, input) => {

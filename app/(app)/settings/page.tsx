@@ -44,9 +44,7 @@ export default async function SettingsPage() {
         {can(member.role, 'manage-organisation') ? (
           <SeasonForm current={member.seasonStartMonth} />
         ) : (
-          <p>
-            Seasons start in {MONTHS[member.seasonStartMonth - 1]}. A manager can change this.
-          </p>
+          <p>Seasons start in {MONTHS[member.seasonStartMonth - 1]}. A manager can change this.</p>
         )}
       </section>
       <PayBasisSection member={member} pay={await loadPayBasis(member.organisationId)} />
@@ -55,9 +53,9 @@ export default async function SettingsPage() {
           Judgements
         </h2>
         <p className="mb-3">
-          The limits behind the verdicts on the phone, the grid and the reports: cane sizes, bud loads, Ravaz ranges and the rest. Each default names its source;
-          where sources disagree, set the organisation&apos;s own or a block&apos;s own. Phones pick up a block&apos;s settings with its layout, so they apply offline
-          from the next time the block is opened with signal.
+          The limits behind the verdicts on the phone, the grid and the reports: cane sizes, bud loads, Ravaz ranges and the rest. Each default names its
+          source; where sources disagree, set the organisation&apos;s own or a block&apos;s own. Phones pick up a block&apos;s settings with its layout, so they
+          apply offline from the next time the block is opened with signal.
         </p>
         <JudgementSettings initial={screen.organisation} blocks={screen.blocks} canEdit={can(member.role, 'manage-organisation')} />
       </section>

@@ -18,7 +18,9 @@ export function PayBasisSection({ member, pay }: { member: Member; pay: PayBasis
         <PayForm current={pay} />
       ) : (
         <p>
-          Row work is costed {pay.basis === 'hourly' ? `by the hour (${pay.hourlyRate ?? 'no rate yet'})` : `at a piece rate per vine (${pay.pieceRatePerVine ?? 'no rate yet'})`}. A manager can change this.
+          Row work is costed{' '}
+          {pay.basis === 'hourly' ? `by the hour (${pay.hourlyRate ?? 'no rate yet'})` : `at a piece rate per vine (${pay.pieceRatePerVine ?? 'no rate yet'})`}.
+          A manager can change this.
         </p>
       )}
     </section>

@@ -19,7 +19,10 @@ export function UnitForm({ current }: { current: UnitSystem }) {
       <fieldset className="grid gap-2 sm:grid-cols-2">
         <legend className="mb-2 font-bold">Units for lengths and areas</legend>
         {CHOICES.map((c) => (
-          <label key={c.value} className="flex min-h-touch cursor-pointer items-start gap-3 rounded-lg border-2 border-line bg-panel p-3 has-checked:border-rootstock has-checked:bg-rootstock-tint">
+          <label
+            key={c.value}
+            className="flex min-h-touch cursor-pointer items-start gap-3 rounded-lg border-2 border-line bg-panel p-3 has-checked:border-rootstock has-checked:bg-rootstock-tint"
+          >
             <input type="radio" name="unitSystem" value={c.value} defaultChecked={current === c.value} className="mt-1 size-6 accent-rootstock" />
             <span>
               <span className="block font-bold">{c.label}</span>

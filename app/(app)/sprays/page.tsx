@@ -19,9 +19,8 @@ export default async function SpraysPage() {
       <div>
         <h1 className="text-3xl font-extrabold">Sprays and re-entry</h1>
         <p className="mt-2 max-w-2xl rounded-lg border-2 border-cut bg-cut-tint p-3">
-          Record each application with the restricted-entry interval (REI) printed on its label; when two products were applied
-          together, enter the longer REI. Vineward warns scouts who open the block before the interval ends. The label, the posted
-          signs and local rules always decide who may enter.
+          Record each application with the restricted-entry interval (REI) printed on its label; when two products were applied together, enter the longer REI.
+          Vineward warns scouts who open the block before the interval ends. The label, the posted signs and local rules always decide who may enter.
         </p>
       </div>
       {can(member.role, 'manage-organisation') && (

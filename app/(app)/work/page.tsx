@@ -23,11 +23,19 @@ export default async function WorkPage({ searchParams }: { searchParams: Promise
         </div>
         <nav aria-label="Seasons and export" className="flex flex-wrap gap-2">
           {[now - 2, now - 1, now].map((s) => (
-            <Link key={s} href={`/work?season=${s}`} aria-current={s === season ? 'page' : undefined} className="flex min-h-touch items-center rounded-lg border-2 border-line px-3 font-bold no-underline aria-[current=page]:border-rootstock">
+            <Link
+              key={s}
+              href={`/work?season=${s}`}
+              aria-current={s === season ? 'page' : undefined}
+              className="flex min-h-touch items-center rounded-lg border-2 border-line px-3 font-bold no-underline aria-[current=page]:border-rootstock"
+            >
               {s}
             </Link>
           ))}
-          <a href={`/api/reports/row-work.csv?season=${season}`} className="flex min-h-touch items-center rounded-lg border-2 border-rootstock px-3 font-bold text-rootstock no-underline">
+          <a
+            href={`/api/reports/row-work.csv?season=${season}`}
+            className="flex min-h-touch items-center rounded-lg border-2 border-rootstock px-3 font-bold text-rootstock no-underline"
+          >
             Export CSV
           </a>
         </nav>

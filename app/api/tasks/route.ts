@@ -16,7 +16,15 @@ export const GET = memberRoute({ query: taskListQuerySchema }, async (member, { 
     block: q.block,
     priority: q.priority,
   });
-  const [items, progress] = await Promise.all([q.items ? listTaskItems(db(), tasks.map((t) => t.id)) : undefined, blockProgress(db(), member.organisationId)]);
+  const [items, progress] = await Promise.all([
+    q.items
+      ? listTaskItems(
+          db(),
+          tasks.map((t) => t.id),
+        )
+      : undefined,
+    blockProgress(db(), member.organisationId),
+  ]);
   return NextResponse.json(
     {
       tasks: items ? tasks.map((t) => ({ ...t, items: items.filter((i) => i.taskId === t.id) })) : tasks,

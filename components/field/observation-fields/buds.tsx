@@ -37,7 +37,11 @@ function BudbreakFeedback({ retained, pushed }: { retained: unknown; pushed: unk
   if (typeof retained !== 'number' || typeof pushed !== 'number' || !(retained > 0) || pushed < 0 || pushed > retained) return null;
   const weak = isWeakBudbreak(retained, pushed, settings);
   return (
-    <div className={`rounded-lg border-2 p-3 ${weak ? 'border-cut bg-cut-tint' : 'border-rootstock bg-rootstock-tint'}`} aria-live="polite" data-testid="budbreak-feedback">
+    <div
+      className={`rounded-lg border-2 p-3 ${weak ? 'border-cut bg-cut-tint' : 'border-rootstock bg-rootstock-tint'}`}
+      aria-live="polite"
+      data-testid="budbreak-feedback"
+    >
       <p className="text-lg font-extrabold">{t('budbreak', { percent: Math.round(budbreakPercent(retained, pushed)) })}</p>
       <p>{weak ? t('weak') : t('notWeak')}</p>
     </div>

@@ -62,7 +62,12 @@ function CaneFeedback({ form, imperial }: Pick<FieldsProps, 'form' | 'imperial'>
   const internode = typeof values.longestInternodeMm === 'number' && values.longestInternodeMm > 0 ? values.longestInternodeMm : undefined;
   const verdict = assessCane({ ...(values as object), baseDiameterMm: diameter, longestInternodeMm: internode } as Parameters<typeof assessCane>[0], settings);
   const buds = recommendedBudsPerCane(diameter, settings);
-  const tone = verdict.verdict === 'fruit-cane' ? 'border-rootstock bg-rootstock-tint' : verdict.verdict === 'remove' ? 'border-alarm bg-alarm-tint' : 'border-cut bg-cut-tint';
+  const tone =
+    verdict.verdict === 'fruit-cane'
+      ? 'border-rootstock bg-rootstock-tint'
+      : verdict.verdict === 'remove'
+        ? 'border-alarm bg-alarm-tint'
+        : 'border-cut bg-cut-tint';
   return (
     <div className={`rounded-lg border-2 p-3 ${tone}`} aria-live="polite" data-testid="cane-feedback">
       <p className="text-lg font-extrabold">{t(`verdict.${verdict.verdict}`)}</p>

@@ -9,7 +9,13 @@ export function TrunkInjuryFields({ form, errors }: FieldsProps) {
   const { severities } = useChoices();
   return (
     <>
-      <ChoiceField form={form} errors={errors} name="cause" label={t('cause')} options={TRUNK_INJURY_CAUSES.map((c) => ({ value: c, label: t(`causes.${c}`) }))} />
+      <ChoiceField
+        form={form}
+        errors={errors}
+        name="cause"
+        label={t('cause')}
+        options={TRUNK_INJURY_CAUSES.map((c) => ({ value: c, label: t(`causes.${c}`) }))}
+      />
       <ChoiceField form={form} errors={errors} name="severity" label={t('severity')} options={severities} />
       <CountField form={form} errors={errors} name="girdlingPercent" label={t('girdling')} />
     </>
@@ -21,7 +27,13 @@ export function CaneInjuryFields({ form, errors }: FieldsProps) {
   const { severities } = useChoices();
   return (
     <>
-      <ChoiceField form={form} errors={errors} name="cause" label={t('cause')} options={CANE_INJURY_CAUSES.map((c) => ({ value: c, label: t(`causes.${c}`) }))} />
+      <ChoiceField
+        form={form}
+        errors={errors}
+        name="cause"
+        label={t('cause')}
+        options={CANE_INJURY_CAUSES.map((c) => ({ value: c, label: t(`causes.${c}`) }))}
+      />
       <CountField form={form} errors={errors} name="canesAffected" label={t('canesAffected')} />
       <ChoiceField form={form} errors={errors} name="severity" label={t('severity')} options={severities} />
     </>

@@ -27,7 +27,13 @@ export function NumberField({
 }: Omit<FieldsProps, 'imperial'> & { name: string; label: string; unit?: string; hint?: string; step?: string }) {
   return (
     <Field id={`f-${name}`} label={unit ? `${label} (${unit})` : label} error={errors[name]} hint={hint}>
-      <Input id={`f-${name}`} type="number" inputMode="decimal" step={step} {...form.register(name, { setValueAs: (v) => (v === '' ? undefined : Number(v)) })} />
+      <Input
+        id={`f-${name}`}
+        type="number"
+        inputMode="decimal"
+        step={step}
+        {...form.register(name, { setValueAs: (v) => (v === '' ? undefined : Number(v)) })}
+      />
     </Field>
   );
 }
@@ -49,7 +55,13 @@ export function ChoiceField({
       control={form.control}
       name={name}
       render={({ field }) => (
-        <Choice<string | boolean> label={label} value={field.value as string | boolean | undefined} options={options} onChange={field.onChange} error={errors[name]} />
+        <Choice<string | boolean>
+          label={label}
+          value={field.value as string | boolean | undefined}
+          options={options}
+          onChange={field.onChange}
+          error={errors[name]}
+        />
       )}
     />
   );

@@ -64,9 +64,7 @@ function CheckFeedback({ values }: { values: FormValues }) {
       data-testid="check-feedback"
     >
       <p className="text-lg font-extrabold">{t('checkLeft', { left })}</p>
-      {target && (
-        <p>{percent === 0 ? t('checkOnTarget', { target }) : t(percent > 0 ? 'checkAbove' : 'checkBelow', { percent: Math.abs(percent), target })}</p>
-      )}
+      {target && <p>{percent === 0 ? t('checkOnTarget', { target }) : t(percent > 0 ? 'checkAbove' : 'checkBelow', { percent: Math.abs(percent), target })}</p>}
     </div>
   );
 }

@@ -45,7 +45,11 @@ export function BalanceSection({ report, title }: { report: BlockReport; title: 
             }))}
           />
           {r.units.length > 30 && <p className="text-sm text-bark-soft print:hidden">The first 30 of {r.units.length} vines or samples, by row.</p>}
-          {r.units.length > PRINTED_ROWS && <p className="hidden text-sm print:block">The first {PRINTED_ROWS} of {r.units.length} vines or samples, by row; all of them on screen.</p>}
+          {r.units.length > PRINTED_ROWS && (
+            <p className="hidden text-sm print:block">
+              The first {PRINTED_ROWS} of {r.units.length} vines or samples, by row; all of them on screen.
+            </p>
+          )}
         </>
       )}
     </Section>

@@ -28,7 +28,14 @@ export function BudInjurySection({ report, state, title }: { report: BlockReport
           <div className="grid gap-3 sm:grid-cols-3 print:grid-cols-3">
             <ReportFigure testId="fig-bud-kill" figure={i.kill} />
             <div className="flex flex-col gap-1">
-              <EstimateInput id="budTarget" label="Bud target per vine before injury" text={texts.budTarget} error={read.budTarget.error} input={inputs.budTarget} onChange={(v) => change('budTarget', v)} />
+              <EstimateInput
+                id="budTarget"
+                label="Bud target per vine before injury"
+                text={texts.budTarget}
+                error={read.budTarget.error}
+                input={inputs.budTarget}
+                onChange={(v) => change('budTarget', v)}
+              />
               <ul className="hidden list-disc pl-5 print:block">
                 <PrintedInput label="Bud target per vine" value={read.budTarget.value} source={used('budTarget').source} />
               </ul>

@@ -25,7 +25,12 @@ export function BudLoadSection({ report, title }: { report: BlockReport; title: 
   const l = report.budLoad;
   const pathname = usePathname();
   const search = useSearchParams();
-  const furthest = l ? [...l.vines].filter((v) => v.deviationPercent !== null).sort((a, b) => Math.abs(b.deviationPercent!) - Math.abs(a.deviationPercent!)).slice(0, 15) : [];
+  const furthest = l
+    ? [...l.vines]
+        .filter((v) => v.deviationPercent !== null)
+        .sort((a, b) => Math.abs(b.deviationPercent!) - Math.abs(a.deviationPercent!))
+        .slice(0, 15)
+    : [];
   return (
     <Section
       id="bud-load"
@@ -41,23 +46,30 @@ export function BudLoadSection({ report, title }: { report: BlockReport; title: 
             {l.meanTarget ? (
               <ReportFigure testId="fig-bud-target" figure={l.meanTarget} />
             ) : (
-              <FigureCard label="Balanced-pruning target" value="no weights" from="Weigh prunings on sample vines (pruning record or a pruning weight entry) to get a target." />
+              <FigureCard
+                label="Balanced-pruning target"
+                value="no weights"
+                from="Weigh prunings on sample vines (pruning record or a pruning weight entry) to get a target."
+              />
             )}
           </div>
           <p data-testid="kept-on-vines">
             Kept on a vine, on average: <strong>{formatNumber(l.kept.canes)} canes</strong> of {formatNumber(l.kept.budsPerCane)} buds each and{' '}
-            <strong>{formatNumber(l.kept.renewalSpurs)} renewal spurs</strong> of {l.kept.budsPerRenewalSpur} buds, over {formatCount(l.vinesRecorded)} vines recorded.{' '}
+            <strong>{formatNumber(l.kept.renewalSpurs)} renewal spurs</strong> of {l.kept.budsPerRenewalSpur} buds, over {formatCount(l.vinesRecorded)} vines
+            recorded.{' '}
             {l.withTarget > 0 && (
               <>
-                Of the {formatCount(l.withTarget)} vines with a target, {formatCount(l.bands[0]!.vines)} were left {l.bands[0]!.label.toLowerCase()}, {formatCount(l.under)} had
-                too few buds and {formatCount(l.over)} too many.
+                Of the {formatCount(l.withTarget)} vines with a target, {formatCount(l.bands[0]!.vines)} were left {l.bands[0]!.label.toLowerCase()},{' '}
+                {formatCount(l.under)} had too few buds and {formatCount(l.over)} too many.
               </>
             )}
           </p>
           <form className="flex flex-wrap items-end gap-2 print:hidden" action={pathname}>
-            {[...search.entries()].filter(([k]) => k !== 'grapeType').map(([k, v]) => (
-              <input key={k} type="hidden" name={k} value={v} />
-            ))}
+            {[...search.entries()]
+              .filter(([k]) => k !== 'grapeType')
+              .map(([k, v]) => (
+                <input key={k} type="hidden" name={k} value={v} />
+              ))}
             <label className="flex flex-col gap-1 font-bold">
               Balanced-pruning formula
               <select name="grapeType" defaultValue={l.formula.grapeType ?? ''} className="min-h-touch rounded-lg border-2 border-line bg-panel px-3">
@@ -78,7 +90,8 @@ export function BudLoadSection({ report, title }: { report: BlockReport; title: 
           </p>
           <p className="text-sm" data-testid="bud-density">
             {formatNumber(l.density.kept.budsPerFt)} buds kept per foot of row ({formatNumber(l.density.kept.budsPerM)} per metre)
-            {l.density.target ? `; the target is ${formatNumber(l.density.target.budsPerFt)} per foot` : ''}. Ohio State&apos;s range is {l.density.kept.rangePerVine.min}–{l.density.kept.rangePerVine.max} buds a vine at this spacing.
+            {l.density.target ? `; the target is ${formatNumber(l.density.target.budsPerFt)} per foot` : ''}. Ohio State&apos;s range is{' '}
+            {l.density.kept.rangePerVine.min}–{l.density.kept.rangePerVine.max} buds a vine at this spacing.
           </p>
           <Working how={l.density.how} source={l.density.source} />
           {l.density.warning && (
@@ -86,7 +99,11 @@ export function BudLoadSection({ report, title }: { report: BlockReport; title: 
               {l.density.warning}
             </p>
           )}
-          <ListTable caption="Vines with a target, by how far the buds kept were off it." columns={['Off target', 'Vines']} rows={l.bands.map((b) => ({ key: b.label, cells: [b.label, b.vines] }))} />
+          <ListTable
+            caption="Vines with a target, by how far the buds kept were off it."
+            columns={['Off target', 'Vines']}
+            rows={l.bands.map((b) => ({ key: b.label, cells: [b.label, b.vines] }))}
+          />
           <Working how={l.how} source={l.source} />
           {furthest.length > 0 && (
             <ListTable

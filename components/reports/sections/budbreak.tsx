@@ -19,7 +19,10 @@ export function BudbreakSection({ report, title }: { report: BlockReport; title:
               data={b.histogram.map((h) => ({ label: h.label, count: h.count, below: h.to <= b.weakBelowPercent }))}
               xLabel="Buds that pushed"
               yLabel="Vines"
-              threshold={{ at: b.histogram.find((h) => h.from <= b.weakBelowPercent && b.weakBelowPercent < h.to)?.label ?? '', label: `weak under ${b.weakBelowPercent}%` }}
+              threshold={{
+                at: b.histogram.find((h) => h.from <= b.weakBelowPercent && b.weakBelowPercent < h.to)?.label ?? '',
+                label: `weak under ${b.weakBelowPercent}%`,
+              }}
             />
           </ChartFrame>
         </>

@@ -33,7 +33,11 @@ export function CaneSection({ report, title }: { report: BlockReport; title: str
               <HistogramChart data={c.histogram.map((h) => ({ label: h.label, count: h.count }))} xLabel="Base diameter, mm" yLabel="Canes" />
             </ChartFrame>
           )}
-          <ListTable caption="Canes by diameter band: the same limits that judge each cane." columns={['Band', 'Canes']} rows={c.bands.map((b) => ({ key: b.label, cells: [b.label, b.count] }))} />
+          <ListTable
+            caption="Canes by diameter band: the same limits that judge each cane."
+            columns={['Band', 'Canes']}
+            rows={c.bands.map((b) => ({ key: b.label, cells: [b.label, b.count] }))}
+          />
         </>
       )}
     </Section>

@@ -6,7 +6,15 @@ import { ChartFrame, CompareChart } from '../charts';
 import { ListTable, ReportTable, Section } from '../figure';
 import { PRINTED_ROWS } from './words';
 
-export function CompareSection({ comparison: c, vinesPerPanel, title }: { comparison: NonNullable<BlockReportResponse['comparison']>; vinesPerPanel: number | null; title: string }) {
+export function CompareSection({
+  comparison: c,
+  vinesPerPanel,
+  title,
+}: {
+  comparison: NonNullable<BlockReportResponse['comparison']>;
+  vinesPerPanel: number | null;
+  title: string;
+}) {
   return (
     <Section id="compare" title={title} intro="The same figures for both seasons, each read from its own season's records.">
       <ListTable
@@ -18,7 +26,9 @@ export function CompareSection({ comparison: c, vinesPerPanel, title }: { compar
       {c.kinds.length > 0 && (
         <ChartFrame
           title={`Incidence by problem, ${c.previous} (hatched) and ${c.season} (solid)`}
-          summary={c.kinds.map((k) => `${k.label}: ${k.before === null ? 'none' : formatShare(k.before)} then ${k.now === null ? 'none' : formatShare(k.now)}`).join('; ')}
+          summary={c.kinds
+            .map((k) => `${k.label}: ${k.before === null ? 'none' : formatShare(k.before)} then ${k.now === null ? 'none' : formatShare(k.now)}`)
+            .join('; ')}
           height={Math.max(180, 56 * c.kinds.length + 60)}
         >
           <CompareChart
@@ -63,7 +73,11 @@ export function CompareSection({ comparison: c, vinesPerPanel, title }: { compar
               ))}
             </tbody>
           </ReportTable>
-          {c.persisted.shown > PRINTED_ROWS && <p className="hidden text-sm print:block">The worst {PRINTED_ROWS} printed; {c.persisted.shown} on screen.</p>}
+          {c.persisted.shown > PRINTED_ROWS && (
+            <p className="hidden text-sm print:block">
+              The worst {PRINTED_ROWS} printed; {c.persisted.shown} on screen.
+            </p>
+          )}
         </>
       )}
     </Section>

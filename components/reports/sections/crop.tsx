@@ -17,16 +17,47 @@ export function CropSection({ report, state, title }: { report: BlockReport; sta
       title={title}
       intro={
         <>
-          Bearing vines × buds kept per vine × budbreak × clusters per shoot × cluster weight. Inputs marked &quot;default&quot; are not the block&apos;s own: enter yours.
+          Bearing vines × buds kept per vine × budbreak × clusters per shoot × cluster weight. Inputs marked &quot;default&quot; are not the block&apos;s own:
+          enter yours.
           <span className="print:hidden"> Change an input to see the estimate follow; the address keeps it for printing and sharing.</span>
         </>
       }
     >
       <div className="grid gap-4 sm:grid-cols-2 lg:grid-cols-4 print:hidden" data-testid="crop-inputs">
-        <EstimateInput id="budsPerVine" label="Buds kept per vine" text={texts.budsPerVine} error={read.budsPerVine.error} input={inputs.budsPerVine} onChange={(v) => change('budsPerVine', v)} />
-        <EstimateInput id="budbreakPercent" label="Budbreak" unit="%" text={texts.budbreakPercent} error={read.budbreakPercent.error} input={inputs.budbreakPercent} onChange={(v) => change('budbreakPercent', v)} />
-        <EstimateInput id="clustersPerShoot" label="Clusters per shoot" text={texts.clustersPerShoot} error={read.clustersPerShoot.error} input={inputs.clustersPerShoot} onChange={(v) => change('clustersPerShoot', v)} />
-        <EstimateInput id="clusterWeightG" label="Cluster weight" unit="g" text={texts.clusterWeightG} error={read.clusterWeightG.error} input={inputs.clusterWeightG} onChange={(v) => change('clusterWeightG', v)} />
+        <EstimateInput
+          id="budsPerVine"
+          label="Buds kept per vine"
+          text={texts.budsPerVine}
+          error={read.budsPerVine.error}
+          input={inputs.budsPerVine}
+          onChange={(v) => change('budsPerVine', v)}
+        />
+        <EstimateInput
+          id="budbreakPercent"
+          label="Budbreak"
+          unit="%"
+          text={texts.budbreakPercent}
+          error={read.budbreakPercent.error}
+          input={inputs.budbreakPercent}
+          onChange={(v) => change('budbreakPercent', v)}
+        />
+        <EstimateInput
+          id="clustersPerShoot"
+          label="Clusters per shoot"
+          text={texts.clustersPerShoot}
+          error={read.clustersPerShoot.error}
+          input={inputs.clustersPerShoot}
+          onChange={(v) => change('clustersPerShoot', v)}
+        />
+        <EstimateInput
+          id="clusterWeightG"
+          label="Cluster weight"
+          unit="g"
+          text={texts.clusterWeightG}
+          error={read.clusterWeightG.error}
+          input={inputs.clusterWeightG}
+          onChange={(v) => change('clusterWeightG', v)}
+        />
         <EstimateInput
           id="clustersPerVine"
           label="Clusters counted per vine (in place of buds × budbreak × clusters a shoot)"
@@ -51,8 +82,12 @@ export function CropSection({ report, state, title }: { report: BlockReport; sta
         <PrintedInput label="Budbreak" unit="%" value={read.budbreakPercent.value} source={used('budbreakPercent').source} />
         <PrintedInput label="Clusters per shoot" value={read.clustersPerShoot.value} source={used('clustersPerShoot').source} />
         <PrintedInput label="Cluster weight" unit="g" value={read.clusterWeightG.value} source={used('clusterWeightG').source} />
-        {read.clustersPerVine.value !== null && <PrintedInput label="Clusters per vine" value={read.clustersPerVine.value} source={used('clustersPerVine').source} />}
-        {read.lagClusterWeightG.value !== null && <PrintedInput label="Weight of a cluster at lag phase" unit="g" value={read.lagClusterWeightG.value} source={used('lagClusterWeightG').source} />}
+        {read.clustersPerVine.value !== null && (
+          <PrintedInput label="Clusters per vine" value={read.clustersPerVine.value} source={used('clustersPerVine').source} />
+        )}
+        {read.lagClusterWeightG.value !== null && (
+          <PrintedInput label="Weight of a cluster at lag phase" unit="g" value={read.lagClusterWeightG.value} source={used('lagClusterWeightG').source} />
+        )}
       </ul>
       <p className="print:hidden">
         Bearing vines: <strong>{formatCount(report.crop.basis.vines)}</strong> ({report.crop.basis.vinesSource}).
@@ -79,17 +114,26 @@ export function CropSection({ report, state, title }: { report: BlockReport; sta
         <p className="text-sm text-bark-soft">
           Over {formatAreaM2(report.block.areaM2, units)} of planted slots. Estimates are often 30% off; within 10% is a good one.
         </p>
-        <Working source={report.crop.source} how={crop.kg === null ? undefined : 'Shoots a vine = buds kept × budbreak; clusters a vine = shoots × clusters per shoot (or the clusters counted); crop = bearing vines × clusters a vine × cluster weight.'} />
+        <Working
+          source={report.crop.source}
+          how={
+            crop.kg === null
+              ? undefined
+              : 'Shoots a vine = buds kept × budbreak; clusters a vine = shoots × clusters per shoot (or the clusters counted); crop = bearing vines × clusters a vine × cluster weight.'
+          }
+        />
       </div>
       <p data-testid="crop-sampling">
-        To know the mean yield a vine within ±{report.crop.sampling.marginPercent}%, weigh or count <strong>{formatCount(report.crop.sampling.vines)} vines</strong> at random: vine yields vary by{' '}
-        {formatNumber(report.crop.sampling.cvPercent, 0)}% ({report.crop.sampling.cvSource}).
+        To know the mean yield a vine within ±{report.crop.sampling.marginPercent}%, weigh or count{' '}
+        <strong>{formatCount(report.crop.sampling.vines)} vines</strong> at random: vine yields vary by {formatNumber(report.crop.sampling.cvPercent, 0)}% (
+        {report.crop.sampling.cvSource}).
       </p>
       <Working how={report.crop.sampling.how} source={report.crop.sampling.source} />
       {t && (
         <>
           <p data-testid="crop-target">
-            The vines&apos; size ({formatWeightKg(t.pruningKgPerVine, units, 2)} of prunings a vine) ripens about {formatWeightKg(t.lowKgPerVine, units, 1)}–{formatWeightKg(t.highKgPerVine, units, 1)} a vine
+            The vines&apos; size ({formatWeightKg(t.pruningKgPerVine, units, 2)} of prunings a vine) ripens about {formatWeightKg(t.lowKgPerVine, units, 1)}–
+            {formatWeightKg(t.highKgPerVine, units, 1)} a vine
             {t.targetKgPerVine !== null ? `, ${formatWeightKg(t.targetKgPerVine, units, 1)} at the balanced Ravaz index of 15` : ''} ({t.from}).
           </p>
           <Working how={t.how} source={t.source} />

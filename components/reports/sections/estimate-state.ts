@@ -7,7 +7,16 @@ import { cropEstimate, cropRestsOn, labourEstimate, type InputValue } from '@/li
 import { reportOptionsSchema } from '@/lib/validation/report';
 import { DEFAULT_SETTINGS } from '@/lib/viticulture';
 
-export type InputKey = 'budsPerVine' | 'budbreakPercent' | 'clustersPerShoot' | 'clusterWeightG' | 'clustersPerVine' | 'lagClusterWeightG' | 'minutesPerVine' | 'hourlyCost' | 'budTarget';
+export type InputKey =
+  | 'budsPerVine'
+  | 'budbreakPercent'
+  | 'clustersPerShoot'
+  | 'clusterWeightG'
+  | 'clustersPerVine'
+  | 'lagClusterWeightG'
+  | 'minutesPerVine'
+  | 'hourlyCost'
+  | 'budTarget';
 
 const NO_INPUT: InputValue = { value: null, source: '', defaultValue: null, defaultSource: '' };
 
@@ -25,7 +34,8 @@ export interface ReadInput {
 function readInput(key: InputKey, text: string, input: InputValue): ReadInput {
   if (text.trim() === '') return { value: input.defaultValue, entered: false };
   const parsed = reportOptionsSchema.shape[key].safeParse(text.trim());
-  if (!parsed.success || parsed.data === undefined) return { value: null, error: parsed.success ? 'Enter a number' : parsed.error.issues[0]!.message, entered: true };
+  if (!parsed.success || parsed.data === undefined)
+    return { value: null, error: parsed.success ? 'Enter a number' : parsed.error.issues[0]!.message, entered: true };
   return { value: parsed.data as number, entered: Number(parsed.data) !== input.defaultValue };
 }
 
@@ -46,7 +56,9 @@ export function useEstimateInputs(report: BlockReport) {
     }),
     [report],
   );
-  const [texts, setTexts] = useState<Record<InputKey, string>>(() => Object.fromEntries(Object.entries(inputs).map(([k, v]) => [k, initialText(v)])) as Record<InputKey, string>);
+  const [texts, setTexts] = useState<Record<InputKey, string>>(
+    () => Object.fromEntries(Object.entries(inputs).map(([k, v]) => [k, initialText(v)])) as Record<InputKey, string>,
+  );
   const read = Object.fromEntries((Object.keys(inputs) as InputKey[]).map((k) => [k, readInput(k, texts[k], inputs[k])])) as Record<InputKey, ReadInput>;
   const used = (k: InputKey): InputValue => ({ ...inputs[k], value: read[k].value, source: read[k].entered ? 'entered' : inputs[k].defaultSource });
 
@@ -60,7 +72,9 @@ export function useEstimateInputs(report: BlockReport) {
   };
   const crop = cropEstimate(report.crop.basis, cropInputs);
   const labour = labourEstimate(report.labour.basis, { minutesPerVine: used('minutesPerVine'), hourlyCost: used('hourlyCost') });
-  const adjusted = report.budInjury ? adjustForBudInjury(read.budTarget.value, report.budInjury.kill.value!, { ...DEFAULT_SETTINGS, budInjury: report.budInjury.limits }) : null;
+  const adjusted = report.budInjury
+    ? adjustForBudInjury(read.budTarget.value, report.budInjury.kill.value!, { ...DEFAULT_SETTINGS, budInjury: report.budInjury.limits })
+    : null;
 
   function change(key: InputKey, text: string) {
     setTexts({ ...texts, [key]: text });

@@ -30,7 +30,9 @@ export function GlanceSection({ report, state, title }: { report: BlockReport; s
           from={`${formatCount(report.labour.basis.vines)} standing vines, ${report.block.trainingSystem}-pruned`}
           source={report.labour.source}
         />
-        {report.ravaz && <ReportFigure testId="fig-ravaz" figure={report.ravaz.index} value={`${report.ravaz.index.text}, ${RAVAZ_WORDS[report.ravaz.reading]}`} />}
+        {report.ravaz && (
+          <ReportFigure testId="fig-ravaz" figure={report.ravaz.index} value={`${report.ravaz.index.text}, ${RAVAZ_WORDS[report.ravaz.reading]}`} />
+        )}
         <FigureCard testId="fig-replant" label="Vines to replant" value={formatCount(report.replant.total)} from={report.replant.how} />
       </div>
     </Section>

@@ -7,7 +7,10 @@ const holesOnly = (r: BlockReport['incidence']['rows'][number]) => Object.entrie
 
 export function IncidenceSection({ report, title }: { report: BlockReport; title: string }) {
   const { kinds, rows } = report.incidence;
-  const top = kinds.filter((k) => k.base === 'vines-scouted').sort((a, b) => b.vinesAffected - a.vinesAffected).slice(0, 3);
+  const top = kinds
+    .filter((k) => k.base === 'vines-scouted')
+    .sort((a, b) => b.vinesAffected - a.vinesAffected)
+    .slice(0, 3);
   const rowData = rows.map((r) => Object.fromEntries([['row', r.row], ...top.map((k) => [k.kind, r.kinds[k.kind]?.affected ?? 0])]));
   const problemRows = rows.filter((r) => Object.values(r.kinds).some((k) => k.affected > 0));
   const slotsBased = kinds.some((k) => k.base === 'slots');
@@ -17,10 +20,11 @@ export function IncidenceSection({ report, title }: { report: BlockReport; title
       title={title}
       intro={
         <>
-          Share of the {formatCount(report.scouting.vinesScouted)} vines scouted in {report.season} whose worst finding of the kind is at least &quot;watch&quot;, with the range it
-          probably lies in (95%){slotsBased ? `; missing or dead vines are a share of the block's ${formatCount(report.incidence.slots)} slots` : ''}. Only findings count: pruning
-          records and pruning checks are reported under their own headings. Scouts record what they find, so a row where only problems were written down shows a high share of
-          few vines: read the range and the count beside it.
+          Share of the {formatCount(report.scouting.vinesScouted)} vines scouted in {report.season} whose worst finding of the kind is at least
+          &quot;watch&quot;, with the range it probably lies in (95%)
+          {slotsBased ? `; missing or dead vines are a share of the block's ${formatCount(report.incidence.slots)} slots` : ''}. Only findings count: pruning
+          records and pruning checks are reported under their own headings. Scouts record what they find, so a row where only problems were written down shows a
+          high share of few vines: read the range and the count beside it.
         </>
       }
     >
@@ -28,7 +32,11 @@ export function IncidenceSection({ report, title }: { report: BlockReport; title
         <p>No findings were recorded on this block in {report.season}.</p>
       ) : (
         <>
-          <ChartFrame title={title} summary={kinds.map((k) => `${k.label} ${formatShare(k.incidence.estimate)}`).join('; ')} height={Math.max(160, 44 * kinds.length + 40)}>
+          <ChartFrame
+            title={title}
+            summary={kinds.map((k) => `${k.label} ${formatShare(k.incidence.estimate)}`).join('; ')}
+            height={Math.max(160, 44 * kinds.length + 40)}
+          >
             <IncidenceChart
               data={kinds.map((k) => ({
                 label: k.label,
@@ -37,7 +45,10 @@ export function IncidenceSection({ report, title }: { report: BlockReport; title
               }))}
             />
           </ChartFrame>
-          <ReportTable testId="incidence-table" caption="Each problem: the vines with it at watch or worse, out of the vines scouted (or the slots), and the 95% range.">
+          <ReportTable
+            testId="incidence-table"
+            caption="Each problem: the vines with it at watch or worse, out of the vines scouted (or the slots), and the 95% range."
+          >
             <thead>
               <tr>
                 <th scope="col">Problem</th>
@@ -97,7 +108,9 @@ export function IncidenceSection({ report, title }: { report: BlockReport; title
                     const cell = r.kinds[k.kind];
                     return (
                       <td key={k.kind} className="whitespace-nowrap">
-                        {cell && cell.affected > 0 ? `${cell.affected} · ${formatShare(cell.incidence.estimate, 0)} (${formatShare(cell.incidence.lower, 0)}–${formatShare(cell.incidence.upper, 0)})` : '–'}
+                        {cell && cell.affected > 0
+                          ? `${cell.affected} · ${formatShare(cell.incidence.estimate, 0)} (${formatShare(cell.incidence.lower, 0)}–${formatShare(cell.incidence.upper, 0)})`
+                          : '–'}
                       </td>
                     );
                   })}
@@ -106,7 +119,9 @@ export function IncidenceSection({ report, title }: { report: BlockReport; title
             </tbody>
           </ReportTable>
           {problemRows.some(holesOnly) && (
-            <p className="hidden text-sm print:block">Rows whose only finding is missing or dead vines are left off paper; they are on screen and under Vines to replant.</p>
+            <p className="hidden text-sm print:block">
+              Rows whose only finding is missing or dead vines are left off paper; they are on screen and under Vines to replant.
+            </p>
           )}
         </>
       )}

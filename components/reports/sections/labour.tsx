@@ -15,8 +15,24 @@ export function LabourSection({ report, state, title }: { report: BlockReport; s
       intro="Standing vines × minutes per vine ÷ 60, at the crew's hourly cost. Cane pruning is the slower, costlier kind: canes are pulled from the wires and new ones tied down."
     >
       <div className="grid gap-4 sm:grid-cols-2 print:hidden" data-testid="labour-inputs">
-        <EstimateInput id="minutesPerVine" label="Minutes per vine" unit="min" text={texts.minutesPerVine} error={read.minutesPerVine.error} input={inputs.minutesPerVine} onChange={(v) => change('minutesPerVine', v)} />
-        <EstimateInput id="hourlyCost" label="Hourly cost" unit="per hour" text={texts.hourlyCost} error={read.hourlyCost.error} input={inputs.hourlyCost} onChange={(v) => change('hourlyCost', v)} />
+        <EstimateInput
+          id="minutesPerVine"
+          label="Minutes per vine"
+          unit="min"
+          text={texts.minutesPerVine}
+          error={read.minutesPerVine.error}
+          input={inputs.minutesPerVine}
+          onChange={(v) => change('minutesPerVine', v)}
+        />
+        <EstimateInput
+          id="hourlyCost"
+          label="Hourly cost"
+          unit="per hour"
+          text={texts.hourlyCost}
+          error={read.hourlyCost.error}
+          input={inputs.hourlyCost}
+          onChange={(v) => change('hourlyCost', v)}
+        />
       </div>
       <ul className="hidden list-disc pl-5 print:block">
         <PrintedInput label="Standing vines" value={report.labour.basis.vines} source="planted and replant slots" />
@@ -38,15 +54,18 @@ export function LabourSection({ report, state, title }: { report: BlockReport; s
             </p>
             {labour.alternative && (
               <p className="text-bark-soft">
-                {labour.alternative.trainingSystem === 'spur' ? 'Spur-pruned' : 'Cane-pruned'} at the default {formatNumber(labour.alternative.minutesPerVine, 2)} min a vine it would take{' '}
-                {formatNumber(labour.alternative.hours, 0)} hours ({money(labour.alternative.cost)}).
+                {labour.alternative.trainingSystem === 'spur' ? 'Spur-pruned' : 'Cane-pruned'} at the default{' '}
+                {formatNumber(labour.alternative.minutesPerVine, 2)} min a vine it would take {formatNumber(labour.alternative.hours, 0)} hours (
+                {money(labour.alternative.cost)}).
               </p>
             )}
           </>
         )}
         <Working how="Hours = vines × minutes a vine ÷ 60; cost = hours × the hourly rate." source={report.labour.source} />
       </div>
-      {report.labour.recorded && <RecordedLabourNote recorded={report.labour.recorded} estimateHours={labour.hours} blockId={report.block.id} season={report.season} />}
+      {report.labour.recorded && (
+        <RecordedLabourNote recorded={report.labour.recorded} estimateHours={labour.hours} blockId={report.block.id} season={report.season} />
+      )}
     </Section>
   );
 }

@@ -5,7 +5,11 @@ import { ReportFigure, Section, Working } from '../figure';
 export function PruningCheckSection({ report, title }: { report: BlockReport; title: string }) {
   const c = report.pruningChecks;
   return (
-    <Section id="pruning-checks" title={title} intro="A crew lead counts what a pruner left on a vine against the bud target the crew was given. Records of the work, not problems.">
+    <Section
+      id="pruning-checks"
+      title={title}
+      intro="A crew lead counts what a pruner left on a vine against the bud target the crew was given. Records of the work, not problems."
+    >
       {!c ? (
         <p>No pruning checks were made on this block in {report.season}.</p>
       ) : (
@@ -21,16 +25,16 @@ export function PruningCheckSection({ report, title }: { report: BlockReport; ti
                   <strong className="text-2xl font-extrabold">
                     {formatCount(c.within)} of {formatCount(c.withTarget)}
                   </strong>{' '}
-                  vines on target (within {c.fineWithinPercent}% of {formatNumber(c.meanTarget ?? 0)} buds on average); {formatCount(c.under)} with too few buds, {formatCount(c.over)} with too
-                  many.
+                  vines on target (within {c.fineWithinPercent}% of {formatNumber(c.meanTarget ?? 0)} buds on average); {formatCount(c.under)} with too few
+                  buds, {formatCount(c.over)} with too many.
                 </span>
               )}
               <Working how={c.how} source={c.source} />
             </div>
           </div>
           <p data-testid="pruning-check-kept">
-            Left on a vine, on average: {formatNumber(c.kept.canes)} canes or spurs carrying {formatNumber(c.kept.budsOnCanes)} buds, and {formatNumber(c.kept.renewalSpurs)} renewal spurs;{' '}
-            {formatCount(c.checks)} checks{c.pruners ? ` of ${formatCount(c.pruners)} pruners` : ''}.
+            Left on a vine, on average: {formatNumber(c.kept.canes)} canes or spurs carrying {formatNumber(c.kept.budsOnCanes)} buds, and{' '}
+            {formatNumber(c.kept.renewalSpurs)} renewal spurs; {formatCount(c.checks)} checks{c.pruners ? ` of ${formatCount(c.pruners)} pruners` : ''}.
           </p>
         </>
       )}

@@ -15,7 +15,10 @@ export function TaskSection({ report, title }: { report: BlockReport; title: str
           testId="tasks-table"
           caption={`${t.open} open, ${t.done} done${t.cancelled ? `, ${t.cancelled} cancelled` : ''}: tasks made or closed in ${report.season}, and those still open.`}
           columns={['Task', 'Status', 'Assigned to', 'Due', 'Vines done']}
-          rows={t.list.map((task) => ({ key: task.id, cells: [task.title, task.status, task.assignee ?? '–', task.dueOn ?? '–', `${task.itemsDone} of ${task.items}`] }))}
+          rows={t.list.map((task) => ({
+            key: task.id,
+            cells: [task.title, task.status, task.assignee ?? '–', task.dueOn ?? '–', `${task.itemsDone} of ${task.items}`],
+          }))}
         />
       )}
     </Section>

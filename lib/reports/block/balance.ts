@@ -85,7 +85,9 @@ export function ravazFor(input: BlockReportInput, vintage: number, s: Viticultur
   const range = ravazRangeFor(grapeType, s);
   const read = (index: number) => readRavaz(index, { ravaz: range });
   const yields = units(
-    input.measurements.filter((m) => m.kind === 'yield' && m.season === vintage).map((m) => ({ row: m.row, position: m.position, kg: m.weightKg, vines: m.vines })),
+    input.measurements
+      .filter((m) => m.kind === 'yield' && m.season === vintage)
+      .map((m) => ({ row: m.row, position: m.position, kg: m.weightKg, vines: m.vines })),
   );
   const weights = pruningWeights(input, vintage + 1);
   const prunings = units([

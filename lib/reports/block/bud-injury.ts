@@ -45,9 +45,17 @@ export function budInjurySection(input: BlockReportInput, budLoad: BudLoadSectio
   }
   const target =
     budLoad?.meanTarget?.value != null
-      ? inputValue(input.options.budTarget, Math.round(budLoad.meanTarget.value), `the block's mean balanced-pruning target (${formatNumber(budLoad.meanTarget.value)}), rounded`)
+      ? inputValue(
+          input.options.budTarget,
+          Math.round(budLoad.meanTarget.value),
+          `the block's mean balanced-pruning target (${formatNumber(budLoad.meanTarget.value)}), rounded`,
+        )
       : budLoad
-        ? inputValue(input.options.budTarget, Math.round(budLoad.meanKept.value!), `the block's mean buds kept per vine (${formatNumber(budLoad.meanKept.value!)}), rounded`)
+        ? inputValue(
+            input.options.budTarget,
+            Math.round(budLoad.meanKept.value!),
+            `the block's mean buds kept per vine (${formatNumber(budLoad.meanKept.value!)}), rounded`,
+          )
         : inputValue(input.options.budTarget, null, 'no pruning records this season: enter a bud target per vine');
   return {
     samples: samples.length,
@@ -64,9 +72,7 @@ export function budInjurySection(input: BlockReportInput, budLoad: BudLoadSectio
     target,
     adjusted: adjustForBudInjury(target.value, kill, s),
     limits: { ...s.budInjury },
-    byRow: [...byRowMap.values()]
-      .sort((a, b) => a.row - b.row)
-      .map((r) => ({ ...r, killPercent: primaryBudKillPercent(r.budsCut, r.primariesDead) })),
+    byRow: [...byRowMap.values()].sort((a, b) => a.row - b.row).map((r) => ({ ...r, killPercent: primaryBudKillPercent(r.budsCut, r.primariesDead) })),
   };
 }
 

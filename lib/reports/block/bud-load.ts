@@ -83,10 +83,13 @@ export function budLoadSection(input: BlockReportInput, s: ViticultureSettings):
     const measured = weights.vine.get(vineKey(o.row, o.position));
     const sample = weights.row.get(o.row);
     const [weightKg, weightSource] =
-      own !== undefined ? [own, 'record' as const]
-      : measured !== undefined ? [measured, 'vine' as const]
-      : sample ? [sample.kg / sample.vines, 'row-sample' as const]
-      : [null, null];
+      own !== undefined
+        ? [own, 'record' as const]
+        : measured !== undefined
+          ? [measured, 'vine' as const]
+          : sample
+            ? [sample.kg / sample.vines, 'row-sample' as const]
+            : [null, null];
     const target = weightKg !== null ? balancedPruningBuds(weightKg, formula, 'kg') : (num(o.data.budTarget) ?? null);
     vines.push({
       row: o.row,

@@ -1,5 +1,14 @@
 /** Canes: base diameters against the fruit-cane rules, and shade canes. Each record is one cane. */
-import { assessCane, caneReasonCode, wilsonInterval, type CaneVerdict, type Exposure, type ProportionInterval, type ViticultureSettings, type WoodOrigin } from '@/lib/viticulture';
+import {
+  assessCane,
+  caneReasonCode,
+  wilsonInterval,
+  type CaneVerdict,
+  type Exposure,
+  type ProportionInterval,
+  type ViticultureSettings,
+  type WoodOrigin,
+} from '@/lib/viticulture';
 import { formatCount, formatNumber, formatShare } from '../format';
 import { mean, median, num, shareWorking, type Figure, type HistogramBin } from './common';
 import type { BlockReportInput } from './input';

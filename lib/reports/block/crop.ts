@@ -12,7 +12,17 @@ import {
   sampleSizeForMean,
   type ViticultureSettings,
 } from '@/lib/viticulture';
-import { defaultMinutesPerVine, inputValue, type CropBasis, type CropEstimate, type CropInputs, type InputValue, type LabourBasis, type LabourEstimate, type LabourInputs } from '../estimates';
+import {
+  defaultMinutesPerVine,
+  inputValue,
+  type CropBasis,
+  type CropEstimate,
+  type CropInputs,
+  type InputValue,
+  type LabourBasis,
+  type LabourEstimate,
+  type LabourInputs,
+} from '../estimates';
 import { formatCount, formatNumber } from '../format';
 import type { RecordedLabour } from '@/lib/work/recorded';
 import { formulaFor, num, pruningWeights, vineKey } from './common';
@@ -184,7 +194,11 @@ export function cropInputs(input: BlockReportInput, budLoad: BudLoadSection | nu
       ? inputValue(o.budsPerVine, Number(budLoad.meanKept.value!.toFixed(1)), `mean buds kept on ${formatCount(budLoad.vinesRecorded)} pruning records`)
       : inputValue(o.budsPerVine, fallbackBuds!.buds, fallbackBuds!.source),
     budbreakPercent: cropBudbreak(input, s, o.budbreakPercent),
-    clustersPerShoot: inputValue(o.clustersPerShoot, s.crop.clustersPerShoot, 'default (from memory: fruitful shoots carry one to two clusters); count your own'),
+    clustersPerShoot: inputValue(
+      o.clustersPerShoot,
+      s.crop.clustersPerShoot,
+      'default (from memory: fruitful shoots carry one to two clusters); count your own',
+    ),
     clusterWeightG:
       previousClusterG !== null
         ? inputValue(

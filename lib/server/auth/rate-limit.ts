@@ -33,19 +33,20 @@ function limiters() {
 
 function tooMany(res: RateLimiterRes, message: (wait: string) => string): never {
   const minutes = Math.max(1, Math.ceil(res.msBeforeNext / 60_000));
-  throw new AppError(
-    'rate-limited',
-    message(`${minutes} minute${minutes === 1 ? '' : 's'}`),
-    undefined,
-    { 'Retry-After': String(Math.ceil(res.msBeforeNext / 1000)) },
-  );
+  throw new AppError('rate-limited', message(`${minutes} minute${minutes === 1 ? '' : 's'}`), undefined, {
+    'Retry-After': String(Math.ceil(res.msBeforeNext / 1000)),
+  });
 }
 
 /**
  * The key an account is counted under, from the e-mail exactly as next-auth handed it over (a
  * string, or whatever a JSON body held): the same function runs before next-auth and inside it.
  */
-export const accountKey = (email: unknown) => String(email ?? '').normalize('NFKC').trim().toLowerCase();
+export const accountKey = (email: unknown) =>
+  String(email ?? '')
+    .normalize('NFKC')
+    .trim()
+    .toLowerCase();
 
 async function passwordLock(ip: string, key: string) {
   const { ip: byIp, account } = limiters();

@@ -113,7 +113,9 @@ export type BlockColumns = Pick<
 > & { row_spacing_m: number; vine_spacing_m: number };
 
 export async function insertBlock(db: Db, organisationId: string, columns: BlockColumns) {
-  const [row] = await db('blocks').insert({ ...columns, organisation_id: organisationId }).returning<BlockRow[]>('*');
+  const [row] = await db('blocks')
+    .insert({ ...columns, organisation_id: organisationId })
+    .returning<BlockRow[]>('*');
   return row!;
 }
 
@@ -165,8 +167,7 @@ const wantedStatus = (position: string) => `case upper(substr(d.statuses, ${posi
   when 'M' then 'missing' when 'D' then 'dead' when 'R' then 'replant' end`;
 const REMOVED_SLOT = `vp.block_id = ? and not exists (select 1 from d where d.row_number = vp.row_number and vp.position <= d.vine_count)`;
 
-const desiredJson = (rows: LayoutRowSpec[]) =>
-  JSON.stringify(rows.map((r) => ({ row_number: r.row, vine_count: r.vines, statuses: r.statuses })));
+const desiredJson = (rows: LayoutRowSpec[]) => JSON.stringify(rows.map((r) => ({ row_number: r.row, vine_count: r.vines, statuses: r.statuses })));
 
 /** What a layout would do to the block's slots: (from → to) counts, from = null for new slots, and slots removed. */
 export async function summariseLayoutChange(db: Db, blockId: string, rows: LayoutRowSpec[]) {
@@ -241,10 +242,7 @@ interface PlantDefaults {
 export async function writeLayout(trx: Db, blockId: string, rows: LayoutRowSpec[], plant: PlantDefaults, year: number) {
   const json = desiredJson(rows);
   await trx.raw(`with ${DESIRED} delete from vine_positions vp where ${REMOVED_SLOT}`, [json, blockId]);
-  await trx.raw(`with ${DESIRED} delete from block_rows br where br.block_id = ? and br.row_number not in (select row_number from d)`, [
-    json,
-    blockId,
-  ]);
+  await trx.raw(`with ${DESIRED} delete from block_rows br where br.block_id = ? and br.row_number not in (select row_number from d)`, [json, blockId]);
   await trx.raw(
     `with ${DESIRED}
      insert into block_rows (block_id, row_number, vine_count) select ?, d.row_number, d.vine_count from d

@@ -103,15 +103,10 @@ export async function getSubject(db: Db, organisationId: string, subject: Commen
       .join('blocks as b', 'b.id', 'o.block_id')
       .where({ 'o.id': id, 'o.organisation_id': organisationId })
       .whereNull('o.deleted_at')
-      .first<{ position_id: string; block_id: string; recorded_by: string | null; kind: string; row_number: number; position: number; block_name: string } | undefined>(
-        'o.position_id',
-        'o.block_id',
-        'o.recorded_by',
-        'o.kind',
-        'o.row_number',
-        'o.position',
-        'b.name as block_name',
-      );
+      .first<
+        | { position_id: string; block_id: string; recorded_by: string | null; kind: string; row_number: number; position: number; block_name: string }
+        | undefined
+      >('o.position_id', 'o.block_id', 'o.recorded_by', 'o.kind', 'o.row_number', 'o.position', 'b.name as block_name');
     if (!o) return undefined;
     const owners = o.recorded_by ? [o.recorded_by] : [];
     return {
@@ -129,7 +124,12 @@ export async function getSubject(db: Db, organisationId: string, subject: Commen
     const v = await db('vine_positions as vp')
       .join('blocks as b', 'b.id', 'vp.block_id')
       .where({ 'vp.id': id, 'b.organisation_id': organisationId })
-      .first<{ block_id: string; row_number: number; position: number; block_name: string } | undefined>('vp.block_id', 'vp.row_number', 'vp.position', 'b.name as block_name');
+      .first<{ block_id: string; row_number: number; position: number; block_name: string } | undefined>(
+        'vp.block_id',
+        'vp.row_number',
+        'vp.position',
+        'b.name as block_name',
+      );
     if (!v) return undefined;
     const flaggers: string[] = await db('flags')
       .where({ organisation_id: organisationId, block_id: v.block_id, row_number: v.row_number, status: 'open' })
@@ -138,7 +138,11 @@ export async function getSubject(db: Db, organisationId: string, subject: Commen
       .whereNotNull('flagged_by')
       .distinct()
       .pluck('flagged_by');
-    const recorders: string[] = await db('observations').where({ organisation_id: organisationId, position_id: id }).whereNotNull('recorded_by').distinct().pluck('recorded_by');
+    const recorders: string[] = await db('observations')
+      .where({ organisation_id: organisationId, position_id: id })
+      .whereNotNull('recorded_by')
+      .distinct()
+      .pluck('recorded_by');
     const workers: string[] = await db('task_items as i')
       .join('tasks as t', 't.id', 'i.task_id')
       .where({ 'i.position_id': id, 't.organisation_id': organisationId })
@@ -157,12 +161,14 @@ export async function getSubject(db: Db, organisationId: string, subject: Commen
       path: `/grid/${v.block_id}?row=${v.row_number}&position=${v.position}`,
     };
   }
-  const t = await db('tasks').where({ id, organisation_id: organisationId }).first<{ block_id: string; assignee_id: string | null; created_by: string | null; title: string } | undefined>(
-    'block_id',
-    'assignee_id',
-    'created_by',
-    'title',
-  );
+  const t = await db('tasks')
+    .where({ id, organisation_id: organisationId })
+    .first<{ block_id: string; assignee_id: string | null; created_by: string | null; title: string } | undefined>(
+      'block_id',
+      'assignee_id',
+      'created_by',
+      'title',
+    );
   if (!t) return undefined;
   const owners = [...new Set([t.assignee_id, t.created_by].filter((x): x is string => !!x))];
   return { positionId: null, blockId: t.block_id, owners, involved: owners, title: `task “${t.title}”`, row: null, position: null, path: `/tasks/${id}` };

@@ -70,7 +70,6 @@ export async function ingestFlags(db: Db, organisationId: string, flaggedBy: str
   return rows;
 }
 
-
 function flagQuery(db: Db, organisationId: string) {
   return db('flags as f')
     .join('blocks as b', 'b.id', 'f.block_id')
@@ -134,7 +133,17 @@ export function lockOpenFlags(trx: Db, organisationId: string, ids: string[]) {
     .orderBy(['block_id', 'row_number', 'position'])
     .forUpdate()
     .select<
-      { id: string; block_id: string; row_number: number; position: number; to_position: number; reason: FlagReason; note: string; task_id: string | null; flagged_by: string | null }[]
+      {
+        id: string;
+        block_id: string;
+        row_number: number;
+        position: number;
+        to_position: number;
+        reason: FlagReason;
+        note: string;
+        task_id: string | null;
+        flagged_by: string | null;
+      }[]
     >('id', 'block_id', 'row_number', 'position', 'to_position', 'reason', 'note', 'task_id', 'flagged_by');
 }
 
@@ -178,7 +187,10 @@ export interface VineFlagRow {
 export function listFlagsOnVine(db: Db, organisationId: string, positionId: string): Promise<VineFlagRow[]> {
   return db('flags as f')
     .join('vine_positions as vp', function () {
-      this.on('vp.block_id', 'f.block_id').andOn('vp.row_number', 'f.row_number').andOn('vp.position', '>=', 'f.position').andOn('vp.position', '<=', 'f.to_position');
+      this.on('vp.block_id', 'f.block_id')
+        .andOn('vp.row_number', 'f.row_number')
+        .andOn('vp.position', '>=', 'f.position')
+        .andOn('vp.position', '<=', 'f.to_position');
     })
     .leftJoin('users as u', 'u.id', 'f.flagged_by')
     .where({ 'f.organisation_id': organisationId, 'vp.id': positionId })

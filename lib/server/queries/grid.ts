@@ -295,10 +295,11 @@ export function listGridBlocks(db: Db, organisationId: string): Promise<GridBloc
     })
     .select(
       db.raw(`(select count(*)::int from grid_vines g where g.block_id = b.id and g.organisation_id = b.organisation_id and g.open_worst >= 3) as "actVines"`),
-      db.raw(`(select count(*)::int from grid_vines g where g.block_id = b.id and g.organisation_id = b.organisation_id and g.open_worst = 4) as "urgentVines"`),
+      db.raw(
+        `(select count(*)::int from grid_vines g where g.block_id = b.id and g.organisation_id = b.organisation_id and g.open_worst = 4) as "urgentVines"`,
+      ),
     );
 }
-
 
 function vineQuery(db: Db, organisationId: string) {
   return db('vine_positions as vp')
@@ -347,7 +348,10 @@ export function listVineObservations(db: Db, organisationId: string, positionId:
     .leftJoin('users as u', 'u.id', 'o.recorded_by')
     .where({ 'o.organisation_id': organisationId, 'o.position_id': positionId })
     .whereNull('o.deleted_at')
-    .orderBy([{ column: 'o.observed_at', order: 'desc' }, { column: 'o.id', order: 'desc' }])
+    .orderBy([
+      { column: 'o.observed_at', order: 'desc' },
+      { column: 'o.id', order: 'desc' },
+    ])
     .select({
       id: 'o.id',
       kind: 'o.kind',
@@ -372,7 +376,6 @@ export function listObservationPhotos(db: Db, organisationId: string, observatio
     .orderByRaw('coalesce(taken_at, created_at) desc, id desc')
     .select({ id: 'id', observationId: 'observation_id', width: 'width', height: 'height', takenAt: db.raw('coalesce(taken_at, created_at)') });
 }
-
 
 /** Open flags covering a vine, as the panel lists them: reason, note, who and when. */
 export async function listVineFlags(db: Db, organisationId: string, positionId: string): Promise<VineNote<Date>[]> {

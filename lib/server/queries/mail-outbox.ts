@@ -62,7 +62,9 @@ export function markMailRetry(db: Db, id: string, error: string, delayMs: number
 }
 
 export function markMailFailed(db: Db, id: string, error: string) {
-  return db('mail_outbox').where({ id, status: 'sending' }).update({ status: 'failed', last_error: error.slice(0, 1000) });
+  return db('mail_outbox')
+    .where({ id, status: 'sending' })
+    .update({ status: 'failed', last_error: error.slice(0, 1000) });
 }
 
 /**
@@ -93,7 +95,10 @@ export function listUndeliveredMail(db: Db, organisationId: string, limit = 100)
   return db('mail_outbox')
     .where({ organisation_id: organisationId })
     .whereIn('status', ['failed', 'uncertain'])
-    .orderBy([{ column: 'created_at', order: 'desc' }, { column: 'id', order: 'desc' }])
+    .orderBy([
+      { column: 'created_at', order: 'desc' },
+      { column: 'id', order: 'desc' },
+    ])
     .limit(limit)
     .select({
       id: 'id',

@@ -3,7 +3,6 @@ import type { SeasonBounds } from '@/lib/reports/season';
 import type { Db } from '@/lib/server/db';
 import type { MeasurementKind, MeasurementView } from '@/lib/validation/measurement';
 
-
 export interface MeasurementInsert {
   organisation_id: string;
   block_id: string;
@@ -41,10 +40,7 @@ export async function insertMeasurement(db: Db, row: MeasurementInsert): Promise
 }
 
 export function getMeasurement(db: Db, organisationId: string, id: string): Promise<MeasurementView | undefined> {
-  return db('measurements as m')
-    .leftJoin('users as u', 'u.id', 'm.recorded_by')
-    .where({ 'm.organisation_id': organisationId, 'm.id': id })
-    .first(columns(db));
+  return db('measurements as m').leftJoin('users as u', 'u.id', 'm.recorded_by').where({ 'm.organisation_id': organisationId, 'm.id': id }).first(columns(db));
 }
 
 /** A block's weights of one season (its bounds, lib/reports/season.ts), newest first. */
@@ -54,7 +50,10 @@ export function listMeasurements(db: Db, organisationId: string, blockId: string
     .where({ 'm.organisation_id': organisationId, 'm.block_id': blockId })
     .andWhere('m.measured_on', '>=', period.from.slice(0, 10))
     .andWhere('m.measured_on', '<', period.to.slice(0, 10))
-    .orderBy([{ column: 'm.measured_on', order: 'desc' }, { column: 'm.created_at', order: 'desc' }])
+    .orderBy([
+      { column: 'm.measured_on', order: 'desc' },
+      { column: 'm.created_at', order: 'desc' },
+    ])
     .select(columns(db));
 }
 

@@ -66,14 +66,7 @@ export async function ingestObservations(
        o.organisation_id as "storedOrg", o.payload_sha256 as "storedHash"
      from facts f left join observations o on o.id = f.id
      order by f.ord`,
-    [
-      JSON.stringify(records.map((r, ord) => ({ ord, ...r }))),
-      organisationId,
-      organisationId,
-      organisationId,
-      recordedBy,
-      mayCheckPruning,
-    ],
+    [JSON.stringify(records.map((r, ord) => ({ ord, ...r }))), organisationId, organisationId, organisationId, recordedBy, mayCheckPruning],
   );
   return rows;
 }

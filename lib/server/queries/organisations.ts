@@ -32,17 +32,13 @@ export function getOrganisation(db: Db, id: string) {
 }
 
 export async function listMemberships(db: Db, userId: string): Promise<MembershipView[]> {
-  return db('memberships as m')
-    .join('organisations as o', 'o.id', 'm.organisation_id')
-    .where('m.user_id', userId)
-    .orderBy('o.name')
-    .select({
-      organisationId: 'o.id',
-      organisationName: 'o.name',
-      unitSystem: 'o.unit_system',
-      seasonStartMonth: 'o.season_start_month',
-      role: 'm.role',
-    });
+  return db('memberships as m').join('organisations as o', 'o.id', 'm.organisation_id').where('m.user_id', userId).orderBy('o.name').select({
+    organisationId: 'o.id',
+    organisationName: 'o.name',
+    unitSystem: 'o.unit_system',
+    seasonStartMonth: 'o.season_start_month',
+    role: 'm.role',
+  });
 }
 
 export async function upsertMembership(db: Db, m: { organisationId: string; userId: string; role: Role }) {
@@ -72,8 +68,5 @@ export function updateSeasonStartMonth(db: Db, organisationId: string, month: nu
 
 /** The role of the member with this e-mail in the organisation, if they are one. */
 export function findMemberRoleByEmail(db: Db, organisationId: string, email: string): Promise<{ role: string } | undefined> {
-  return db('memberships as m')
-    .join('users as u', 'u.id', 'm.user_id')
-    .where({ 'm.organisation_id': organisationId, 'u.email': email })
-    .first('m.role');
+  return db('memberships as m').join('users as u', 'u.id', 'm.user_id').where({ 'm.organisation_id': organisationId, 'u.email': email }).first('m.role');
 }

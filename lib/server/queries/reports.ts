@@ -100,7 +100,14 @@ export async function listMeasuredObservations(db: Db, organisationId: string, b
 }
 
 /** Weights of the seasons from `first` to `last`, both included. */
-export async function listMeasurementRows(db: Db, organisationId: string, blockId: string, first: number, last: number, startMonth: number): Promise<MeasurementRow[]> {
+export async function listMeasurementRows(
+  db: Db,
+  organisationId: string,
+  blockId: string,
+  first: number,
+  last: number,
+  startMonth: number,
+): Promise<MeasurementRow[]> {
   const { rows } = await db.raw<{ rows: (Omit<MeasurementRow, 'weightKg'> & { weightKg: string })[] }>(
     `select kind, ${seasonOfSql('measured_on', startMonth)} as season, row_number as row, position, vines, weight_kg as "weightKg", clusters
        from measurements

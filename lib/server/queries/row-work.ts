@@ -37,7 +37,12 @@ export interface RowWorkOutcome {
  * checked against the member's blocks and rows (a span must lie within the row) and inserted once
  * by id. Rows another transaction stored meanwhile are not seen (the statement's snapshot).
  */
-export async function ingestRowWork(db: Db, organisationId: string, recordedBy: string, records: Omit<RowWorkInsert, 'organisation_id' | 'recorded_by'>[]): Promise<RowWorkOutcome[]> {
+export async function ingestRowWork(
+  db: Db,
+  organisationId: string,
+  recordedBy: string,
+  records: Omit<RowWorkInsert, 'organisation_id' | 'recorded_by'>[],
+): Promise<RowWorkOutcome[]> {
   if (records.length === 0) return [];
   const { rows } = await db.raw<{ rows: RowWorkOutcome[] }>(
     `with input as (
@@ -119,7 +124,17 @@ export interface Period {
  */
 export async function countCoverage(db: Db, organisationId: string, blockIds: string[], period: Period) {
   const result = await db.raw<{
-    rows: { block_id: string; pass: RowWorkPass; row_number: number; recorded_by: string | null; by_lead: boolean; name: string | null; hours: number; whole: boolean; vines: number }[];
+    rows: {
+      block_id: string;
+      pass: RowWorkPass;
+      row_number: number;
+      recorded_by: string | null;
+      by_lead: boolean;
+      name: string | null;
+      hours: number;
+      whole: boolean;
+      vines: number;
+    }[];
   }>(
     `with runs as (
        select w.block_id, w.pass, w.row_number, w.recorded_by, w.person_hours,

@@ -12,18 +12,15 @@ export interface SamplingPlanView {
 }
 
 export function listSamplingPlans(db: Db, organisationId: string, blockId?: string) {
-  const q = db('sampling_plans')
-    .where({ organisation_id: organisationId })
-    .orderBy('created_at', 'desc')
-    .select<SamplingPlanView[]>({
-      id: 'id',
-      blockId: 'block_id',
-      name: 'name',
-      seed: 'seed',
-      options: 'options',
-      addresses: 'addresses',
-      createdAt: 'created_at',
-    });
+  const q = db('sampling_plans').where({ organisation_id: organisationId }).orderBy('created_at', 'desc').select<SamplingPlanView[]>({
+    id: 'id',
+    blockId: 'block_id',
+    name: 'name',
+    seed: 'seed',
+    options: 'options',
+    addresses: 'addresses',
+    createdAt: 'created_at',
+  });
   if (blockId) q.andWhere({ block_id: blockId });
   return q;
 }

@@ -22,7 +22,10 @@ const select = (db: Db) =>
     );
 
 export function listSprays(db: Db, organisationId: string, o: { blockId?: string; limit?: number } = {}) {
-  const q = select(db).where('s.organisation_id', organisationId).orderBy('s.applied_at', 'desc').limit(o.limit ?? 200);
+  const q = select(db)
+    .where('s.organisation_id', organisationId)
+    .orderBy('s.applied_at', 'desc')
+    .limit(o.limit ?? 200);
   if (o.blockId) q.andWhere('s.block_id', o.blockId);
   return q;
 }

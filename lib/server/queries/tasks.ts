@@ -7,7 +7,10 @@ import type { TaskPriority, TaskStatus } from '@/lib/validation/task';
 /** The ids among these that belong to members of the organisation. */
 export async function memberIdsAmong(db: Db, organisationId: string, userIds: string[]) {
   if (userIds.length === 0) return new Set<string>();
-  const ids = await db('memberships').where({ organisation_id: organisationId }).whereIn('user_id', [...new Set(userIds)]).pluck('user_id');
+  const ids = await db('memberships')
+    .where({ organisation_id: organisationId })
+    .whereIn('user_id', [...new Set(userIds)])
+    .pluck('user_id');
   return new Set<string>(ids);
 }
 
@@ -15,7 +18,12 @@ export function getMembership(db: Db, organisationId: string, userId: string) {
   return db('memberships as m')
     .join('users as u', 'u.id', 'm.user_id')
     .where({ 'm.organisation_id': organisationId, 'm.user_id': userId })
-    .first<{ userId: string; email: string; name: string | null; role: Role } | undefined>({ userId: 'u.id', email: 'u.email', name: 'u.name', role: 'm.role' });
+    .first<{ userId: string; email: string; name: string | null; role: Role } | undefined>({
+      userId: 'u.id',
+      email: 'u.email',
+      name: 'u.name',
+      role: 'm.role',
+    });
 }
 
 export interface TaskInsert {
@@ -62,14 +70,16 @@ export function slotsInRuns(trx: Db, blockId: string, runs: { row: number; from:
     .then((r) => r.rows);
 }
 
-
 function taskQuery(db: Db, organisationId: string) {
   return db('tasks as t')
     .join('blocks as b', 'b.id', 't.block_id')
     .leftJoin('users as a', 'a.id', 't.assignee_id')
     .leftJoin('users as c', 'c.id', 't.created_by')
     .leftJoin(
-      db('task_items').groupBy('task_id').select('task_id', db.raw('count(*)::int as vines'), db.raw(`count(*) filter (where status = 'done')::int as done`)).as('p'),
+      db('task_items')
+        .groupBy('task_id')
+        .select('task_id', db.raw('count(*)::int as vines'), db.raw(`count(*) filter (where status = 'done')::int as done`))
+        .as('p'),
       'p.task_id',
       't.id',
     )
@@ -119,7 +129,6 @@ export function getTask(db: Db, organisationId: string, id: string): Promise<Tas
   return taskQuery(db, organisationId).andWhere('t.id', id).first();
 }
 
-
 export function listTaskItems(db: Db, taskIds: string[]): Promise<TaskItemView<Date>[]> {
   if (taskIds.length === 0) return Promise.resolve([]);
   return db('task_items as i')
@@ -158,11 +167,7 @@ export function lockTask(trx: Db, organisationId: string, id: string) {
     );
 }
 
-export async function updateTaskRow(
-  trx: Db,
-  id: string,
-  patch: Partial<{ assignee_id: string; due_on: string; priority: TaskPriority; status: TaskStatus }>,
-) {
+export async function updateTaskRow(trx: Db, id: string, patch: Partial<{ assignee_id: string; due_on: string; priority: TaskPriority; status: TaskStatus }>) {
   const changes: Record<string, unknown> = { ...patch, updated_at: trx.fn.now() };
   if (patch.assignee_id) changes.assigned_at = trx.fn.now();
   if (patch.status && patch.status !== 'open') changes.closed_at = trx.fn.now();
@@ -245,14 +250,24 @@ export async function ingestTaskUpdates(
        f.position_id is not null as "itemFound", f.task_id as "taskId"
      from facts f
      order by f.ord`,
-    [JSON.stringify(records.map((r, ord) => ({ ord, ...r }))), organisationId, organisationId, member.userId, member.userId, member.mayDoAnyTask, member.userId],
+    [
+      JSON.stringify(records.map((r, ord) => ({ ord, ...r }))),
+      organisationId,
+      organisationId,
+      member.userId,
+      member.userId,
+      member.mayDoAnyTask,
+      member.userId,
+    ],
   );
   return rows;
 }
 
 export function getStoredTaskUpdateHashes(db: Db, ids: string[]) {
   if (ids.length === 0) return Promise.resolve([]);
-  return db('task_updates').whereIn('id', ids).select<{ id: string; organisation_id: string; payload_sha256: string }[]>('id', 'organisation_id', 'payload_sha256');
+  return db('task_updates')
+    .whereIn('id', ids)
+    .select<{ id: string; organisation_id: string; payload_sha256: string }[]>('id', 'organisation_id', 'payload_sha256');
 }
 
 /** Marks done the open tasks among these whose every vine is done; answers those it closed. */
@@ -267,7 +282,6 @@ export async function completeFinishedTasks(trx: Db, taskIds: string[]) {
   );
   return result.rows.map((r) => r.id);
 }
-
 
 /** Per block: open tasks, how many are overdue, and their vines done so far. */
 export function blockProgress(db: Db, organisationId: string): Promise<BlockTaskProgress[]> {

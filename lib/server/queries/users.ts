@@ -18,7 +18,9 @@ export function getUserById(db: Db, id: string) {
 }
 
 export function getUserByEmail(db: Db, email: string) {
-  return db<UserRow>('users').where({ email: normaliseEmail(email) }).first();
+  return db<UserRow>('users')
+    .where({ email: normaliseEmail(email) })
+    .first();
 }
 
 export async function insertUser(
@@ -37,11 +39,7 @@ export async function insertUser(
   return row!;
 }
 
-export async function updateUser(
-  db: Db,
-  id: string,
-  patch: Partial<Pick<UserRow, 'name' | 'password_hash' | 'email_verified' | 'locale' | 'email'>>,
-) {
+export async function updateUser(db: Db, id: string, patch: Partial<Pick<UserRow, 'name' | 'password_hash' | 'email_verified' | 'locale' | 'email'>>) {
   const [row] = await db<UserRow>('users').where({ id }).update(patch).returning('*');
   return row;
 }

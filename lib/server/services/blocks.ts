@@ -30,14 +30,7 @@ import {
 import type { BlockView, LayoutSummary } from '@/lib/contracts/blocks';
 import type { Db } from '@/lib/server/db';
 import { vinesPerAreaFor } from '@/lib/units';
-import {
-  formatLayoutCsv,
-  parseLayoutCsv,
-  SLOT_STATUSES,
-  type BlockInput,
-  type SlotStatusInput,
-} from '@/lib/validation/block';
-
+import { formatLayoutCsv, parseLayoutCsv, SLOT_STATUSES, type BlockInput, type SlotStatusInput } from '@/lib/validation/block';
 
 export type { BlockView, LayoutSummary };
 
@@ -163,10 +156,7 @@ export function numberParam(value: string | string[] | undefined, what: string) 
 }
 
 export async function listBlockViews(member: Member, o: { archived?: boolean } = {}) {
-  const [blocks, counts] = await Promise.all([
-    listBlocks(db(), member.organisationId, o),
-    countSlotsByBlock(db(), member.organisationId),
-  ]);
+  const [blocks, counts] = await Promise.all([listBlocks(db(), member.organisationId, o), countSlotsByBlock(db(), member.organisationId)]);
   return blocks.map((b) => toBlockView(b, counts.get(b.id)));
 }
 
@@ -190,7 +180,10 @@ const RECORD_WORDS: Record<string, string> = { task_items: 'tasks', task_updates
 async function refuseLosingFieldRecords(conn: Db, blockId: string, rows: LayoutRowSpec[]) {
   const { slots, total, kinds } = await listRemovedSlotsWithRecords(conn, blockId, rows);
   if (total === 0) return;
-  const named = slots.slice(0, 5).map((s) => `row ${s.row} vine ${s.position}`).join(', ');
+  const named = slots
+    .slice(0, 5)
+    .map((s) => `row ${s.row} vine ${s.position}`)
+    .join(', ');
   const what = kinds.map((k) => RECORD_WORDS[k] ?? k.replace(/_/g, ' ')).join(', ');
   throw new AppError(
     'conflict',
@@ -316,7 +309,6 @@ export async function setSlotStatus(member: Member, blockId: string, rowNumber: 
     return getSlot(member, blockId, rowNumber, position, trx);
   });
 }
-
 
 /** The most common row length, which becomes the block's vines-per-row default after an import. */
 function commonLength(rows: LayoutRowSpec[]) {

@@ -42,7 +42,8 @@ async function withDeadline<T>(fn: (trx: Db) => Promise<T>): Promise<T> {
   }
 }
 
-const plainBlocks = (blocks: FreshFindingBlock[]) => blocks.map((b) => ({ ...b, vines: b.vines.map((v) => ({ ...v, observedAt: iso(new Date(v.observedAt)) })) }));
+const plainBlocks = (blocks: FreshFindingBlock[]) =>
+  blocks.map((b) => ({ ...b, vines: b.vines.map((v) => ({ ...v, observedAt: iso(new Date(v.observedAt)) })) }));
 
 async function findingsFor(trx: Db, member: Member, seasonFrom: string): Promise<DeskFindings | null> {
   if (can(member.role, 'manage-tasks')) {
@@ -52,7 +53,11 @@ async function findingsFor(trx: Db, member: Member, seasonFrom: string): Promise
   if (member.role === 'advisor') {
     const last = await getLastCommentAt(trx, member.userId, member.organisationId);
     const since = last ?? new Date(seasonFrom);
-    return { since: iso(since), basis: last ? 'last-comment' : 'season-start', blocks: plainBlocks(await listFreshFindings(trx, member.organisationId, since)) };
+    return {
+      since: iso(since),
+      basis: last ? 'last-comment' : 'season-start',
+      blocks: plainBlocks(await listFreshFindings(trx, member.organisationId, since)),
+    };
   }
   return null;
 }
@@ -76,7 +81,14 @@ function passesUnderWay(progress: EstateProgress): DeskProgressRow[] {
   return progress.blocks.flatMap(({ block, passes }) =>
     passes
       .filter((p) => p.vinesDone > 0 && p.vinesDone < p.vineCount)
-      .map((p) => ({ blockId: block.id, blockName: block.name, pass: p.pass, vinesDone: p.vinesDone, vineCount: p.vineCount, projectedFinish: p.projectedFinish })),
+      .map((p) => ({
+        blockId: block.id,
+        blockName: block.name,
+        pass: p.pass,
+        vinesDone: p.vinesDone,
+        vineCount: p.vineCount,
+        projectedFinish: p.projectedFinish,
+      })),
   );
 }
 
@@ -88,8 +100,7 @@ async function readDesk(member: Member, season: number, now: Date): Promise<Desk
     const findings = await findingsFor(trx, member, period.from);
     const untaskedFlags = manages ? await listUntaskedFlagBlocks(trx, org) : null;
     const overdue = manages ? await listTasks(trx, org, { status: 'open', overdue: true }, 200) : null;
-    const mine =
-      !manages && can(member.role, 'complete-task') ? await listTasks(trx, org, { status: 'open', assigneeId: member.userId }, 1000) : null;
+    const mine = !manages && can(member.role, 'complete-task') ? await listTasks(trx, org, { status: 'open', assigneeId: member.userId }, 1000) : null;
     const sprays = await listSpraysInForce(trx, org);
     const coverage = await listScoutingCoverage(trx, org, period);
     const undelivered = can(member.role, 'manage-organisation') ? await listUndeliveredMail(trx, org, UNDELIVERED_SHOWN + 1) : null;

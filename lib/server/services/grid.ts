@@ -62,7 +62,11 @@ async function vinePanel(member: Member, vine: VineRow): Promise<Sendable<VinePa
     listVineComments(db(), org, vine.positionId),
     settingsForBlock(db(), org, vine.blockId),
   ]);
-  const photos = await listObservationPhotos(db(), org, observations.map((o) => o.id));
+  const photos = await listObservationPhotos(
+    db(),
+    org,
+    observations.map((o) => o.id),
+  );
   const readings = observations.map((o) => ({ kind: o.kind, data: o.data, observedAt: o.observedAt.toISOString() }));
   const address = `row=${vine.row}&position=${vine.position}`;
   return {

@@ -20,7 +20,6 @@ const DIGEST_HOUR_UTC = envSetting('DIGEST_HOUR_UTC');
 const base = () => getEnv().NEXTAUTH_URL.replace(/\/$/, '');
 export const appLink = (path: string) => `${base()}${path}`;
 
-
 /** A signed link key for turning the digest off without signing in; it does nothing else. */
 export function unsubscribeToken(userId: string) {
   return `${userId}.${sign(userId)}`;
@@ -222,15 +221,31 @@ export async function scheduleDigests(db: Db, now = new Date()) {
     const key = `digest:${person.id}:${day}`;
     if (tasks.length === 0 && comments.length === 0) {
       await enqueueMail(db, [
-        { organisation_id: null, user_id: person.id, to_email: person.email, kind: 'digest', dedupe_key: key, subject: '', text_body: '', html_body: '', status: 'skipped' },
+        {
+          organisation_id: null,
+          user_id: person.id,
+          to_email: person.email,
+          kind: 'digest',
+          dedupe_key: key,
+          subject: '',
+          text_body: '',
+          html_body: '',
+          status: 'skipped',
+        },
       ]);
       continue;
     }
     const lines = [
       ...(tasks.length ? [`Your open tasks (${tasks.length}):`] : []),
-      ...tasks.map((t) => `- ${t.title} (${t.organisationName}, ${t.blockName}): ${t.vinesDone}/${t.vines} vines done${t.dueOn ? `, due ${t.dueOn}` : ''}${t.overdue ? ', OVERDUE' : ''}`),
+      ...tasks.map(
+        (t) =>
+          `- ${t.title} (${t.organisationName}, ${t.blockName}): ${t.vinesDone}/${t.vines} vines done${t.dueOn ? `, due ${t.dueOn}` : ''}${t.overdue ? ', OVERDUE' : ''}`,
+      ),
       ...(comments.length ? [`New comments for you (${comments.length}):`] : []),
-      ...comments.map((c) => `- ${c.authorName ?? 'Someone'}${c.mentioned ? ' mentioned you' : ''} on a ${SUBJECT_WORDS[c.subject as CommentSubject] ?? c.subject} (${c.organisationName}): “${c.body.slice(0, 200)}”`),
+      ...comments.map(
+        (c) =>
+          `- ${c.authorName ?? 'Someone'}${c.mentioned ? ' mentioned you' : ''} on a ${SUBJECT_WORDS[c.subject as CommentSubject] ?? c.subject} (${c.organisationName}): “${c.body.slice(0, 200)}”`,
+      ),
     ];
     queued += await enqueueMail(db, [
       render({

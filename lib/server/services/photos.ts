@@ -22,16 +22,7 @@ import {
   uploadKeysInUse,
   type PhotoRow,
 } from '@/lib/server/queries/photos';
-import {
-  deleteObject,
-  listObjectsBefore,
-  photoKey,
-  presignUpload,
-  putObject,
-  readObject,
-  thumbKey,
-  uploadKey,
-} from '@/lib/server/storage';
+import { deleteObject, listObjectsBefore, photoKey, presignUpload, putObject, readObject, thumbKey, uploadKey } from '@/lib/server/storage';
 import { PHOTO_MAX_BYTES, PHOTO_MAX_LONG_SIDE, THUMB_LONG_SIDE, THUMB_QUALITY, UPLOAD_PREFIX } from '@/lib/storage-keys';
 import type { presignPhotoSchema } from '@/lib/validation/photo';
 
@@ -244,10 +235,7 @@ async function confirmClaimed(member: Member, row: PhotoRow, claim: string) {
  * uploads that no pending photo waits on any more (a PUT after its photo was confirmed or
  * refused). Rows are claimed like a confirm claims them; storage is called with no transaction open.
  */
-export async function sweepPendingPhotos(
-  olderThan = new Date(Date.now() - 7 * 24 * 3600 * 1000),
-  orphansBefore = new Date(Date.now() - ORPHAN_UPLOAD_MS),
-) {
+export async function sweepPendingPhotos(olderThan = new Date(Date.now() - 7 * 24 * 3600 * 1000), orphansBefore = new Date(Date.now() - ORPHAN_UPLOAD_MS)) {
   const claim = randomUUID();
   const stale = await claimStalePendingPhotos(db(), olderThan, claim, LEASE_SECONDS);
   let removed = 0;

@@ -131,7 +131,9 @@ export async function loadEstateReport(member: Member, options: ReportOptions, n
   const [all, settingsOf] = await Promise.all([listBlocks(database, member.organisationId), settingsForBlocks(database, member.organisationId)]);
   const blocks: BlockReport[] = [];
   for (let i = 0; i < all.length; i += BLOCKS_AT_ONCE) {
-    blocks.push(...(await Promise.all(all.slice(i, i + BLOCKS_AT_ONCE).map((block) => blockSeason(database, member, block, season, shared, settingsOf(block.id))))));
+    blocks.push(
+      ...(await Promise.all(all.slice(i, i + BLOCKS_AT_ONCE).map((block) => blockSeason(database, member, block, season, shared, settingsOf(block.id))))),
+    );
   }
   return { ...buildEstateReport(season, blocks), seasons };
 }
@@ -168,7 +170,12 @@ export async function exportObservations(member: Member, season: number, blockId
     },
     { highWaterMark: 1 },
   );
-  const name = block ? block.name.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-|-$/g, '') || 'block' : 'all-blocks';
+  const name = block
+    ? block.name
+        .toLowerCase()
+        .replace(/[^a-z0-9]+/g, '-')
+        .replace(/^-|-$/g, '') || 'block'
+    : 'all-blocks';
   return { filename: `vineward-observations-${name}-${season}.csv`, stream };
 }
 
@@ -180,7 +187,8 @@ export async function recordMeasurement(member: Member, input: MeasurementInput)
   let positionId: string | null = null;
   if (input.position !== null) {
     const vine = await findVineByAddress(database, member.organisationId, block.id, input.row, input.position);
-    if (!vine) throw new AppError('invalid-input', `Row ${input.row} has no vine ${input.position} in ${block.name}.`, { position: ['No such vine in this row'] });
+    if (!vine)
+      throw new AppError('invalid-input', `Row ${input.row} has no vine ${input.position} in ${block.name}.`, { position: ['No such vine in this row'] });
     positionId = vine.positionId;
   } else {
     const row = await database('block_rows').where({ block_id: block.id, row_number: input.row }).first('row_number');

@@ -115,7 +115,10 @@ export interface EstateProgress {
 
 async function progressOf(organisationId: string, season: number, blockIds?: string[]): Promise<EstateProgress> {
   const database = db();
-  const [{ seasonStartMonth, ...pay }, blocks] = await Promise.all([getPayBasis(database, organisationId), listProgressBlocks(database, organisationId, blockIds)]);
+  const [{ seasonStartMonth, ...pay }, blocks] = await Promise.all([
+    getPayBasis(database, organisationId),
+    listProgressBlocks(database, organisationId, blockIds),
+  ]);
   const period = seasonBounds(season, seasonStartMonth);
   const ids = blocks.map((b) => b.id);
   const [coverage, days] = ids.length
@@ -126,7 +129,13 @@ async function progressOf(organisationId: string, season: number, blockIds?: str
     seasonStartMonth,
     pay,
     blocks: blocks.map((block) =>
-      buildBlockProgress({ block, rows: coverage.rows.get(block.id) ?? [], leads: coverage.leads.get(block.id) ?? [], workDays: days.get(block.id) ?? {}, pay }),
+      buildBlockProgress({
+        block,
+        rows: coverage.rows.get(block.id) ?? [],
+        leads: coverage.leads.get(block.id) ?? [],
+        workDays: days.get(block.id) ?? {},
+        pay,
+      }),
     ),
   };
 }
@@ -164,11 +173,27 @@ export async function loadDoneRows(member: Member, blockId: string, now = new Da
   const [block] = await listProgressBlocks(db(), member.organisationId, [blockId]);
   if (!block) throw new AppError('not-found', 'There is no such block in your organisation.');
   const season = currentSeason(member, now);
-  return { season, done: await listDoneRows(db(), member.organisationId, blockId, seasonBounds(season, member.seasonStartMonth)), fetchedAt: now.toISOString() };
+  return {
+    season,
+    done: await listDoneRows(db(), member.organisationId, blockId, seasonBounds(season, member.seasonStartMonth)),
+    fetchedAt: now.toISOString(),
+  };
 }
 
 export const ROW_WORK_CSV_COLUMNS = [
-  'id', 'season', 'block', 'row', 'pass', 'from_position', 'to_position', 'crew_size', 'person_hours', 'started_at', 'finished_at', 'recorded_by', 'note',
+  'id',
+  'season',
+  'block',
+  'row',
+  'pass',
+  'from_position',
+  'to_position',
+  'crew_size',
+  'person_hours',
+  'started_at',
+  'finished_at',
+  'recorded_by',
+  'note',
 ] as const;
 
 /** The season's row work as CSV lines, header first. */
@@ -176,8 +201,19 @@ export async function rowWorkCsv(member: Member, season: number, blockId?: strin
   const rows = await listRowWorkForExport(db(), member.organisationId, seasonBounds(season, member.seasonStartMonth), blockId);
   const lines = rows.map((r) =>
     [
-      r.id, season, r.block, r.row_number, r.pass, r.from_position, r.to_position, r.crew_size, Number(r.person_hours),
-      r.started_at?.toISOString() ?? null, r.finished_at.toISOString(), r.recorded_by, r.note,
+      r.id,
+      season,
+      r.block,
+      r.row_number,
+      r.pass,
+      r.from_position,
+      r.to_position,
+      r.crew_size,
+      Number(r.person_hours),
+      r.started_at?.toISOString() ?? null,
+      r.finished_at.toISOString(),
+      r.recorded_by,
+      r.note,
     ]
       .map(csvCell)
       .join(','),

@@ -48,7 +48,13 @@ function ownValue(override: SettingsOverride, key: SettingKey): SettingValue {
   return (override as Record<string, Record<string, SettingValue>>)[group]![name]!;
 }
 
-function view(level: SettingsView['level'], block: SettingsView['block'], stored: StoredOverride | undefined, below: LayeredSettings, effective: LayeredSettings): SettingsView {
+function view(
+  level: SettingsView['level'],
+  block: SettingsView['block'],
+  stored: StoredOverride | undefined,
+  below: LayeredSettings,
+  effective: LayeredSettings,
+): SettingsView {
   const own = new Set(overriddenKeys(stored?.overrides));
   return {
     level,
@@ -78,7 +84,10 @@ export async function loadBlockSettings(member: Member, blockId: string): Promis
   const database = db();
   const block = await getBlock(database, member.organisationId, blockId);
   if (!block) throw new AppError('not-found', 'There is no such block in your organisation.');
-  const [org, stored] = await Promise.all([getOrganisationOverride(database, member.organisationId), getBlockOverride(database, member.organisationId, block.id)]);
+  const [org, stored] = await Promise.all([
+    getOrganisationOverride(database, member.organisationId),
+    getBlockOverride(database, member.organisationId, block.id),
+  ]);
   return view('block', { id: block.id, name: block.name }, stored, layerSettings(org?.overrides), layerSettings(org?.overrides, stored?.overrides));
 }
 
@@ -90,7 +99,9 @@ function fieldsFor(message: string, override: SettingsOverride): Record<string, 
     const word = new RegExp(`\\b${name}\\b`);
     return message.includes(key) || (message.includes(`settings.${group}:`) && word.test(message)) || (name === 'formula' && message.includes('formula'));
   });
-  const percent = /percent settings/.test(message) ? keys.filter((k) => ['budbreak.weakBelowPercent', 'budInjury.minimalAbovePercent', 'trunkInjury.urgentAbovePercent'].includes(k)) : [];
+  const percent = /percent settings/.test(message)
+    ? keys.filter((k) => ['budbreak.weakBelowPercent', 'budInjury.minimalAbovePercent', 'trunkInjury.urgentAbovePercent'].includes(k))
+    : [];
   const hit = [...new Set([...named, ...percent])];
   return hit.length ? Object.fromEntries(hit.map((k) => [`overrides.${k}`, [message]])) : { overrides: [message] };
 }
@@ -131,7 +142,11 @@ export async function saveOrganisationSettings(member: Member, overrides: Settin
         mergeSettings(overlaySettings(override, own));
       } catch (err) {
         if (!(err instanceof RangeError)) throw err;
-        throw new AppError('invalid-input', `${name}'s own settings would no longer hold with these: ${err.message}. Change that block's settings first.`, fieldsFor(err.message, override));
+        throw new AppError(
+          'invalid-input',
+          `${name}'s own settings would no longer hold with these: ${err.message}. Change that block's settings first.`,
+          fieldsFor(err.message, override),
+        );
       }
     }
     await saveOrganisationOverride(trx, member.organisationId, override, member.userId);

@@ -33,7 +33,9 @@ function canonical(value: unknown): unknown {
 
 /** The hash that tells a retry from a conflict; give times as ISO strings in UTC. */
 export function hashPayload(payload: Record<string, unknown>) {
-  return createHash('sha256').update(JSON.stringify(canonical(payload))).digest('hex');
+  return createHash('sha256')
+    .update(JSON.stringify(canonical(payload)))
+    .digest('hex');
 }
 
 export function payloadHash(r: ObservationRecord) {

@@ -35,7 +35,9 @@ async function requireAssignee(trx: Db, member: Member, assigneeId: string) {
   if (!assignee) throw new AppError('invalid-input', 'Some fields are not valid.', { assigneeId: ['No such person in your organisation'] });
   if (!can(assignee.role, 'complete-task')) {
     throw new AppError('invalid-input', 'Some fields are not valid.', {
-      assigneeId: [`${assignee.name ?? assignee.email} is ${assignee.role === 'advisor' ? 'an' : 'a'} ${assignee.role} and cannot work tasks; choose a pruner or a manager`],
+      assigneeId: [
+        `${assignee.name ?? assignee.email} is ${assignee.role === 'advisor' ? 'an' : 'a'} ${assignee.role} and cannot work tasks; choose a pruner or a manager`,
+      ],
     });
   }
   return assignee;
@@ -44,9 +46,7 @@ async function requireAssignee(trx: Db, member: Member, assigneeId: string) {
 /** Rows in walking order: up the first row, back down the next, as a crew walks a block. */
 function walkingOrder<T extends { row_number: number; position: number }>(slots: T[]) {
   const rows = [...new Set(slots.map((s) => s.row_number))].sort((a, b) => a - b);
-  return rows.flatMap((row, i) =>
-    slots.filter((s) => s.row_number === row).sort((a, b) => (i % 2 === 0 ? a.position - b.position : b.position - a.position)),
-  );
+  return rows.flatMap((row, i) => slots.filter((s) => s.row_number === row).sort((a, b) => (i % 2 === 0 ? a.position - b.position : b.position - a.position)));
 }
 
 function titleFor(reasons: FlagReason[], rows: number[]) {
@@ -70,7 +70,8 @@ export async function createTasks(member: Member, input: CreateTasksInput): Prom
       const found = new Set(flags.map((f) => f.id));
       const missing = ids.filter((id) => !found.has(id));
       const closed = await existingFlagIds(trx, member.organisationId, missing);
-      if (closed.length) throw new AppError('conflict', `${closed.length === 1 ? 'A flag was' : `${closed.length} flags were`} closed meanwhile; reload the list.`);
+      if (closed.length)
+        throw new AppError('conflict', `${closed.length === 1 ? 'A flag was' : `${closed.length} flags were`} closed meanwhile; reload the list.`);
       throw new AppError('not-found', 'No such flag in your organisation.');
     }
     const busy = flags.filter((f) => f.task_id);
@@ -82,9 +83,20 @@ export async function createTasks(member: Member, input: CreateTasksInput): Prom
 
     const made: { id: string; assignedAt: Date; title: string; blockId: string; vines: number }[] = [];
     for (const [blockId, blockFlags] of byBlock) {
-      const slots = walkingOrder(await slotsInRuns(trx, blockId, blockFlags.map((f) => ({ row: f.row_number, from: f.position, to: f.to_position }))));
+      const slots = walkingOrder(
+        await slotsInRuns(
+          trx,
+          blockId,
+          blockFlags.map((f) => ({ row: f.row_number, from: f.position, to: f.to_position })),
+        ),
+      );
       if (slots.length === 0) throw new AppError('conflict', 'The flagged vines are no longer in the block layout; close those flags instead.');
-      const title = input.title || titleFor(blockFlags.map((f) => f.reason), blockFlags.map((f) => f.row_number));
+      const title =
+        input.title ||
+        titleFor(
+          blockFlags.map((f) => f.reason),
+          blockFlags.map((f) => f.row_number),
+        );
       const task = await insertTask(trx, {
         organisation_id: member.organisationId,
         block_id: blockId,
@@ -99,7 +111,11 @@ export async function createTasks(member: Member, input: CreateTasksInput): Prom
         trx,
         slots.map((s, i) => ({ task_id: task.id, position_id: s.id, row_number: s.row_number, position: s.position, sequence: i + 1 })),
       );
-      await attachFlagsToTask(trx, blockFlags.map((f) => f.id), task.id);
+      await attachFlagsToTask(
+        trx,
+        blockFlags.map((f) => f.id),
+        task.id,
+      );
       made.push({ id: task.id, assignedAt: task.assigned_at, title, blockId, vines: slots.length });
     }
     for (const t of made) {
@@ -216,8 +232,6 @@ export async function syncTaskUpdates(member: Member, records: unknown[]): Promi
   return results;
 }
 
-
-
 const mean = (xs: number[]) => (xs.length ? xs.reduce((a, b) => a + b, 0) / xs.length : null);
 const round1 = (x: number | null) => (x === null ? null : Math.round(x * 10) / 10);
 
@@ -229,7 +243,11 @@ const round1 = (x: number | null) => (x === null ? null : Math.round(x * 10) / 1
 export async function pruningCheckReport(member: Member, f: { block?: string; from?: string; to?: string }): Promise<PruningCheckReport> {
   const checks = await listPruningChecks(db(), member.organisationId, f);
   const [measurements, settingsOf] = await Promise.all([
-    listPlanMeasurements(db(), member.organisationId, checks.map((c) => c.positionId)),
+    listPlanMeasurements(
+      db(),
+      member.organisationId,
+      checks.map((c) => c.positionId),
+    ),
     settingsForBlocks(db(), member.organisationId, [...new Set(checks.map((c) => c.blockId))]),
   ]);
   // Each check is judged by its own block's band; the one shown is the block's asked for, else the organisation's.
@@ -279,6 +297,9 @@ export async function pruningCheckReport(member: Member, f: { block?: string; fr
       planSpurDeviationMean: round1(mean(planned.map((v) => v.renewalSpurs - v.planRenewalSpurs!))),
     };
   });
-  pruners.sort((a, b) => Math.abs(b.targetDeviationMeanPercent ?? 0) - Math.abs(a.targetDeviationMeanPercent ?? 0) || (a.prunerName ?? '').localeCompare(b.prunerName ?? ''));
+  pruners.sort(
+    (a, b) =>
+      Math.abs(b.targetDeviationMeanPercent ?? 0) - Math.abs(a.targetDeviationMeanPercent ?? 0) || (a.prunerName ?? '').localeCompare(b.prunerName ?? ''),
+  );
   return { finePercent: settingsOf(f.block ?? '').pruningRecord.fineWithinPercent, pruners, checks: vines };
 }

@@ -67,7 +67,15 @@ describe('records: each state of the outbox', () => {
     const s = setup();
     s.server.records.set(uuid(1), { collection: 'observations', payload: '{"other":true}', session: 'scout-b', creations: 1 });
     await s.outbox.enqueueObservation('scout-a', record(1));
-    await s.outbox.enqueuePhoto({ id: uuid(50), owner: 'scout-a', observationId: uuid(1), blob: jpeg(300), contentType: 'image/jpeg', bytes: 300, takenAt: '2026-02-10T08:00:00Z' });
+    await s.outbox.enqueuePhoto({
+      id: uuid(50),
+      owner: 'scout-a',
+      observationId: uuid(1),
+      blob: jpeg(300),
+      contentType: 'image/jpeg',
+      bytes: 300,
+      takenAt: '2026-02-10T08:00:00Z',
+    });
     await s.engine.start('scout-a');
     const [kept] = await s.outbox.listObservations();
     expect(kept).toMatchObject({ id: uuid(1), state: 'rejected', conflict: true, errors: [{ field: 'id' }] });
@@ -118,7 +126,13 @@ describe('records: each state of the outbox', () => {
     for (let n = 1; n <= 2; n++) await s.outbox.enqueueObservation('scout-a', record(n));
     s.server.next(SYNC, {
       status: 200,
-      json: { results: [{ id: uuid(1), status: 'created' }, { id: uuid(7), status: 'created' }, { id: uuid(8), status: 'created' }] },
+      json: {
+        results: [
+          { id: uuid(1), status: 'created' },
+          { id: uuid(7), status: 'created' },
+          { id: uuid(8), status: 'created' },
+        ],
+      },
     });
     await s.engine.start('scout-a');
     expect((await s.outbox.listObservations()).map((e) => [e.id, e.state])).toEqual([[uuid(2), 'queued']]);
@@ -225,7 +239,15 @@ describe('back-off', () => {
       await s.outbox.enqueueObservation('scout-a', record(1));
       s.server.always('offline');
       const { createSyncEngine } = await import('@/lib/offline/engine');
-      const engine = createSyncEngine({ outbox: s.outbox, transport: s.server.transport, lock: { ifFree: (fn) => fn() }, clock: s.time.clock, collections: [{ name: 'observations', path: SYNC, bodyKey: 'observations' }], batchSize: 200, random: () => random });
+      const engine = createSyncEngine({
+        outbox: s.outbox,
+        transport: s.server.transport,
+        lock: { ifFree: (fn) => fn() },
+        clock: s.time.clock,
+        collections: [{ name: 'observations', path: SYNC, bodyKey: 'observations' }],
+        batchSize: 200,
+        random: () => random,
+      });
       await engine.start('scout-a');
       expect(engine.getStatus().nextAttemptAt! - s.time.clock.now()).toBe(delay);
     }
@@ -271,7 +293,15 @@ describe('sessions and owners', () => {
     // The records went in another drain; a photo meets the 401 at its first step.
     s.server.session = 'scout-a';
     await s.engine.syncNow();
-    await s.outbox.enqueuePhoto({ id: uuid(50), owner: 'scout-a', observationId: uuid(1), blob: jpeg(100), contentType: 'image/jpeg', bytes: 100, takenAt: '2026-02-10T08:00:00Z' });
+    await s.outbox.enqueuePhoto({
+      id: uuid(50),
+      owner: 'scout-a',
+      observationId: uuid(1),
+      blob: jpeg(100),
+      contentType: 'image/jpeg',
+      bytes: 100,
+      takenAt: '2026-02-10T08:00:00Z',
+    });
     s.server.session = null;
     await s.engine.syncNow();
     expect(await s.outbox.listPhotos()).toMatchObject([{ state: 'queued' }]);
@@ -286,7 +316,15 @@ describe('sessions and owners', () => {
   it("one person's records wait for them and are never sent with another's session", async () => {
     const s = setup();
     await s.outbox.enqueueObservation('scout-a', record(1));
-    await s.outbox.enqueuePhoto({ id: uuid(50), owner: 'scout-a', observationId: uuid(1), blob: jpeg(100), contentType: 'image/jpeg', bytes: 100, takenAt: '2026-02-10T08:00:00Z' });
+    await s.outbox.enqueuePhoto({
+      id: uuid(50),
+      owner: 'scout-a',
+      observationId: uuid(1),
+      blob: jpeg(100),
+      contentType: 'image/jpeg',
+      bytes: 100,
+      takenAt: '2026-02-10T08:00:00Z',
+    });
     await s.outbox.enqueueObservation('scout-b', record(2));
     s.server.session = 'scout-b';
     await s.engine.start('scout-b');
@@ -332,7 +370,15 @@ describe('sessions and owners', () => {
     const s = setup();
     await s.outbox.enqueueObservation('scout-a', record(1));
     await s.engine.start('scout-a');
-    await s.outbox.enqueuePhoto({ id: uuid(50), owner: 'scout-a', observationId: uuid(1), blob: jpeg(100), contentType: 'image/jpeg', bytes: 100, takenAt: '2026-02-10T08:00:00Z' });
+    await s.outbox.enqueuePhoto({
+      id: uuid(50),
+      owner: 'scout-a',
+      observationId: uuid(1),
+      blob: jpeg(100),
+      contentType: 'image/jpeg',
+      bytes: 100,
+      takenAt: '2026-02-10T08:00:00Z',
+    });
     s.server.onRequest = (path) => {
       if (path !== PRESIGN) return;
       s.server.onRequest = undefined;
@@ -355,7 +401,15 @@ describe('photos: presign → PUT → confirm', () => {
   async function withPhoto(options: { bytes?: number } = {}) {
     const s = setup();
     await s.outbox.enqueueObservation('scout-a', record(1));
-    await s.outbox.enqueuePhoto({ id: uuid(50), owner: 'scout-a', observationId: uuid(1), blob: jpeg(options.bytes ?? 1000), contentType: 'image/jpeg', bytes: options.bytes ?? 1000, takenAt: '2026-02-10T08:00:00Z' });
+    await s.outbox.enqueuePhoto({
+      id: uuid(50),
+      owner: 'scout-a',
+      observationId: uuid(1),
+      blob: jpeg(options.bytes ?? 1000),
+      contentType: 'image/jpeg',
+      bytes: options.bytes ?? 1000,
+      takenAt: '2026-02-10T08:00:00Z',
+    });
     return s;
   }
   const photo = async (s: ReturnType<typeof setup>) => (await s.outbox.listPhotos())[0];
@@ -460,7 +514,15 @@ describe('photos: presign → PUT → confirm', () => {
   it('a photo the server already holds is confirmed without uploading again', async () => {
     const s = await withPhoto();
     await s.engine.start('scout-a');
-    await s.outbox.enqueuePhoto({ id: uuid(50), owner: 'scout-a', observationId: uuid(1), blob: jpeg(1000), contentType: 'image/jpeg', bytes: 1000, takenAt: '2026-02-10T08:00:00Z' });
+    await s.outbox.enqueuePhoto({
+      id: uuid(50),
+      owner: 'scout-a',
+      observationId: uuid(1),
+      blob: jpeg(1000),
+      contentType: 'image/jpeg',
+      bytes: 1000,
+      takenAt: '2026-02-10T08:00:00Z',
+    });
     await s.engine.syncNow();
     expect(s.server.sent(PUT)).toHaveLength(1);
     expect(await s.outbox.listPhotos()).toEqual([]);
@@ -472,7 +534,15 @@ describe('the engine as a whole', () => {
     const server = new FakeServer();
     const first = setup({ server });
     await first.outbox.enqueueObservation('scout-a', record(1));
-    await first.outbox.enqueuePhoto({ id: uuid(50), owner: 'scout-a', observationId: uuid(9), blob: jpeg(10), contentType: 'image/jpeg', bytes: 10, takenAt: '2026-02-10T08:00:00Z' });
+    await first.outbox.enqueuePhoto({
+      id: uuid(50),
+      owner: 'scout-a',
+      observationId: uuid(9),
+      blob: jpeg(10),
+      contentType: 'image/jpeg',
+      bytes: 10,
+      takenAt: '2026-02-10T08:00:00Z',
+    });
     await first.outbox.patchObservations([uuid(1)], { state: 'sending' });
     await first.outbox.patchPhoto(uuid(50), { state: 'uploading' });
     server.always('offline');

@@ -23,7 +23,15 @@ type Step =
 
 const outcome = fc.constantFrom<Outcome>('ok', 'ok', 'offline', 'timeout', 'lost', 'lost', 'partial', { status: 503 }, { status: 502 });
 const step: fc.Arbitrary<Step> = fc.oneof(
-  { weight: 4, arbitrary: fc.record({ kind: fc.constant('enqueue' as const), owner: fc.constantFrom(...OWNERS), collection: fc.constantFrom('observations' as const, 'flags' as const), photo: fc.boolean() }) },
+  {
+    weight: 4,
+    arbitrary: fc.record({
+      kind: fc.constant('enqueue' as const),
+      owner: fc.constantFrom(...OWNERS),
+      collection: fc.constantFrom('observations' as const, 'flags' as const),
+      photo: fc.boolean(),
+    }),
+  },
   { weight: 3, arbitrary: fc.record({ kind: fc.constant('drain' as const), outcomes: fc.array(outcome, { maxLength: 6 }) }) },
   { weight: 1, arbitrary: fc.constant({ kind: 'reload' as const }) },
   { weight: 1, arbitrary: fc.record({ kind: fc.constant('crash' as const), before: fc.array(outcome, { maxLength: 3 }) }) },
@@ -55,7 +63,10 @@ async function run(steps: Step[]) {
       expect(held !== undefined || onPhone.has(id), `${label}: record ${id} lost`).toBe(true);
       if (held) expect([held.payload, held.session], `${label}: record ${id} as stored`).toEqual([payload, owner]);
     }
-    expect([...server.records.keys()].every((id) => saved.has(id)), `${label}: a record the phone never saved`).toBe(true);
+    expect(
+      [...server.records.keys()].every((id) => saved.has(id)),
+      `${label}: a record the phone never saved`,
+    ).toBe(true);
     const photosOnPhone = new Set((await s.outbox.listPhotos()).map((p) => p.id));
     for (const [id, { owner, observationId }] of photos) {
       const held = server.photos.get(id);
@@ -72,7 +83,15 @@ async function run(steps: Step[]) {
       saved.set(r.id, { owner: st.owner, payload: JSON.stringify(r) });
       if (st.photo && st.collection === 'observations') {
         const id = uuid(10_000 + n);
-        await s.outbox.enqueuePhoto({ id, owner: st.owner, observationId: r.id, blob: jpeg(100 + n), contentType: 'image/jpeg', bytes: 100 + n, takenAt: '2026-02-10T08:00:00Z' });
+        await s.outbox.enqueuePhoto({
+          id,
+          owner: st.owner,
+          observationId: r.id,
+          blob: jpeg(100 + n),
+          contentType: 'image/jpeg',
+          bytes: 100 + n,
+          takenAt: '2026-02-10T08:00:00Z',
+        });
         photos.set(id, { owner: st.owner, observationId: r.id });
       }
     } else if (st.kind === 'drain') {
@@ -122,7 +141,12 @@ async function run(steps: Step[]) {
   for (const [id, held] of server.records) expect(held.creations, id).toBe(1);
   // No record arrived twice under different ids: each vine position is stored once.
   expect(new Set([...server.records.values()].map((r) => JSON.parse(r.payload).position)).size).toBe(saved.size);
-  expect([...server.photos].filter(([, p]) => p.state === 'stored').map(([id]) => id).sort()).toEqual([...photos.keys()].sort());
+  expect(
+    [...server.photos]
+      .filter(([, p]) => p.state === 'stored')
+      .map(([id]) => id)
+      .sort(),
+  ).toEqual([...photos.keys()].sort());
 }
 
 describe('the outbox under any sequence of events', () => {

@@ -26,7 +26,7 @@ describe('isWeakBudbreak', () => {
     expect(isWeakBudbreak(100, 75)).toBe(false);
   });
 
-  it('follows a block\'s own threshold', () => {
+  it("follows a block's own threshold", () => {
     expect(isWeakBudbreak(100, 85, { budbreak: { weakBelowPercent: 90 } })).toBe(true);
     expect(isWeakBudbreak(100, 85, { budbreak: { weakBelowPercent: 80 } })).toBe(false);
   });

@@ -25,7 +25,7 @@ describe('checkBudLoad', () => {
     expect(checkBudLoad(31, ftToM(5)).reading).toBe('over');
   });
 
-  it('follows a block\'s own range', () => {
+  it("follows a block's own range", () => {
     expect(checkBudLoad(40, ftToM(5), { budLoad: { maxBudsPerFt: 8 } }).reading).toBe('within');
   });
 

@@ -3,7 +3,15 @@ import { CANE_REASON_CODES, assessCane, caneReasonCode, inToMm, recommendedBudsP
 
 // Every limit below is a literal from its source, never read back from DEFAULT_SETTINGS.
 // A pencil-thick (3/8 in) sun cane with WineSkills UK's ideal internode of about 60 mm.
-const good = { baseDiameterMm: inToMm(3 / 8), longestInternodeMm: 60, exposure: 'sun', colourGood: true, flat: false, origin: 'two-year-wood', injured: false } as const;
+const good = {
+  baseDiameterMm: inToMm(3 / 8),
+  longestInternodeMm: 60,
+  exposure: 'sun',
+  colourGood: true,
+  flat: false,
+  origin: 'two-year-wood',
+  injured: false,
+} as const;
 
 describe('assessCane', () => {
   it('calls a pencil-thick sun cane with short internodes, good colour, round, from two-year wood a fruit cane with no reasons', () => {
@@ -65,7 +73,11 @@ describe('assessCane', () => {
     expect(assessCane({ ...good, flat: true }).reasons).toEqual(['flat: cane is flat, not round']);
     expect(assessCane({ ...good, colourGood: false }).reasons).toEqual(['poor-colour: wood colour shows poor maturity']);
     expect(assessCane({ ...good, origin: 'older-wood' }).reasons).toEqual(['older-wood: arises from wood older than two years']);
-    for (const cane of [{ ...good, flat: true }, { ...good, colourGood: false }, { ...good, origin: 'older-wood' as const }]) {
+    for (const cane of [
+      { ...good, flat: true },
+      { ...good, colourGood: false },
+      { ...good, origin: 'older-wood' as const },
+    ]) {
       expect(assessCane(cane).verdict).toBe('if-nothing-better');
     }
   });
@@ -78,7 +90,15 @@ describe('assessCane', () => {
   });
 
   it('lists disqualifying faults before minor ones, each reason opening with a known code', () => {
-    const result = assessCane({ baseDiameterMm: 14, longestInternodeMm: 200, exposure: 'shade', colourGood: false, flat: true, origin: 'older-wood', injured: true });
+    const result = assessCane({
+      baseDiameterMm: 14,
+      longestInternodeMm: 200,
+      exposure: 'shade',
+      colourGood: false,
+      flat: true,
+      origin: 'older-wood',
+      injured: true,
+    });
     const codes = result.reasons.map(caneReasonCode);
     expect(codes).toEqual(['injured', 'bull-cane', 'shade-cane', 'poor-colour', 'flat', 'older-wood']);
     expect(codes.every((code) => code !== undefined && CANE_REASON_CODES.includes(code))).toBe(true);

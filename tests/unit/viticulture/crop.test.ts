@@ -35,7 +35,7 @@ describe('estimateCropKg', () => {
     expect(estimateCropKg({ vines: 1000, budsPerVine: 30, budbreakFraction: 0.9, clustersPerShoot: 1.5, clusterWeightG: 150 })).toBeCloseTo(6075, 9);
   });
 
-  it('is also exported under the product brief\'s name estimateCrop', () => {
+  it("is also exported under the product brief's name estimateCrop", () => {
     expect(estimateCrop).toBe(estimateCropKg);
   });
 
@@ -74,7 +74,7 @@ describe('Ravaz index', () => {
     [9.8, 1.3, 7.5],
     [20.2, 1.53, 13.2],
     [15.9, 0.29, 54.8],
-  ])('gives %f kg / %f kg = %f as published in AJEV\'s Oakville table', (yieldKg, pruningKg, published) => {
+  ])("gives %f kg / %f kg = %f as published in AJEV's Oakville table", (yieldKg, pruningKg, published) => {
     expect(ravazIndex(yieldKg, pruningKg)).toBeCloseTo(published, 1);
   });
 

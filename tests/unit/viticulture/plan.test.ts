@@ -46,7 +46,12 @@ describe('planVine, cane pruning', () => {
 
   it('counts renewal-spur buds toward the target and gives extra buds to the best canes first', () => {
     // 2 canes + 2 spurs: 24–28 + 4 buds covers a 31-bud target; 27 cane buds = 14 + 13.
-    const plan = planVine({ trainingSystem: 'cane', canes: [normal(9.0), normal(9.5)], pruningWeight: 31, formula: { firstUnitBuds: 1, perAdditionalUnitBuds: 1, unit: 'lb' } });
+    const plan = planVine({
+      trainingSystem: 'cane',
+      canes: [normal(9.0), normal(9.5)],
+      pruningWeight: 31,
+      formula: { firstUnitBuds: 1, perAdditionalUnitBuds: 1, unit: 'lb' },
+    });
     expect(plan.targetBuds).toBe(31);
     expect(plan.keep).toEqual([1, 0]);
     expect(plan.budsPerCane).toEqual([14, 13]);

@@ -88,13 +88,18 @@ describe('invariants', () => {
 
   it('more winter injury never means fewer buds left', () => {
     fc.assert(
-      fc.property(fc.integer({ min: 0, max: 200 }), fc.double({ min: 0, max: 100, noNaN: true }), fc.double({ min: 0, max: 100, noNaN: true }), (target, a, b) => {
-        const [low, high] = a <= b ? [a, b] : [b, a];
-        const [h, l] = [budInjuryAdjustment(target, high), budInjuryAdjustment(target, low)];
-        // Past the minimal-pruning limit there is no count to compare: the advice is not to prune to one.
-        if (h.buds !== null && l.buds !== null) expect(h.buds).toBeGreaterThanOrEqual(l.buds);
-        if (l.buds === null) expect(h.buds).toBeNull();
-      }),
+      fc.property(
+        fc.integer({ min: 0, max: 200 }),
+        fc.double({ min: 0, max: 100, noNaN: true }),
+        fc.double({ min: 0, max: 100, noNaN: true }),
+        (target, a, b) => {
+          const [low, high] = a <= b ? [a, b] : [b, a];
+          const [h, l] = [budInjuryAdjustment(target, high), budInjuryAdjustment(target, low)];
+          // Past the minimal-pruning limit there is no count to compare: the advice is not to prune to one.
+          if (h.buds !== null && l.buds !== null) expect(h.buds).toBeGreaterThanOrEqual(l.buds);
+          if (l.buds === null) expect(h.buds).toBeNull();
+        },
+      ),
     );
   });
 

@@ -21,14 +21,18 @@ describe('balanced pruning formulas', () => {
   });
 
   it('gives the remembered cultivar rows (from memory: Niagara 25 + 10, Delaware 20 + 10, large-cluster hybrids 10 + 10)', () => {
-    expect([F.niagara, F.delaware, F['hybrid-small-cluster'], F['hybrid-large-cluster']].map((f) => [
-      f.firstUnitBuds,
-      f.perAdditionalUnitBuds,
-    ])).toEqual([[25, 10], [20, 10], [20, 10], [10, 10]]);
+    expect([F.niagara, F.delaware, F['hybrid-small-cluster'], F['hybrid-large-cluster']].map((f) => [f.firstUnitBuds, f.perAdditionalUnitBuds])).toEqual([
+      [25, 10],
+      [20, 10],
+      [20, 10],
+      [10, 10],
+    ]);
   });
 
   it('lists every grape type once and cannot be changed at run time', () => {
-    expect(GRAPE_TYPES).toEqual(expect.arrayContaining(['concord', 'niagara', 'catawba', 'delaware', 'hybrid-small-cluster', 'hybrid-large-cluster', 'vinifera']));
+    expect(GRAPE_TYPES).toEqual(
+      expect.arrayContaining(['concord', 'niagara', 'catawba', 'delaware', 'hybrid-small-cluster', 'hybrid-large-cluster', 'vinifera']),
+    );
     expect(Object.isFrozen(F)).toBe(true);
     expect(Object.isFrozen(F.concord)).toBe(true);
   });
@@ -62,7 +66,7 @@ describe('balancedPruningBuds', () => {
     expect(balancedPruningBuds(lb, F.vinifera)).toBe(e);
   });
 
-  it('converts kilograms to the formula\'s pounds: 1.1339809 kg (2.5 lb) gives 45 under 30 + 10 (metric form, 22.046 buds per extra kg)', () => {
+  it("converts kilograms to the formula's pounds: 1.1339809 kg (2.5 lb) gives 45 under 30 + 10 (metric form, 22.046 buds per extra kg)", () => {
     expect(balancedPruningBuds(1.1339809, F.concord, 'kg')).toBe(45);
     expect(balancedPruningBuds(lbToKg(3), F.concord, 'kg')).toBe(50);
     // One extra kilogram above the first pound adds 10 / 0.45359237 = 22.046 buds.

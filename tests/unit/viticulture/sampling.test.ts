@@ -1,5 +1,12 @@
 import { describe, expect, it } from 'vitest';
-import { coefficientOfVariationPercent, detectionSampleSize, sampleSizeForMean, sampleSizeForProportion, samplingPlan, type VineAddress } from '@/lib/viticulture';
+import {
+  coefficientOfVariationPercent,
+  detectionSampleSize,
+  sampleSizeForMean,
+  sampleSizeForProportion,
+  samplingPlan,
+  type VineAddress,
+} from '@/lib/viticulture';
 
 describe('sampleSizeForMean (Wolpert & Vilas, "Estimating vineyard yields", AJEV Technical Brief, 1992)', () => {
   it('samples 35 vines for a mean yield within ±10% when vine yields vary with a CV of 30%: (1.96 × 30 / 10)² = 34.6', () => {
@@ -53,7 +60,7 @@ describe('sampleSizeForProportion', () => {
     [500, 217],
     [1000, 278],
     [10000, 370],
-  ])('samples %i vines → %i, rounded to the nearest vine as Krejcie & Morgan\'s table is (from memory)', (n, s) => {
+  ])("samples %i vines → %i, rounded to the nearest vine as Krejcie & Morgan's table is (from memory)", (n, s) => {
     expect(sampleSizeForProportion(n)).toBe(s);
   });
 
@@ -178,7 +185,18 @@ describe('samplingPlan', () => {
   it('takes rows as a list, a count from firstRow, and vines per row as a number, a record or a Map', () => {
     const fromList = samplingPlan({ rows: [12, 10, 11], vinesPerRow: 4 }, { count: 12, seed: 0 });
     expect(new Set(fromList.map((v) => v.row))).toEqual(new Set([10, 11, 12]));
-    const counted = samplingPlan({ rowCount: 3, firstRow: 10, vinesPerRow: new Map([[10, 1], [11, 2], [12, 3]]) }, { count: 6, seed: 0 });
+    const counted = samplingPlan(
+      {
+        rowCount: 3,
+        firstRow: 10,
+        vinesPerRow: new Map([
+          [10, 1],
+          [11, 2],
+          [12, 3],
+        ]),
+      },
+      { count: 6, seed: 0 },
+    );
     expect(counted).toHaveLength(6);
     expect(counted.filter((v) => v.row === 12)).toHaveLength(3);
     expect(samplingPlan({ rowCount: 0, vinesPerRow: 10 }, { count: 5, seed: 0 })).toEqual([]);

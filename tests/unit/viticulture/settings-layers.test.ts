@@ -25,7 +25,10 @@ describe('layerSettings (defaults ← organisation ← block)', () => {
   });
 
   it('replaces a range or formula as a whole', () => {
-    const { settings, origin } = layerSettings({ budsPerCane: { thin: { min: 6, max: 8 } } }, { pruning: { formula: { firstUnitBuds: 30, perAdditionalUnitBuds: 10, unit: 'lb' } } });
+    const { settings, origin } = layerSettings(
+      { budsPerCane: { thin: { min: 6, max: 8 } } },
+      { pruning: { formula: { firstUnitBuds: 30, perAdditionalUnitBuds: 10, unit: 'lb' } } },
+    );
     expect(settings.budsPerCane.thin).toEqual({ min: 6, max: 8 });
     // Cornell LERGP (Bates): Concord 30 + 10.
     expect(settings.pruning.formula).toEqual({ firstUnitBuds: 30, perAdditionalUnitBuds: 10, unit: 'lb' });

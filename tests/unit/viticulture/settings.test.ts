@@ -47,7 +47,7 @@ describe('settings', () => {
     expect(mergeSettings({ canes: { thinBelowMm: undefined } }).canes.thinBelowMm).toBe(DEFAULT_SETTINGS.canes.thinBelowMm);
   });
 
-  it('copy objects they are given rather than freezing the caller\'s', () => {
+  it("copy objects they are given rather than freezing the caller's", () => {
     const normal = { min: 10, max: 12 };
     const merged = mergeSettings({ budsPerCane: { normal } });
     expect(merged.budsPerCane.normal).toEqual(normal);

@@ -92,7 +92,7 @@ describe('observationSeverity', () => {
     expect(observationSeverity('bud-injury', { budsCut: 100, primariesDead: 51 })).toBe(3);
   });
 
-  it('scores a pruning record by how far its buds stray from the target, in the settings\' steps', () => {
+  it("scores a pruning record by how far its buds stray from the target, in the settings' steps", () => {
     // 2 canes × 13 buds + 2 renewal spurs × 2 buds = 30 buds retained.
     const record = (budTarget: number) => observationSeverity('pruning-record', { canesKept: 2, budsPerCane: 13, renewalSpurs: 2, budTarget });
     expect(record(30)).toBe(0);
@@ -111,7 +111,7 @@ describe('observationSeverity', () => {
     expect([off(150), off(151), off(50), off(49)]).toEqual([2, 3, 2, 3]);
   });
 
-  it('derives the target from a pruning weight in kilograms with the settings\' formula (vinifera 20 + 20 by default)', () => {
+  it("derives the target from a pruning weight in kilograms with the settings' formula (vinifera 20 + 20 by default)", () => {
     // 0.6803886 kg is 1.5 lb: 30 buds under 20 + 20.
     expect(observationSeverity('pruning-record', { canesKept: 2, budsPerCane: 13, renewalSpurs: 2, pruningWeightKg: 0.6803886 })).toBe(0);
     expect(observationSeverity('pruning-record', { canesKept: 2, budsPerCane: 13, renewalSpurs: 2, pruningWeightKg: 0.8 })).toBe(1); // 1.76 lb → 35 buds, 14% off
@@ -122,7 +122,7 @@ describe('observationSeverity', () => {
     expect(observationSeverity('pruning-record', { canesKept: 0, budsPerCane: 0, renewalSpurs: 0, budTarget: 0 })).toBe(0);
   });
 
-  it('scores a pruning check by the buds the pruner left against the block\'s target, on the pruning-record steps', () => {
+  it("scores a pruning check by the buds the pruner left against the block's target, on the pruning-record steps", () => {
     // 26 buds on two canes + 2 renewal spurs × 2 buds = 30 buds left.
     const check = (budTarget?: number, budsOnCanes = 26) =>
       observationSeverity('pruning-check', { prunedBy: 'p', canesKept: 2, budsOnCanes, renewalSpurs: 2, ...(budTarget === undefined ? {} : { budTarget }) });
@@ -135,7 +135,7 @@ describe('observationSeverity', () => {
     expect(observationSeverity('pruning-check', { prunedBy: 'p', canesKept: 0, budsOnCanes: 0, renewalSpurs: 0, budTarget: 0 })).toBe(0);
   });
 
-  it('counts a checked vine\'s buds with its renewal spurs, and signs the deviation: negative when too few were left', () => {
+  it("counts a checked vine's buds with its renewal spurs, and signs the deviation: negative when too few were left", () => {
     expect(pruningCheckBuds({ canesKept: 2, budsOnCanes: 24, renewalSpurs: 2 })).toBe(28);
     expect(pruningCheckBuds({ canesKept: 2, budsOnCanes: 24, renewalSpurs: 2 }, { plan: { budsPerRenewalSpur: 1 } })).toBe(26);
     expect(budDeviationPercent(24, 30)).toBe(-20);
@@ -170,7 +170,18 @@ describe('observationSeverity', () => {
 
 describe('observation kinds', () => {
   it('are the kebab-case kinds of the sync contract, recognised by isObservationKind', () => {
-    expect(OBSERVATION_KINDS).toEqual(['cane-diameter', 'shade-cane', 'weak-budbreak', 'trunk-injury', 'cane-injury', 'missing-vine', 'bud-injury', 'pruning-record', 'pruning-check', 'note']);
+    expect(OBSERVATION_KINDS).toEqual([
+      'cane-diameter',
+      'shade-cane',
+      'weak-budbreak',
+      'trunk-injury',
+      'cane-injury',
+      'missing-vine',
+      'bud-injury',
+      'pruning-record',
+      'pruning-check',
+      'note',
+    ]);
     expect(isObservationKind('weak-budbreak')).toBe(true);
     expect(isObservationKind('Weak budbreak')).toBe(false);
     expect(isObservationKind(3)).toBe(false);

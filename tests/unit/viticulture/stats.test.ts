@@ -23,14 +23,14 @@ describe('normalQuantile', () => {
     expect(normalQuantile(p)).toBeCloseTo(z, 9);
   });
 
-  it('agrees with simple-statistics\' probit to its own accuracy (within 0.5%; it uses a closed-form erf inverse)', () => {
+  it("agrees with simple-statistics' probit to its own accuracy (within 0.5%; it uses a closed-form erf inverse)", () => {
     for (const p of [0.6, 0.8, 0.9, 0.95, 0.975, 0.99, 0.995, 0.2, 0.05]) {
       expect(Math.abs(normalQuantile(p) - probit(p)) / Math.abs(normalQuantile(p))).toBeLessThan(0.005);
     }
     expect(probit(0.975)).toBeCloseTo(1.96, 2);
   });
 
-  it('inverts simple-statistics\' normal CDF (errorFunction, accurate to about 1e-7), deep into both tails', () => {
+  it("inverts simple-statistics' normal CDF (errorFunction, accurate to about 1e-7), deep into both tails", () => {
     for (const p of [1e-6, 0.001, 0.01, 0.02425, 0.1, 0.3, 0.5, 0.7, 0.9, 0.975, 0.99, 0.999, 1 - 1e-6]) {
       expect(Math.abs(normalCdf(normalQuantile(p)) - p)).toBeLessThan(2e-7);
     }

@@ -23,9 +23,9 @@ export default async function ExportPage() {
         </p>
         <h1 className="text-3xl font-extrabold">Observation export (CSV)</h1>
         <p className="mt-1">
-          Every live observation of a season behind the reports, one line each, oldest first. The file is UTF-8 with a byte-order mark (so spreadsheets read accents
-          right), comma-separated, lines ending CR LF. Text holding a comma, a quote or a line break is quoted, with quotes doubled; text starting with = + - or @
-          gets a leading apostrophe so no spreadsheet runs it as a formula. Columns are only ever added at the end.
+          Every live observation of a season behind the reports, one line each, oldest first. The file is UTF-8 with a byte-order mark (so spreadsheets read
+          accents right), comma-separated, lines ending CR LF. Text holding a comma, a quote or a line break is quoted, with quotes doubled; text starting with
+          = + - or @ gets a leading apostrophe so no spreadsheet runs it as a formula. Columns are only ever added at the end.
         </p>
       </header>
       <section aria-labelledby="downloads" className="flex flex-col gap-2">
@@ -49,7 +49,10 @@ export default async function ExportPage() {
         <h2 id="columns" className="text-2xl font-extrabold">
           Columns
         </h2>
-        <table className="w-full border-collapse text-left text-sm [&_td]:border-b [&_td]:border-line [&_td]:px-2 [&_td]:py-1 [&_th]:border-b-2 [&_th]:border-bark [&_th]:px-2" data-testid="csv-columns">
+        <table
+          className="w-full border-collapse text-left text-sm [&_td]:border-b [&_td]:border-line [&_td]:px-2 [&_td]:py-1 [&_th]:border-b-2 [&_th]:border-bark [&_th]:px-2"
+          data-testid="csv-columns"
+        >
           <thead>
             <tr>
               <th scope="col">#</th>

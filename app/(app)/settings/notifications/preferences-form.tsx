@@ -44,7 +44,10 @@ export function PreferencesForm({ initial }: { initial: Preferences }) {
       <fieldset className="flex flex-col gap-2">
         <legend className="sr-only">Mail you get</legend>
         {NOTIFICATION_KINDS.map((kind) => (
-          <label key={kind} className="flex min-h-touch cursor-pointer items-start gap-3 rounded-lg border-2 border-line bg-panel p-3 has-checked:border-rootstock">
+          <label
+            key={kind}
+            className="flex min-h-touch cursor-pointer items-start gap-3 rounded-lg border-2 border-line bg-panel p-3 has-checked:border-rootstock"
+          >
             <input
               type="checkbox"
               name={kind}

@@ -27,7 +27,8 @@ export const POST = publicRoute({ accepts: ACCEPTS }, async ({ req }) => {
   const { token } = unsubscribeSchema.parse({ token: fromBody ?? req.nextUrl.searchParams.get('token') ?? undefined });
   const userId = verifyUnsubscribeToken(token);
   if (!userId) throw new AppError('not-found', 'This unsubscribe link is not valid. Sign in and change your notification settings instead.');
-  if (!(await userExists(db(), userId))) throw new AppError('not-found', 'This unsubscribe link is not valid. Sign in and change your notification settings instead.');
+  if (!(await userExists(db(), userId)))
+    throw new AppError('not-found', 'This unsubscribe link is not valid. Sign in and change your notification settings instead.');
   await savePreferences(db(), userId, { digest: false });
   return { digest: false };
 });

@@ -9,4 +9,6 @@ const params = idParams('a task');
 export const GET = memberRoute({ params }, async (member, { params }) => getTaskDetail(member, params.id));
 
 /** PATCH /api/tasks/:id — reassign, move the due date, change priority or cancel. */
-export const PATCH = memberRoute({ permission: 'manage-tasks', body: updateTaskSchema, params }, async (member, { params, body }) => updateTask(member, params.id, body));
+export const PATCH = memberRoute({ permission: 'manage-tasks', body: updateTaskSchema, params }, async (member, { params, body }) =>
+  updateTask(member, params.id, body),
+);

@@ -29,9 +29,9 @@ export default async function WeightsPage({ params, searchParams }: { params: Pr
           {block.name}: yields and pruning weights, {season}
         </h1>
         <p className="mt-1 max-w-3xl">
-          Weigh the fruit picked at harvest and the one-year wood cut off at winter pruning, for single vines or for a row sample weighed together. Pruning weights
-          give each vine its balanced-pruning bud target; a harvest paired with the next winter&apos;s prunings gives the Ravaz index. Season {season} holds what
-          was weighed from {from.slice(0, 10)} up to {to.slice(0, 10)}.
+          Weigh the fruit picked at harvest and the one-year wood cut off at winter pruning, for single vines or for a row sample weighed together. Pruning
+          weights give each vine its balanced-pruning bud target; a harvest paired with the next winter&apos;s prunings gives the Ravaz index. Season {season}{' '}
+          holds what was weighed from {from.slice(0, 10)} up to {to.slice(0, 10)}.
         </p>
       </header>
       <Measurements

@@ -5,7 +5,12 @@ import { exportLayout } from '@/lib/server/services/blocks';
 /** The block's layout in the import format (see lib/validation/block.ts), so it round-trips. */
 export const GET = memberRoute({ params: idParams('a block') }, async (member, { params }) => {
   const { name, csv } = await exportLayout(member, params.id);
-  const file = `${name.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-|-$/g, '') || 'block'}-layout.csv`;
+  const file = `${
+    name
+      .toLowerCase()
+      .replace(/[^a-z0-9]+/g, '-')
+      .replace(/^-|-$/g, '') || 'block'
+  }-layout.csv`;
   return new Response(csv, {
     headers: { 'content-type': 'text/csv; charset=utf-8', 'content-disposition': `attachment; filename="${file}"`, 'cache-control': 'no-store' },
   });
