@@ -15,7 +15,8 @@ import {
 } from '@/lib/viticulture';
 import { formatCount, formatNumber } from './format';
 
-export type TrainingSystem = 'cane' | 'spur' | 'other';
+export type { TrainingSystem } from '@/lib/validation/block';
+import type { TrainingSystem } from '@/lib/validation/block';
 
 /** Where a default input came from, in words a reader can follow. */
 export interface InputValue {

@@ -1,24 +1,26 @@
 /** The rows the report queries return, and the input the block report is built from. */
+import type { BlockView } from '@/lib/contracts/blocks';
 import type { ObservationKind, ViticultureSettings } from '@/lib/viticulture';
 import type { UnitSystem } from '@/lib/units';
 import type { ReportOptions } from '@/lib/validation/report';
 import type { RecordedLabour } from '@/lib/work/recorded';
-import type { TrainingSystem } from '../estimates';
 
-export interface ReportBlock {
-  id: string;
-  name: string;
-  variety: string;
-  clone: string | null;
-  rootstock: string | null;
-  plantingYear: number | null;
-  trainingSystem: TrainingSystem;
-  rowSpacingM: number;
-  vineSpacingM: number;
-  rowCount: number;
-  vinesPerRow: number;
-  vinesPerPanel: number | null;
-}
+/** The block facts a report reads: the Desk's own block view, not a copy of it. */
+export type ReportBlock = Pick<
+  BlockView,
+  | 'id'
+  | 'name'
+  | 'variety'
+  | 'clone'
+  | 'rootstock'
+  | 'plantingYear'
+  | 'trainingSystem'
+  | 'rowSpacingM'
+  | 'vineSpacingM'
+  | 'rowCount'
+  | 'vinesPerRow'
+  | 'vinesPerPanel'
+>;
 
 export interface SlotCounts {
   planted: number;
