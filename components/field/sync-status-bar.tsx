@@ -19,8 +19,8 @@ export function SyncStatusBar() {
       data-photos-waiting={s.counted ? s.photosWaiting : undefined}
       className={cn('sticky top-0 z-20 -mx-3 border-b-2 px-3 py-1 text-sm sm:mx-0', s.online ? 'border-line bg-panel' : 'border-cut bg-cut-tint')}
     >
-      {/* One line in the usual case; a second only while sending or when something needs a person. */}
-      <div className="mx-auto flex max-w-md items-center gap-x-3">
+      {/* One line in the usual case; it wraps rather than push "Sync now" off a narrow screen when photos wait too. */}
+      <div className="mx-auto flex max-w-md flex-wrap items-center gap-x-3">
         <span className="flex shrink-0 items-center gap-1 font-bold" data-testid="connection">
           <span aria-hidden className={cn('inline-block size-3 rounded-full', s.online ? 'bg-rootstock' : 'border-2 border-cut')} />
           {s.online ? t('online') : t('offline')}
@@ -50,7 +50,7 @@ export function SyncStatusBar() {
           type="button"
           onClick={() => void syncNow()}
           disabled={s.running}
-          className="min-h-11 shrink-0 rounded-lg border-2 border-rootstock bg-panel px-3 font-bold text-rootstock disabled:opacity-60"
+          className="ml-auto min-h-11 shrink-0 rounded-lg border-2 border-rootstock bg-panel px-3 font-bold text-rootstock disabled:opacity-60"
         >
           {t('syncNow')}
         </button>

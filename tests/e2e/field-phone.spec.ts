@@ -1,5 +1,6 @@
 import AxeBuilder from '@axe-core/playwright';
 import { expect, test, type Locator, type Page } from '@playwright/test';
+import { testPhoto } from './helpers/photos';
 import { signInAs } from './helpers/session';
 
 // The field on a 360 × 740 phone (playwright.config.ts): the header, the field places, and forms
@@ -226,4 +227,27 @@ test('a manager on a phone finds the desk pages behind the menu; at 1280 px the 
   await page.setViewportSize({ width: 1280, height: 800 });
   await expect(page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Team', exact: true })).toBeVisible();
   await expect(page.getByTestId('phone-menu')).toBeHidden();
+});
+
+test('with a record and a photo waiting offline, "Sync now" stays on a 360 px screen where a finger can press it', async ({ page, context }) => {
+  await signInAs(page, 'scout@example.com');
+  await page.goto(`/field/blocks/${UPPER_TERRACE}/walk?row=14&position=2`);
+  await expect(page.getByTestId('vine-address')).toContainText('Row 14 · Vine 2');
+  await context.setOffline(true);
+  try {
+    await page.getByRole('button', { name: 'Weak budbreak' }).click();
+    await page.getByLabel('Buds retained').fill('20');
+    await page.getByLabel('Buds pushed').fill('8');
+    await page.getByTestId('photo-input').setInputFiles(await testPhoto('narrow'));
+    await page.getByRole('button', { name: 'Save and next vine' }).click();
+    const bar = page.getByTestId('sync-status');
+    await expect(bar).toHaveAttribute('data-photos-waiting', '1');
+    const syncNow = bar.getByRole('button', { name: 'Sync now' });
+    const box = (await syncNow.boundingBox())!;
+    expect(box.x).toBeGreaterThanOrEqual(0);
+    expect(box.x + box.width).toBeLessThanOrEqual(PHONE.width);
+    await expect.poll(() => isHitAtCentre(syncNow)).toBe(true);
+  } finally {
+    await context.setOffline(false);
+  }
 });

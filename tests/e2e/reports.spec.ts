@@ -48,7 +48,9 @@ test('a manager opens the demo block’s report, changes the crop inputs, sees t
   const working = weak.locator('details');
   await expect(working.getByText(/by Wilson's score interval/)).toBeHidden();
   await working.getByText('How this is worked out').click();
-  await expect(working.getByText(/\d+ of \d+ vines checked were weak: \d+ ÷ \d+ = [\d.]+%; the 95% range around it, by Wilson's score interval/)).toBeVisible();
+  await expect(
+    working.getByText(/[\d,]+ of [\d,]+ vines checked were weak: [\d,]+ ÷ [\d,]+ = [\d.]+%; the 95% range around it, by Wilson's score interval/),
+  ).toBeVisible();
   await expect(working.getByText(/^Source: E\. B\. Wilson \(1927\)/)).toBeVisible();
   await expect(page.getByTestId('incidence-trunk-injury')).toContainText('95% range');
   await expect(page.getByRole('heading', { name: /side by side/ })).toBeVisible();
