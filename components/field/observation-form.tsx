@@ -51,6 +51,9 @@ export function ObservationForm({
   const [photos, setPhotos] = useState<PhotoDraft[]>([]);
   const [errors, setErrors] = useState<Record<string, string>>({});
   const [saving, setSaving] = useState(false);
+  // Photos still being downscaled: saving before they are ready would drop them, or pin them on the next vine.
+  const [preparing, setPreparing] = useState(0);
+  const [photoError, setPhotoError] = useState<string>();
   const [last, setLast] = useState<FormValues>();
   const Fields = KIND_FIELDS[kind];
 
@@ -79,11 +82,21 @@ export function ObservationForm({
     })();
 
   const addPhotos = async (files: FileList | null) => {
-    for (const file of Array.from(files ?? [])) {
-      const { blob } = await downscalePhoto(file);
-      setPhotos((p) => [...p, { id: crypto.randomUUID(), blob, url: URL.createObjectURL(blob) }]);
+    const chosen = Array.from(files ?? []);
+    setPhotoError(undefined);
+    setPreparing((n) => n + chosen.length);
+    for (const file of chosen) {
+      try {
+        const { blob } = await downscalePhoto(file);
+        setPhotos((p) => [...p, { id: crypto.randomUUID(), blob, url: URL.createObjectURL(blob) }]);
+      } catch {
+        setPhotoError(t('form.photoFailed', { name: file.name }));
+      } finally {
+        setPreparing((n) => n - 1);
+      }
     }
   };
+  const busy = saving || preparing > 0;
 
   return (
     <form ref={formRef} onSubmit={(e) => e.preventDefault()} className="flex flex-col gap-4" noValidate aria-label={t(`kinds.${kind}`)}>
@@ -122,9 +135,14 @@ export function ObservationForm({
             onChange={(e) => void addPhotos(e.target.files)}
           />
         </label>
-        <p className="text-sm text-bark-soft" data-testid="photo-count">
-          {t('form.photoCount', { count: photos.length })}
+        <p className="text-sm text-bark-soft" data-testid="photo-count" role="status">
+          {preparing > 0 ? t('form.preparingPhotos', { count: preparing }) : t('form.photoCount', { count: photos.length })}
         </p>
+        {photoError && (
+          <p className="text-sm font-bold text-alarm" role="alert">
+            {photoError}
+          </p>
+        )}
         {photos.length > 0 && (
           <ul className="grid grid-cols-3 gap-2">
             {photos.map((p) => (
@@ -153,13 +171,13 @@ export function ObservationForm({
           type="button"
           variant={allowNext ? 'secondary' : 'primary'}
           className="min-h-14 flex-1 px-2 leading-tight"
-          disabled={saving}
+          disabled={busy}
           onClick={() => void submit(false)}
         >
           {t('form.save')}
         </Button>
         {allowNext && (
-          <Button type="button" className="min-h-14 flex-[1.6] px-2 leading-tight" disabled={saving} onClick={() => void submit(true)}>
+          <Button type="button" className="min-h-14 flex-[1.6] px-2 leading-tight" disabled={busy} onClick={() => void submit(true)}>
             {t('form.saveNext')}
           </Button>
         )}

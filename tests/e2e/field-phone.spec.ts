@@ -1,7 +1,7 @@
 import AxeBuilder from '@axe-core/playwright';
 import { expect, test, type Locator, type Page } from '@playwright/test';
 import { testPhoto } from './helpers/photos';
-import { signInAs } from './helpers/session';
+import { signInAs, waitForServiceWorker } from './helpers/session';
 
 // The field on a 360 × 740 phone (playwright.config.ts): the header, the field places, and forms
 // that keep the field being filled in view of the person filling it.
@@ -231,6 +231,8 @@ test('a manager on a phone finds the desk pages behind the menu; at 1280 px the 
 
 test('with a record and a photo waiting offline, "Sync now" stays on a 360 px screen where a finger can press it', async ({ page, context }) => {
   await signInAs(page, 'scout@example.com');
+  await page.goto('/field');
+  await waitForServiceWorker(page);
   await page.goto(`/field/blocks/${UPPER_TERRACE}/walk?row=14&position=2`);
   await expect(page.getByTestId('vine-address')).toContainText('Row 14 · Vine 2');
   await context.setOffline(true);
@@ -239,7 +241,9 @@ test('with a record and a photo waiting offline, "Sync now" stays on a 360 px sc
     await page.getByLabel('Buds retained').fill('20');
     await page.getByLabel('Buds pushed').fill('8');
     await page.getByTestId('photo-input').setInputFiles(await testPhoto('narrow'));
+    await expect(page.getByTestId('photo-count')).toHaveText('1 photo');
     await page.getByRole('button', { name: 'Save and next vine' }).click();
+    await expect(page.getByRole('status').filter({ hasText: 'Saved on this phone' })).toBeVisible();
     const bar = page.getByTestId('sync-status');
     await expect(bar).toHaveAttribute('data-photos-waiting', '1');
     const syncNow = bar.getByRole('button', { name: 'Sync now' });
@@ -247,6 +251,36 @@ test('with a record and a photo waiting offline, "Sync now" stays on a 360 px sc
     expect(box.x).toBeGreaterThanOrEqual(0);
     expect(box.x + box.width).toBeLessThanOrEqual(PHONE.width);
     await expect.poll(() => isHitAtCentre(syncNow)).toBe(true);
+  } finally {
+    await context.setOffline(false);
+  }
+});
+
+test('"Save and next vine" pressed while a photo is still being prepared waits for it: the photo stays with its own vine', async ({ page, context }) => {
+  // A slow phone: each photo takes a second and a half to decode before it is downscaled.
+  await page.addInitScript(() => {
+    const decode = window.createImageBitmap.bind(window);
+    window.createImageBitmap = ((...args: Parameters<typeof createImageBitmap>) =>
+      new Promise((resolve) => setTimeout(resolve, 1_500)).then(() => decode(...args))) as typeof createImageBitmap;
+  });
+  await signInAs(page, 'scout@example.com');
+  await page.goto('/field');
+  await waitForServiceWorker(page);
+  await page.goto(`/field/blocks/${UPPER_TERRACE}/walk?row=14&position=3`);
+  await expect(page.getByTestId('vine-address')).toContainText('Row 14 · Vine 3');
+  await context.setOffline(true);
+  try {
+    await page.getByRole('button', { name: 'Weak budbreak' }).click();
+    await page.getByLabel('Buds retained').fill('20');
+    await page.getByLabel('Buds pushed').fill('8');
+    await page.getByTestId('photo-input').setInputFiles(await testPhoto('slow'));
+    await expect(page.getByTestId('photo-count')).toHaveText('Preparing 1 photo…');
+    await page.getByRole('button', { name: 'Save and next vine' }).click();
+    await expect(page.getByRole('status').filter({ hasText: 'Saved on this phone' })).toBeVisible();
+    await expect(page.getByTestId('sync-status')).toHaveAttribute('data-photos-waiting', '1');
+    await expect(page.getByTestId('vine-address')).toContainText('Row 14 · Vine 4');
+    await page.getByRole('button', { name: 'Weak budbreak' }).click();
+    await expect(page.getByTestId('photo-count')).toHaveText('No photos');
   } finally {
     await context.setOffline(false);
   }
