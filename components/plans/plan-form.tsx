@@ -6,13 +6,16 @@ import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { Button } from '@/components/ui/button';
 import { Field, Input, Notice, Select } from '@/components/ui/field';
-import { DEFAULT_SETTINGS, detectionSampleSize, sampleSizeForMean, sampleSizeForProportion } from '@/lib/viticulture';
+import { detectionSampleSize, sampleSizeForMean, sampleSizeForProportion } from '@/lib/viticulture';
 import { apiSend, ApiError } from '@/lib/api-client';
 
 interface BlockOption {
   id: string;
   name: string;
   vineCount: number;
+  /** The block's own judgement settings (settings screen), not the defaults. */
+  yieldCvPercent: number;
+  sampleMarginPercent: number;
 }
 
 interface Values {
@@ -30,9 +33,8 @@ export function PlanForm({ blocks }: { blocks: BlockOption[] }) {
   const block = blocks.find((b) => b.id === form.watch('blockId'));
   const estimate = block ? sampleSizeForProportion(block.vineCount) : undefined;
   const detect = detectionSampleSize(0.05);
-  // A mean yield a vine needs the vines' spread, not a proportion (Wolpert & Vilas, AJEV 1992); the block report has the block's own CV.
-  const { yieldCvPercent, sampleMarginPercent } = DEFAULT_SETTINGS.crop;
-  const forYield = block ? sampleSizeForMean(yieldCvPercent, sampleMarginPercent, 0.95, block.vineCount) : undefined;
+  // A mean yield a vine needs the vines' spread, not a proportion (Wolpert & Vilas, AJEV 1992).
+  const forYield = block ? sampleSizeForMean(block.yieldCvPercent, block.sampleMarginPercent, 0.95, block.vineCount) : undefined;
   const save = useMutation({
     mutationFn: async (values: Values) => {
       try {
@@ -82,7 +84,7 @@ export function PlanForm({ blocks }: { blocks: BlockOption[] }) {
               <>
                 {' · '}
                 <button type="button" className="underline" onClick={() => form.setValue('count', forYield)}>
-                  {forYield} to estimate the mean yield a vine within ±{sampleMarginPercent}% (vine yields varying by {yieldCvPercent}%)
+                  {forYield} to estimate the mean yield a vine within ±{block?.sampleMarginPercent}% (vine yields varying by {block?.yieldCvPercent}%)
                 </button>
               </>
             )}

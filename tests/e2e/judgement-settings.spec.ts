@@ -61,3 +61,21 @@ test("a manager sets a block's shade-cane internode, and a scout's phone judges 
   await expect(feedback).toContainText('Good fruit cane');
   await phone.close();
 });
+
+test("the sampling plan's yield suggestion uses the block's own vine-to-vine spread", async ({ page }) => {
+  const org = await testDb()('organisations').where({ name: DEMO_ORG }).first('id');
+  const wide = await makeBlock(org.id, { rows: 10, vinesPerRow: 50, name: `Plan Spread ${Date.now() % 100000}` });
+  try {
+    await signInAs(page, 'manager@example.com');
+    const saved = await page.request.put(`/api/blocks/${wide.id}/settings`, { data: { overrides: { crop: { yieldCvPercent: 15 } } } });
+    expect(saved.status()).toBe(200);
+    await page.goto('/plans');
+    await page.getByLabel('Block').selectOption({ label: `${wide.name} (500 vines)` });
+    // n0 = (z × CV / E)² (Wolpert & Vilas, AJEV Technical Brief, 1992) = (1.96 × 15 / 10)² = 8.64; the finite population
+    // correction n = n0 / (1 + (n0 − 1) / N) (Cochran, Sampling Techniques, 3rd ed., 1977, ch. 4; chapter from memory)
+    // gives 8.64 / (1 + 7.64 / 500) = 8.51 → 9 vines. The default 30% spread would give 33.
+    await expect(page.getByRole('button', { name: /^9 to estimate the mean yield a vine within ±10% \(vine yields varying by 15%\)/ })).toBeVisible();
+  } finally {
+    await testDb()('blocks').where({ id: wide.id }).delete();
+  }
+});

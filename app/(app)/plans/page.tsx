@@ -5,15 +5,17 @@ import { memberForPage } from '@/lib/server/auth/guard';
 import { db } from '@/lib/server/db';
 import { countSlotsByBlock, listBlocks } from '@/lib/server/queries/blocks';
 import { listSamplingPlans } from '@/lib/server/queries/sampling-plans';
+import { settingsForBlocks } from '@/lib/server/services/settings';
 
 export const metadata: Metadata = { title: 'Sampling plans' };
 
 export default async function PlansPage() {
   const member = await memberForPage();
-  const [blocks, counts, plans] = await Promise.all([
+  const [blocks, counts, plans, settingsOf] = await Promise.all([
     listBlocks(db(), member.organisationId),
     countSlotsByBlock(db(), member.organisationId),
     listSamplingPlans(db(), member.organisationId),
+    settingsForBlocks(db(), member.organisationId),
   ]);
   const names = new Map(blocks.map((b) => [b.id, b.name]));
   const vineCount = (id: string) => {
@@ -32,7 +34,12 @@ export default async function PlansPage() {
       {can(member.role, 'plan-sampling') && (
         <section className="rounded-2xl border-2 border-line bg-panel p-4">
           <h2 className="mb-3 text-xl font-bold">Draw a plan</h2>
-          <PlanForm blocks={blocks.map((b) => ({ id: b.id, name: b.name, vineCount: vineCount(b.id) }))} />
+          <PlanForm
+            blocks={blocks.map((b) => {
+              const { yieldCvPercent, sampleMarginPercent } = settingsOf(b.id).crop;
+              return { id: b.id, name: b.name, vineCount: vineCount(b.id), yieldCvPercent, sampleMarginPercent };
+            })}
+          />
         </section>
       )}
       <section>
