@@ -34,11 +34,15 @@ export function TaskStep({ owner, task, row, position, onDone }: TaskStepProps) 
   const [note, setNote] = useState('');
   const [photo, setPhoto] = useState<{ blob: Blob; url: string }>();
   const [saving, setSaving] = useState(false);
+  // A photo still being downscaled: marking done before it is ready would leave it off, or pin it on the next vine.
+  const [preparing, setPreparing] = useState(false);
+  const [photoError, setPhotoError] = useState<string>();
   useEffect(() => () => photo && URL.revokeObjectURL(photo.url), [photo]);
   useEffect(() => {
     setOpen(false);
     setNote('');
     setPhoto(undefined);
+    setPhotoError(undefined);
   }, [row, position]);
 
   const index = task.items.findIndex((i) => i.row === row && i.position === position);
@@ -151,12 +155,28 @@ export function TaskStep({ owner, task, row, position, onDone }: TaskStepProps) 
               data-testid="task-photo-input"
               onChange={(e) => {
                 const file = e.target.files?.[0];
-                if (file) void downscalePhoto(file).then(({ blob }) => setPhoto({ blob, url: URL.createObjectURL(blob) }));
+                if (!file) return;
+                setPhotoError(undefined);
+                setPreparing(true);
+                downscalePhoto(file)
+                  .then(({ blob }) => setPhoto({ blob, url: URL.createObjectURL(blob) }))
+                  .catch(() => setPhotoError(t('form.photoFailed', { name: file.name })))
+                  .finally(() => setPreparing(false));
               }}
             />
           </label>
+          {preparing && (
+            <p className="text-sm text-bark-soft" role="status">
+              {t('form.preparingPhotos', { count: 1 })}
+            </p>
+          )}
+          {photoError && (
+            <p className="text-sm font-bold text-alarm" role="alert">
+              {photoError}
+            </p>
+          )}
           {photo && <img src={photo.url} alt="" className="max-h-40 self-start rounded-lg" />}
-          <Button type="button" size="large" disabled={saving} onClick={() => void save()}>
+          <Button type="button" size="large" disabled={saving || preparing} onClick={() => void save()}>
             {t('tasks.saveDone')}
           </Button>
           <Button type="button" variant="quiet" onClick={() => setOpen(false)}>

@@ -101,7 +101,13 @@ test('a pruner flags vines offline, the manager makes a task of it, the pruner w
   );
   expect(assignment[0]!.text).toContain('/field/tasks?task=');
 
-  // 3. The pruner works the task vine by vine on the phone, the second with a photo.
+  // 3. The pruner works the task vine by vine on the phone, the second with a photo. A slow phone:
+  // each photo takes a second and a half to decode, and "Save as done" is pressed before it is ready.
+  await page.addInitScript(() => {
+    const decode = window.createImageBitmap.bind(window);
+    window.createImageBitmap = ((...args: Parameters<typeof createImageBitmap>) =>
+      new Promise((resolve) => setTimeout(resolve, 1_500)).then(() => decode(...args))) as typeof createImageBitmap;
+  });
   await page.goto('/field/tasks');
   const card = page.getByTestId('my-task').filter({ hasText: 'Renew trunks, row 20' });
   await expect(card).toContainText('0 of 2 vines done');
@@ -116,7 +122,7 @@ test('a pruner flags vines offline, the manager makes a task of it, the pruner w
   await expect(page.getByTestId('vine-address')).toContainText(`Row ${ROW} · Vine 34`);
   await step.getByRole('button', { name: /Mark this vine done/ }).click();
   await step.getByTestId('task-photo-input').setInputFiles(await testPhoto('renewed'));
-  await expect(step.locator('img')).toBeVisible();
+  await expect(step.getByRole('status').filter({ hasText: 'Preparing 1 photo…' })).toBeVisible();
   await step.getByRole('button', { name: 'Save as done' }).click();
   await expect(page.getByTestId('task-vine-done')).toBeVisible();
   await expect(page.getByText('Every vine of this task is done.')).toBeVisible();
