@@ -35,6 +35,8 @@ export function describeAuthError(code: string) {
       return 'That e-mail and password do not match. Check both, or ask for a sign-in link instead.';
     case 'Verification':
       return 'That sign-in link has expired or was already used. Ask for a new one.';
+    case 'EmailSignin':
+      return 'The sign-in link cannot be sent right now: the mail server is not answering. Try again in a few minutes, or sign in with your password.';
     case 'AccessDenied':
       return 'This address has no access to Vineward. Ask your vineyard manager for an invitation.';
     default:

@@ -116,4 +116,38 @@ describe('a stalled mail server', () => {
     expect((await mailsTo(team.pruner.email)).filter((m) => m.text.includes('see the cut'))).toHaveLength(1);
     expect(await testDb()('mail_outbox').where({ dedupe_key: `comment:${id}:${team.pruner.id}` })).toHaveLength(1);
   }, 60_000);
+
+  it('refuses a sign-in link at once, alike for a member and a stranger, instead of promising a mail that cannot go', async () => {
+    const ask = async (email: string) => {
+      const client = new Client();
+      const csrfToken = await client.csrf();
+      const started = Date.now();
+      const res = await client.postForm('/api/auth/signin/email', { email, csrfToken, json: 'true', callbackUrl: '/' });
+      const url = new URL(((await res.json()) as { url: string }).url);
+      return { error: url.searchParams.get('error'), path: url.pathname, ms: Date.now() - started };
+    };
+    stallMail();
+    let member: Awaited<ReturnType<typeof ask>>;
+    let stranger: Awaited<ReturnType<typeof ask>>;
+    try {
+      member = await ask(team.scout.email);
+      stranger = await ask(uniqueEmail('nobody'));
+    } finally {
+      resumeMail();
+    }
+    // The same answer for both, so it says nothing of who has an account; bounded by the probe's deadline.
+    expect(member).toMatchObject({ error: 'EmailSignin' });
+    expect(stranger).toMatchObject({ error: 'EmailSignin', path: member.path });
+    expect(member.ms).toBeLessThan(6_000);
+    expect(stranger.ms).toBeLessThan(6_000);
+    // With the mail server answering again, a link goes out as before.
+    expect((await ask(team.scout.email)).error).toBeNull();
+    const links = await until(
+      'the sign-in link',
+      async () => (await mailsTo(team.scout.email)).filter((m) => m.subject === 'Your Vineward sign-in link'),
+      (m) => m.length > 0,
+      20_000,
+    );
+    expect(links).toHaveLength(1);
+  }, 60_000);
 });

@@ -9,11 +9,13 @@ import { dummyHash, verifyPassword } from '@/lib/server/auth/passwords';
 import { accountKey, clearFailedSignIns, recordFailedSignIn, requestAddress, signInLocked } from '@/lib/server/auth/rate-limit';
 import { sameOriginPath } from '@/lib/safe-redirect';
 import { db } from '@/lib/server/db';
-import { linkMail, sendMail } from '@/lib/server/mail';
+import { linkMail, mailReachable, sendMail } from '@/lib/server/mail';
 import { getUserByEmail } from '@/lib/server/queries/users';
 import { signInSchema } from '@/lib/validation/auth';
 
 export const SIGN_IN_LINK_MINUTES = 30;
+/** How long the mail server may take to greet us before a link request is refused. */
+const LINK_PROBE_MS = 3_000;
 
 export function authOptions(): NextAuthOptions {
   const env = getEnv();
@@ -51,6 +53,10 @@ export function authOptions(): NextAuthOptions {
         maxAge: SIGN_IN_LINK_MINUTES * 60,
         normalizeIdentifier: normalizeLinkAddress,
         async sendVerificationRequest({ identifier, url }) {
+          // A mail server that does not greet us gets a refusal now (next-auth's EmailSignin), not a
+          // "check your e-mail" for a mail that never comes. Asked before the address is looked up,
+          // so the answer is the same for everyone.
+          if (!(await mailReachable(LINK_PROBE_MS))) throw new Error('The mail server is not answering');
           // Links go only to people who already belong to Vineward. Every address gets the same
           // answer, and the mail goes out after it, so neither the answer nor its timing tells.
           if (!(await getUserByEmail(db(), identifier))) return;
