@@ -174,6 +174,13 @@ export function createSyncEngine(parts: SyncParts) {
       await outbox.patchObservations(ids, { state: 'queued' });
       throw err;
     }
+    if (answer.status === 413 && batch.length > 1) {
+      // Too large together is not too large apart: halves, down to the one record that is.
+      await outbox.patchObservations(ids, { state: 'queued' });
+      const half = Math.ceil(batch.length / 2);
+      await sendBatch(collection, batch.slice(0, half));
+      return sendBatch(collection, batch.slice(half));
+    }
     if (answer.status !== 200) {
       const message = answer.json.error?.message ?? `The server refused the batch (${answer.status}).`;
       // A "no" to the whole request (too large, too many, not allowed) does not change on a resend:

@@ -164,7 +164,7 @@ describe('records: each state of the outbox', () => {
 describe('a batch the server refuses as a whole', () => {
   it.each([
     [422, 'At most 500 records per request'],
-    [413, 'The request is larger than 2000000 bytes.'],
+    [400, 'The request body is not valid JSON.'],
   ])("a %i marks each record of the batch rejected with the server's message, and does not resend it", async (code, message) => {
     const s = setup({ batchSize: 2 });
     for (let n = 1; n <= 3; n++) await s.outbox.enqueueObservation('scout-a', record(n));
@@ -180,6 +180,20 @@ describe('a batch the server refuses as a whole', () => {
     expect(s.engine.getStatus().rejected).toHaveLength(2);
     await s.time.advance(10 * 60_000);
     expect(s.server.sent(SYNC)).toHaveLength(2);
+  });
+
+  it('a 413 splits the batch in halves until each part fits; only a record too large on its own is rejected', async () => {
+    const s = setup({ batchSize: 4 });
+    for (let n = 1; n <= 4; n++) await s.outbox.enqueueObservation('scout-a', record(n));
+    const message = 'The request is larger than 2000000 bytes.';
+    const tooLarge = { status: 413, json: { error: { code: 'too-large', message } } };
+    // All four together, then the first half [1, 2], then record 1 alone are too large.
+    s.server.next(SYNC, tooLarge, tooLarge, tooLarge);
+    await s.engine.start('scout-a');
+    const batches = s.server.sent(SYNC).map((r) => (r.body as { observations: { position: number }[] }).observations.map((o) => o.position));
+    expect(batches).toEqual([[1, 2, 3, 4], [1, 2], [1], [2], [3, 4]]);
+    expect([uuid(2), uuid(3), uuid(4)].every((id) => s.server.records.has(id))).toBe(true);
+    expect((await s.outbox.listObservations()).map((e) => [e.id, e.state, e.errors])).toEqual([[uuid(1), 'rejected', [{ field: 'batch', message }]]]);
   });
 
   it('without a message the rejection still says what happened', async () => {
