@@ -94,6 +94,23 @@ export default tseslint.config(
     },
   },
   {
+    // A route handler parses, makes one service call and responds: reads and writes go through lib/server/services.
+    files: ['app/api/**'],
+    rules: {
+      'no-restricted-imports': [
+        'error',
+        {
+          patterns: [
+            {
+              group: ['knex', 'pg', '@/lib/server/db', '@/lib/server/queries/*'],
+              message: 'A route handler calls a service (lib/server/services); queries live behind it.',
+            },
+          ],
+        },
+      ],
+    },
+  },
+  {
     // Client code: components and lib/ outside lib/server. Type-only imports count too: the shared types live in lib/contracts.
     files: ['components/**', 'lib/**'],
     ignores: ['lib/server/**'],

@@ -4,17 +4,11 @@ import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
 import { Button, ButtonLink } from '@/components/ui/button';
 import { Notice } from '@/components/ui/field';
-import type { BlockView } from '@/lib/contracts/blocks';
+import type { BlockDetailView, BlockOne } from '@/lib/contracts/blocks';
 import { formatAreaM2, formatCount, formatLengthM, formatVinesPerArea, type UnitSystem } from '@/lib/units';
-import type { SlotStatus } from '@/lib/validation/block';
 import { apiGet, apiSend } from '@/lib/api-client';
 import { RowSlots } from './row-slots';
 import { StatusCounts as Counts } from './status';
-
-export interface BlockDetailData {
-  block: BlockView;
-  rows: { row: number; vineCount: number; counts: Record<SlotStatus, number> }[];
-}
 
 const TRAINING = { cane: 'Cane-pruned', spur: 'Spur-pruned', other: 'Other training' } as const;
 
@@ -31,9 +25,9 @@ function Fact({ label, children }: { label: string; children: React.ReactNode })
 export function BlockDetail({ blockId, units, canManage }: { blockId: string; units: UnitSystem; canManage: boolean }) {
   const queryClient = useQueryClient();
   const [openRow, setOpenRow] = useState<number | null>(null);
-  const detail = useQuery({ queryKey: ['block', blockId], queryFn: () => apiGet<BlockDetailData>(`/api/blocks/${blockId}`) });
+  const detail = useQuery({ queryKey: ['block', blockId], queryFn: () => apiGet<BlockDetailView>(`/api/blocks/${blockId}`) });
   const archive = useMutation({
-    mutationFn: (archived: boolean) => apiSend<{ block: BlockView }>('POST', `/api/blocks/${blockId}/${archived ? 'archive' : 'restore'}`),
+    mutationFn: (archived: boolean) => apiSend<BlockOne>('POST', `/api/blocks/${blockId}/${archived ? 'archive' : 'restore'}`),
     onSuccess: async () => {
       await queryClient.invalidateQueries({ queryKey: ['block', blockId] });
       await queryClient.invalidateQueries({ queryKey: ['blocks'] });

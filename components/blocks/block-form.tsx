@@ -8,7 +8,7 @@ import { Controller, useForm, type FieldPath } from 'react-hook-form';
 import { Button, ButtonLink } from '@/components/ui/button';
 import { Field, Input, Notice, Select } from '@/components/ui/field';
 import { cn } from '@/lib/cn';
-import type { BlockView } from '@/lib/contracts/blocks';
+import type { BlockOne, BlockView } from '@/lib/contracts/blocks';
 import { formatAreaM2, formatCount, formatVinesPerArea, type UnitSystem } from '@/lib/units';
 import { blockSchema, TRAINING_SYSTEMS, type BlockFormValues, type BlockInput } from '@/lib/validation/block';
 import { apiSend, ApiError } from '@/lib/api-client';
@@ -57,8 +57,7 @@ export function BlockForm({ units, block }: { units: UnitSystem; block?: BlockVi
   });
   const { errors } = form.formState;
   const save = useMutation({
-    mutationFn: (input: BlockInput) =>
-      block ? apiSend<{ block: BlockView }>('PATCH', `/api/blocks/${block.id}`, input) : apiSend<{ block: BlockView }>('POST', '/api/blocks', input),
+    mutationFn: (input: BlockInput) => (block ? apiSend<BlockOne>('PATCH', `/api/blocks/${block.id}`, input) : apiSend<BlockOne>('POST', '/api/blocks', input)),
     onSuccess: async ({ block: saved }) => {
       await queryClient.invalidateQueries({ queryKey: ['blocks'] });
       await queryClient.invalidateQueries({ queryKey: ['block', saved.id] });

@@ -16,7 +16,7 @@ import { useMemo, useState } from 'react';
 import { Field, FilterSelect, Input, Notice } from '@/components/ui/field';
 import { SortableHead } from '@/components/ui/sortable-head';
 import { cn } from '@/lib/cn';
-import type { BlockView } from '@/lib/contracts/blocks';
+import type { BlockList, BlockView } from '@/lib/contracts/blocks';
 import { formatAreaM2, formatCount, formatLengthM, type UnitSystem } from '@/lib/units';
 import { TRAINING_SYSTEMS } from '@/lib/validation/block';
 import { apiGet } from '@/lib/api-client';
@@ -74,7 +74,7 @@ export function BlocksTable({ units }: { units: UnitSystem }) {
   const [training, setTraining] = useState('');
   const list = useQuery({
     queryKey: ['blocks', { archived }],
-    queryFn: () => apiGet<{ blocks: BlockView[] }>(`/api/blocks${archived ? '?archived=1' : ''}`),
+    queryFn: () => apiGet<BlockList>(`/api/blocks${archived ? '?archived=1' : ''}`),
   });
   const columns = useMemo(() => columnsFor(units), [units]);
   const columnFilters = useMemo(() => (training ? [{ id: 'trainingSystem', value: training }] : []), [training]);

@@ -6,22 +6,10 @@ import { Button } from '@/components/ui/button';
 import { Field, Input, Notice } from '@/components/ui/field';
 import { formatAddress } from '@/lib/address';
 import { cn } from '@/lib/cn';
-import type { BlockView } from '@/lib/contracts/blocks';
+import type { BlockView, SlotDetail, SlotList, SlotView } from '@/lib/contracts/blocks';
 import { LETTER_OF, SLOT_STATUSES, type SlotStatus } from '@/lib/validation/block';
 import { apiGet, apiSend } from '@/lib/api-client';
 import { STATUS_STYLE } from './status';
-
-interface Slot {
-  row: number;
-  position: number;
-  status: SlotStatus;
-  replantYear: number | null;
-}
-
-interface SlotDetail {
-  slot: Slot;
-  vines: { plantingYear: number | null; clone: string | null; rootstock: string | null; removedYear: number | null; removalReason: string | null }[];
-}
 
 const ACTION_LABEL: Record<SlotStatus, string> = { planted: 'Planted', missing: 'Missing', dead: 'Dead', replant: 'Replant' };
 
@@ -42,11 +30,11 @@ export function RowSlots({
   const [selected, setSelected] = useState<number | null>(null);
   const slots = useQuery({
     queryKey: ['block', block.id, 'row', row],
-    queryFn: () => apiGet<{ positions: Slot[] }>(`/api/blocks/${block.id}/positions?row=${row}`),
+    queryFn: () => apiGet<SlotList>(`/api/blocks/${block.id}/positions?row=${row}`),
   });
   const panel = block.vinesPerPanel ?? 10;
   const positions = slots.data?.positions ?? [];
-  const panels: Slot[][] = [];
+  const panels: SlotView[][] = [];
   for (let i = 0; i < positions.length; i += panel) panels.push(positions.slice(i, i + panel));
 
   return (

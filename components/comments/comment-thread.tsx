@@ -7,14 +7,8 @@ import { memberLabel, useCrew } from '@/components/tasks/use-crew';
 import { Button } from '@/components/ui/button';
 import { Notice, Select } from '@/components/ui/field';
 import { apiGet, apiSend, ApiError } from '@/lib/api-client';
+import type { CommentThread as Thread } from '@/lib/contracts/comments';
 import { COMMENT_MAX_LENGTH, type CommentSubject } from '@/lib/validation/comment';
-
-interface Comment {
-  id: string;
-  body: string;
-  authorName: string | null;
-  createdAt: string;
-}
 
 const when = (iso: string) =>
   new Date(iso).toLocaleString('en-GB', { day: 'numeric', month: 'short', year: 'numeric', hour: '2-digit', minute: '2-digit', timeZone: 'UTC' }) + ' UTC';
@@ -30,7 +24,7 @@ export function CommentThread({ subject, subjectId, label = 'Comments' }: { subj
   const key = ['comments', subject, subjectId];
   const thread = useQuery({
     queryKey: key,
-    queryFn: ({ signal }) => apiGet<{ comments: Comment[] }>(`/api/comments?subject=${subject}&id=${subjectId}`, { signal }),
+    queryFn: ({ signal }) => apiGet<Thread>(`/api/comments?subject=${subject}&id=${subjectId}`, { signal }),
   });
   const crew = useCrew();
   const [body, setBody] = useState('');

@@ -4,21 +4,16 @@ import { useQuery } from '@tanstack/react-query';
 import { useTranslations } from 'next-intl';
 import { Notice } from '@/components/ui/field';
 import { apiGet } from '@/lib/api-client';
+import type { BlockList, BlockSummary } from '@/lib/contracts/blocks';
 
-export interface BlockSummary {
-  id: string;
-  name: string;
-  variety: string;
-  rowCount: number;
-  vineCount: number;
-}
+export type { BlockSummary };
 
 /** `initial` is the page's own render of the list, so the blocks show in the first paint. */
 export function FieldBlockList({ initial }: { initial?: BlockSummary[] }) {
   const t = useTranslations('field');
   const { data, isPending, isError } = useQuery({
     queryKey: ['blocks'],
-    queryFn: async () => (await apiGet<{ blocks: BlockSummary[] }>('/api/blocks')).blocks,
+    queryFn: async () => (await apiGet<BlockList>('/api/blocks')).blocks,
     networkMode: 'always',
     initialData: initial,
   });

@@ -8,6 +8,7 @@ import { FORM_BAR, useFormFit } from '@/components/field/use-form-fit';
 import { Button } from '@/components/ui/button';
 import { Field } from '@/components/ui/field';
 import { downscalePhoto } from '@/lib/offline/resize';
+import { LOCAL } from '@/lib/device-keys';
 import { formToRecord, recordToForm, type FormValues } from '@/lib/units/observation';
 import { observationDataSchemas } from '@/lib/validation/observation';
 import type { ObservationKind } from '@/lib/viticulture';
@@ -23,8 +24,6 @@ export interface SavedObservation {
   note: string;
   photos: PhotoDraft[];
 }
-
-const lastKey = (kind: string) => `vineward-last-${kind}`;
 
 export function ObservationForm({
   kind,
@@ -58,7 +57,7 @@ export function ObservationForm({
   const Fields = KIND_FIELDS[kind];
 
   useEffect(() => {
-    const stored = localStorage.getItem(lastKey(kind));
+    const stored = localStorage.getItem(LOCAL.lastValues(kind));
     if (stored) setLast(JSON.parse(stored) as FormValues);
   }, [kind]);
   useEffect(() => () => photos.forEach((p) => URL.revokeObjectURL(p.url)), [photos]);
@@ -74,7 +73,7 @@ export function ObservationForm({
       setErrors({});
       setSaving(true);
       try {
-        localStorage.setItem(lastKey(kind), JSON.stringify(raw));
+        localStorage.setItem(LOCAL.lastValues(kind), JSON.stringify(raw));
         await onSave({ data: parsed.data as Record<string, unknown>, note: note.trim(), photos }, next);
       } finally {
         setSaving(false);

@@ -16,10 +16,11 @@ import { enqueueObservation, enqueuePhoto, listObservations, onOutboxChange } fr
 import { useDoneRows } from '@/lib/offline/row-work';
 import { requestBackgroundSync, syncNow } from '@/lib/offline/sync';
 import { STATUS_BY_LETTER, useFieldLayout, type FieldLayout } from '@/lib/offline/use-field-layout';
-import { can, type Role } from '@/lib/roles';
+import { can } from '@/lib/roles';
 import { OBSERVATION_KINDS, type ObservationKind } from '@/lib/viticulture';
 import { ROW_WORK_PASSES } from '@/lib/work/passes';
 import { apiGet } from '@/lib/api-client';
+import type { Me } from '@/lib/contracts/people';
 import type { FieldVineHistory } from '@/lib/contracts/field';
 
 // The forms (and the validation and calculation code they carry) load when a kind is tapped; the
@@ -114,7 +115,7 @@ export function VineStepper({
     queryKey: ['me'],
     networkMode: 'always',
     staleTime: 5 * 60_000,
-    queryFn: async () => (await apiGet<{ role: Role }>('/api/me')).role,
+    queryFn: async () => (await apiGet<Me>('/api/me')).role,
   });
 
   const rowOf = useCallback((row: number) => layout?.rows.find((r) => r.row === row), [layout]);

@@ -4,16 +4,9 @@ import { useMutation } from '@tanstack/react-query';
 import { useRouter } from 'next/navigation';
 import { Button } from '@/components/ui/button';
 import { apiSend } from '@/lib/api-client';
+import type { UndeliveredMail } from '@/lib/contracts/notifications';
 
-export interface UndeliveredMailItem {
-  id: string;
-  toEmail: string;
-  subject: string;
-  status: 'failed' | 'uncertain';
-  attempts: number;
-  lastError: string | null;
-  createdAt: string;
-}
+type UndeliveredMailItem = UndeliveredMail;
 
 const WHY: Record<UndeliveredMailItem['status'], string> = {
   failed: 'The mail server refused it after every attempt.',

@@ -8,6 +8,7 @@ import { Button } from '@/components/ui/button';
 import { Field, Input, Notice, Select } from '@/components/ui/field';
 import { detectionSampleSize, sampleSizeForMean, sampleSizeForProportion } from '@/lib/viticulture';
 import { apiSend, ApiError } from '@/lib/api-client';
+import type { SamplingPlanCreated } from '@/lib/contracts/plans';
 
 interface BlockOption {
   id: string;
@@ -38,7 +39,7 @@ export function PlanForm({ blocks }: { blocks: BlockOption[] }) {
   const save = useMutation({
     mutationFn: async (values: Values) => {
       try {
-        const body = await apiSend<{ plan: { id: string; count: number } }>(
+        const body = await apiSend<SamplingPlanCreated>(
           'POST',
           '/api/sampling-plans',
           { ...values, count: Number(values.count), avoidRowEnds: Number(values.avoidRowEnds) },

@@ -5,6 +5,7 @@ import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useRef, useState } from 'react';
 import { useForm, type FieldPath, type Resolver } from 'react-hook-form';
 import { apiGet, apiSend, ApiError } from '@/lib/api-client';
+import type { MeasurementList, MeasurementOne } from '@/lib/contracts/reports';
 import { Button } from '@/components/ui/button';
 import { Field, Input, Notice } from '@/components/ui/field';
 import { cn } from '@/lib/cn';
@@ -12,7 +13,7 @@ import { vineAddress } from '@/lib/grid/labels';
 import { formatWeightKg } from '@/lib/reports/format';
 import { seasonOf, type SeasonBounds } from '@/lib/reports/season';
 import type { UnitSystem } from '@/lib/units';
-import { MEASUREMENT_LABELS, measurementSchema, type MeasurementFormValues, type MeasurementInput, type MeasurementView } from '@/lib/validation/measurement';
+import { MEASUREMENT_LABELS, measurementSchema, type MeasurementFormValues, type MeasurementInput } from '@/lib/validation/measurement';
 
 interface MeasurementsProps {
   block: { id: string; name: string; vinesPerPanel: number | null };
@@ -40,7 +41,7 @@ export function Measurements({ block, season, period, units, canRecord, canRemov
   const key = ['measurements', block.id, season];
   const list = useQuery({
     queryKey: key,
-    queryFn: () => apiGet<{ measurements: MeasurementView[] }>(`/api/measurements?blockId=${block.id}&season=${season}`),
+    queryFn: () => apiGet<MeasurementList>(`/api/measurements?blockId=${block.id}&season=${season}`),
   });
   const remove = useMutation({
     mutationFn: (id: string) => apiSend('DELETE', `/api/measurements/${id}`, undefined, { fallback: 'Could not remove it; try again.' }),
@@ -161,7 +162,7 @@ function MeasurementForm({
   const { errors } = form.formState;
   const kind = form.watch('kind');
   const save = useMutation({
-    mutationFn: (input: MeasurementInput) => apiSend<{ measurement: MeasurementView }>('POST', '/api/measurements', input),
+    mutationFn: (input: MeasurementInput) => apiSend<MeasurementOne>('POST', '/api/measurements', input),
     onSuccess: ({ measurement }) => {
       const day = measurement.measuredOn.slice(0, 10);
       const inSeason = day >= period.from.slice(0, 10) && day < period.to.slice(0, 10);

@@ -9,17 +9,15 @@ import { memberLabel, useCrew } from '@/components/tasks/use-crew';
 import { Button } from '@/components/ui/button';
 import { Field, Input, Notice, Select } from '@/components/ui/field';
 import { cn } from '@/lib/cn';
-import type { TaskDetail } from '@/lib/contracts/tasks';
+import type { TaskDetail as TaskDetailView } from '@/lib/contracts/tasks';
 import { formatDay, vineAddress } from '@/lib/grid/labels';
 import { REASON_LABELS, type FlagReason } from '@/lib/validation/flag';
 import { TASK_PRIORITIES, type TaskPriority, type UpdateTaskInput } from '@/lib/validation/task';
 
-export type TaskDetailData = TaskDetail;
-
 /** One task: its vines and why each is in it, who did what, the thread, and the manager's controls. */
-export function TaskDetail({ initial, canManage }: { initial: TaskDetailData; canManage: boolean }) {
+export function TaskDetail({ initial, canManage }: { initial: TaskDetailView; canManage: boolean }) {
   const id = initial.task.id;
-  const detail = useQuery({ queryKey: ['task', id], queryFn: () => apiGet<TaskDetailData>(`/api/tasks/${id}`), initialData: initial });
+  const detail = useQuery({ queryKey: ['task', id], queryFn: () => apiGet<TaskDetailView>(`/api/tasks/${id}`), initialData: initial });
   const { task, items } = detail.data;
   const day = (iso: string) => formatDay(iso.length === 10 ? `${iso}T12:00:00Z` : iso);
 
@@ -95,14 +93,14 @@ export function TaskDetail({ initial, canManage }: { initial: TaskDetailData; ca
   );
 }
 
-function TaskControls({ id, task }: { id: string; task: TaskDetailData['task'] }) {
+function TaskControls({ id, task }: { id: string; task: TaskDetailView['task'] }) {
   const queryClient = useQueryClient();
   const crew = useCrew();
   const [assigneeId, setAssigneeId] = useState(task.assigneeId ?? '');
   const [dueOn, setDueOn] = useState(task.dueOn ?? '');
   const [priority, setPriority] = useState<TaskPriority>(task.priority);
   const change = useMutation({
-    mutationFn: (body: UpdateTaskInput) => apiSend<TaskDetailData>('PATCH', `/api/tasks/${id}`, body),
+    mutationFn: (body: UpdateTaskInput) => apiSend<TaskDetailView>('PATCH', `/api/tasks/${id}`, body),
     onSuccess: (data) => {
       queryClient.setQueryData(['task', id], data);
       void queryClient.invalidateQueries({ queryKey: ['tasks'] });

@@ -2,15 +2,12 @@
 
 import { useQuery } from '@tanstack/react-query';
 import { apiGet } from '@/lib/api-client';
+import { LOCAL } from '@/lib/device-keys';
+import type { MemberList, MemberView } from '@/lib/contracts/people';
 
-export interface CrewMember {
-  userId: string;
-  name: string | null;
-  email: string;
-  role: 'manager' | 'scout' | 'pruner' | 'advisor';
-}
+export type CrewMember = Pick<MemberView, 'userId' | 'name' | 'email' | 'role'>;
 
-const KEY = 'vineward-crew';
+const KEY = LOCAL.crew;
 
 /**
  * The organisation's members, for choosing a pruner or mentioning someone. The last list fetched is
@@ -23,7 +20,7 @@ export function useCrew() {
     staleTime: 5 * 60_000,
     queryFn: async (): Promise<CrewMember[]> => {
       try {
-        const { members } = await apiGet<{ members: CrewMember[] }>('/api/members');
+        const { members } = await apiGet<MemberList>('/api/members');
         localStorage.setItem(KEY, JSON.stringify(members));
         return members;
       } catch (err) {

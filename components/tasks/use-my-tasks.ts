@@ -6,6 +6,7 @@ import { useEffect, useState } from 'react';
 import { collectionOf, listObservations, onOutboxChange } from '@/lib/offline/outbox';
 import type { PhoneTaskList, TaskWithItems } from '@/lib/contracts/tasks';
 import { apiGet } from '@/lib/api-client';
+import { IDB } from '@/lib/device-keys';
 
 /** The phone's copy of one task: the task view with its vines. */
 export type PhoneTask = TaskWithItems;
@@ -13,7 +14,7 @@ export type PhoneTask = TaskWithItems;
 type Kept = PhoneTaskList;
 
 // The phone's copy of "my tasks", per person, so the list and the task walk open with no signal.
-const tasksStore = () => createStore('vineward-tasks', 'tasks');
+const tasksStore = () => createStore(...IDB.tasks);
 
 /** Open tasks assigned to the signed-in person: from the server when it answers, else this phone's last copy. */
 export function useMyTasks(owner: string, enabled = true) {

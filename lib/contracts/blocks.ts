@@ -34,6 +34,9 @@ export interface BlockView {
   vinesPerAcre: number;
 }
 
+/** What the phone's block list shows of each block. */
+export type BlockSummary = Pick<BlockView, 'id' | 'name' | 'variety' | 'rowCount' | 'vineCount'>;
+
 export interface BlockList {
   blocks: BlockView[];
 }
@@ -53,4 +56,39 @@ export interface LayoutSummary {
 
 export interface LayoutImportAnswer {
   summary: LayoutSummary;
+}
+
+export interface BlockRowView {
+  row: number;
+  vineCount: number;
+  counts: StatusCounts;
+}
+
+export interface BlockDetailView {
+  block: BlockView;
+  rows: BlockRowView[];
+}
+
+export interface RowVineCount {
+  row: number;
+  vineCount: number;
+}
+
+export interface SlotView {
+  row: number;
+  position: number;
+  status: SlotStatus;
+  replantYear: number | null;
+}
+
+export interface SlotList {
+  blockId: string;
+  vinesPerPanel: number | null;
+  positions: SlotView[];
+}
+
+/** One planting slot with every vine that has stood in it, the current one last. */
+export interface SlotDetail {
+  slot: SlotView;
+  vines: { plantingYear: number | null; clone: string | null; rootstock: string | null; removedYear: number | null; removalReason: string | null }[];
 }

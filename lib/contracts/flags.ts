@@ -25,3 +25,7 @@ export interface FlagView<T = string> {
 export interface FlagList {
   flags: FlagView[];
 }
+
+export interface FlagOne {
+  flag: FlagView;
+}

@@ -5,6 +5,7 @@
  * pass fakes. Runs on start, on reconnect, on a timer with exponential back-off while anything
  * waits, and on demand; the status for the status bar is kept here.
  */
+import type { SyncResult } from '@/lib/contracts/sync';
 import type { Outbox } from '@/lib/offline/queue';
 import type { ObservationEntry, PhotoEntry } from '@/lib/offline/store';
 import { collectionOf } from '@/lib/offline/queue';
@@ -22,11 +23,8 @@ export interface AnswerBody {
   uploadUrl?: string;
 }
 
-export interface RecordResult {
-  id: string;
-  status: string;
-  errors?: { field: string; message: string }[];
-}
+/** The server's answer for one record (lib/contracts/sync.ts). */
+export type RecordResult = SyncResult;
 
 export interface Transport {
   /** POSTs JSON to the app's API; throws when no answer came (no network, timeout, connection lost). */

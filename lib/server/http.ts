@@ -1,7 +1,7 @@
 import 'server-only';
 import { NextResponse, type NextRequest } from 'next/server';
 import { z, type ZodType } from 'zod';
-import type { ActionState, Contract, Sendable } from '@/lib/contracts/http';
+import type { ActionState, Contract, RawAnswer, Sendable } from '@/lib/contracts/http';
 import type { Permission } from '@/lib/roles';
 import { requireMember, type Member } from '@/lib/server/auth/guard';
 import { assertContentType, assertSameOrigin, isMutation, JSON_TYPE, readLimited, readLimitedText } from '@/lib/server/boundary';
@@ -30,11 +30,10 @@ interface RouteOptions<B, P, Q> {
 }
 
 /**
- * What a handler may return for a route whose options name `response: responds<R>()`: R itself
- * (Dates where R has ISO text), or NextResponse.json of it. A route that names none may answer
- * anything, CSV and redirects included.
+ * What a handler may return for the contract its options name: for `responds<R>()`, R itself (Dates
+ * where R has ISO text) or NextResponse.json of it; for `answersRaw`, any Response it builds.
  */
-type Answer<R> = unknown extends R ? unknown : Sendable<R> | NextResponse<Sendable<R>>;
+type Answer<R> = [R] extends [RawAnswer] ? Response : Sendable<R> | NextResponse<Sendable<R>>;
 
 const MAX_JSON_BYTES = 1_000_000;
 
@@ -105,8 +104,8 @@ async function prepare<B, P, Q>(
  * the session, organisation and role, parses path parameters, query and JSON body with zod (the body
  * read with a byte limit), and turns every error into `{ error: { code, message, fields? } }`.
  */
-export function memberRoute<B = undefined, P = Params, Q = undefined, R = unknown>(
-  options: RouteOptions<B, P, Q> & { permission?: Permission; response?: Contract<R> },
+export function memberRoute<B = undefined, P = Params, Q = undefined, R = never>(
+  options: RouteOptions<B, P, Q> & { permission?: Permission; response: Contract<R> },
   fn: (member: Member, ctx: Context<B, P, Q>) => Promise<Answer<NoInfer<R>>>,
 ) {
   return async (req: NextRequest, segment: { params: Promise<Params> }) => {
@@ -125,8 +124,8 @@ export function memberRoute<B = undefined, P = Params, Q = undefined, R = unknow
  * For the few routes that anyone may call (health, invitation acceptance, unsubscribe). They carry
  * no session, so a foreign page gains nothing by sending them; bodies are bounded all the same.
  */
-export function publicRoute<B = undefined, P = Params, Q = undefined, R = unknown>(
-  options: RouteOptions<B, P, Q> & { response?: Contract<R> },
+export function publicRoute<B = undefined, P = Params, Q = undefined, R = never>(
+  options: RouteOptions<B, P, Q> & { response: Contract<R> },
   fn: (ctx: Context<B, P, Q>) => Promise<Answer<NoInfer<R>>>,
 ) {
   return async (req: NextRequest, segment: { params: Promise<Params> }) => {

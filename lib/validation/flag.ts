@@ -62,3 +62,5 @@ export const flagListQuerySchema = z.strictObject({
 export const flagUpdateSchema = z.strictObject({
   status: z.enum(['open', 'closed'], 'Must be open or closed'),
 });
+
+export type FlagListQuery = z.infer<typeof flagListQuerySchema>;

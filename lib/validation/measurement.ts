@@ -86,3 +86,9 @@ export interface MeasurementView {
   recordedByName: string | null;
   createdAt: string;
 }
+
+/** GET /api/measurements?blockId=&season= */
+export const measurementListQuerySchema = z.strictObject({
+  blockId: z.uuid('Must be the id of a block'),
+  season: z.coerce.number('Must be a year').int('Must be a year').min(1900).max(2200),
+});

@@ -46,6 +46,8 @@ export const taskListQuerySchema = z.strictObject({
     .transform((v) => v === '1'),
 });
 
+export type TaskListQuery = z.infer<typeof taskListQuerySchema>;
+
 export const taskUpdateRecordSchema = z
   .strictObject({
     id: z.uuid({ version: 'v4', message: 'Must be a UUID v4 made on the device' }),

@@ -1,3 +1,5 @@
+import { readdirSync, readFileSync } from 'node:fs';
+import path from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { CACHES, IDB, LOCAL, OUTBOX_CHANNEL, PERSONAL_LOCAL_KEY, SYNC_TAG } from '@/lib/device-keys';
 
@@ -21,5 +23,22 @@ describe('names kept on the phone', () => {
   it('forgets every personal localStorage key at sign-out and nothing of another site', () => {
     for (const key of [LOCAL.lastSynced, LOCAL.crew, LOCAL.lastValues('x'), LOCAL.rowWorkDefaults('y')]) expect(PERSONAL_LOCAL_KEY.test(key)).toBe(true);
     expect(PERSONAL_LOCAL_KEY.test('other-app-key')).toBe(false);
+  });
+
+  it('is the only client module that spells a name kept on the phone', () => {
+    const root = path.resolve(__dirname, '../..');
+    const spelled: string[] = [];
+    const walk = (dir: string): void => {
+      for (const entry of readdirSync(path.join(root, dir), { withFileTypes: true })) {
+        const rel = path.join(dir, entry.name);
+        if (rel === path.join('lib', 'server')) continue;
+        if (entry.isDirectory()) walk(rel);
+        else if (/\.tsx?$/.test(entry.name) && rel !== path.join('lib', 'device-keys.ts')) {
+          if (/['"`]vineward-/.test(readFileSync(path.join(root, rel), 'utf8'))) spelled.push(rel);
+        }
+      }
+    };
+    for (const dir of ['app', 'components', 'lib', 'service-worker']) walk(dir);
+    expect(spelled).toEqual([]);
   });
 });

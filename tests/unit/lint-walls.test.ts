@@ -45,6 +45,12 @@ const cases: [string, string, string, string][] = [
   ],
   ['lib/contracts calling fetch', 'lib/contracts/wall.ts', "export const a = () => fetch('/api/me');\n", 'no-restricted-globals'],
   [
+    'a route handler calling a query module instead of a service',
+    'app/api/wall/route.ts',
+    "import { listFlags } from '@/lib/server/queries/flags';\nexport const a = listFlags;\n",
+    'no-restricted-imports',
+  ],
+  [
     'a handler building a query',
     'app/api/wall/route.ts',
     "import { db } from '@/lib/server/db';\nexport const a = () => db()('users').first();\n",

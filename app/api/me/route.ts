@@ -1,8 +1,6 @@
+import { responds } from '@/lib/contracts/http';
+import type { Me } from '@/lib/contracts/people';
 import { memberRoute } from '@/lib/server/http';
+import { describeMe } from '@/lib/server/services/people';
 
-export const GET = memberRoute({}, async (member) => ({
-  user: { id: member.userId, email: member.email, name: member.name },
-  organisation: { id: member.organisationId, name: member.organisationName, unitSystem: member.unitSystem },
-  role: member.role,
-  memberships: member.memberships,
-}));
+export const GET = memberRoute({ response: responds<Me>() }, async (member) => describeMe(member));

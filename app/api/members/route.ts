@@ -1,5 +1,6 @@
-import { db } from '@/lib/server/db';
+import { responds } from '@/lib/contracts/http';
+import type { MemberList } from '@/lib/contracts/people';
 import { memberRoute } from '@/lib/server/http';
-import { listMembers } from '@/lib/server/queries/organisations';
+import { listCrew } from '@/lib/server/services/people';
 
-export const GET = memberRoute({}, async (member) => ({ members: await listMembers(db(), member.organisationId) }));
+export const GET = memberRoute({ response: responds<MemberList>() }, async (member) => ({ members: await listCrew(member) }));

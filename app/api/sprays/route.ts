@@ -1,19 +1,15 @@
 import { NextResponse } from 'next/server';
-import { db } from '@/lib/server/db';
-import { AppError } from '@/lib/server/errors';
+import { responds } from '@/lib/contracts/http';
+import type { SprayCreated, SprayList } from '@/lib/contracts/sprays';
 import { memberRoute } from '@/lib/server/http';
-import { getBlock } from '@/lib/server/queries/blocks';
-import { insertSpray, listSprays } from '@/lib/server/queries/sprays';
+import { listBlockSprays, recordSpray } from '@/lib/server/services/sprays';
 import { blockQuery } from '@/lib/validation/params';
 import { spraySchema } from '@/lib/validation/spray';
 
-export const GET = memberRoute({ query: blockQuery }, async (member, { query }) => ({
-  sprays: await listSprays(db(), member.organisationId, { blockId: query.blockId }),
+export const GET = memberRoute({ query: blockQuery, response: responds<SprayList>() }, async (member, { query }) => ({
+  sprays: await listBlockSprays(member, query.blockId),
 }));
 
-export const POST = memberRoute({ permission: 'manage-organisation', body: spraySchema }, async (member, { body }) => {
-  const block = await getBlock(db(), member.organisationId, body.blockId);
-  if (!block) throw new AppError('not-found', 'No such block in your organisation.', { blockId: ['No such block'] });
-  const id = await insertSpray(db(), { ...body, organisationId: member.organisationId, recordedBy: member.userId });
-  return NextResponse.json({ id }, { status: 201 });
-});
+export const POST = memberRoute({ permission: 'manage-organisation', body: spraySchema, response: responds<SprayCreated>() }, async (member, { body }) =>
+  NextResponse.json({ id: await recordSpray(member, body) }, { status: 201 }),
+);

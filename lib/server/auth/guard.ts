@@ -6,7 +6,8 @@ import { can, homeFor, type Permission, type Role } from '@/lib/roles';
 import { authOptions } from '@/lib/server/auth/options';
 import { db } from '@/lib/server/db';
 import { AppError } from '@/lib/server/errors';
-import { listMemberships, type MembershipView } from '@/lib/server/queries/organisations';
+import type { MembershipView } from '@/lib/contracts/people';
+import { listMemberships } from '@/lib/server/queries/organisations';
 
 export const ORG_COOKIE = 'vw-org';
 

@@ -1,17 +1,8 @@
 import 'server-only';
+import type { CommentView } from '@/lib/contracts/comments';
 import type { Knex } from 'knex';
 import type { Db } from '@/lib/server/db';
 import type { CommentSubject } from '@/lib/validation/comment';
-
-export interface CommentView {
-  id: string;
-  subject: CommentSubject;
-  subjectId: string;
-  body: string;
-  authorId: string | null;
-  authorName: string | null;
-  createdAt: Date;
-}
 
 export async function insertComment(
   trx: Db,
@@ -34,7 +25,7 @@ export async function insertMentions(trx: Db, commentId: string, userIds: string
   if (userIds.length) await trx('comment_mentions').insert(userIds.map((user_id) => ({ comment_id: commentId, user_id })));
 }
 
-function commentQuery(db: Db, organisationId: string): Knex.QueryBuilder<object, CommentView[]> {
+function commentQuery(db: Db, organisationId: string): Knex.QueryBuilder<object, CommentView<Date>[]> {
   return db('comments as c')
     .leftJoin('users as u', 'u.id', 'c.author_id')
     .where('c.organisation_id', organisationId)

@@ -1,4 +1,5 @@
 import 'server-only';
+import type { UndeliveredMail } from '@/lib/contracts/notifications';
 import type { Db } from '@/lib/server/db';
 import type { NotificationKind } from '@/lib/validation/notification';
 
@@ -79,19 +80,8 @@ export function markStaleSendingUncertain(db: Db, leaseMs: number) {
     .returning<{ id: string; to_email: string; subject: string }[]>(['id', 'to_email', 'subject']);
 }
 
-export interface UndeliveredMail {
-  id: string;
-  toEmail: string;
-  kind: NotificationKind;
-  subject: string;
-  status: 'failed' | 'uncertain';
-  attempts: number;
-  lastError: string | null;
-  createdAt: Date;
-}
-
 /** The organisation's mail that failed for good or may not have arrived, newest first. */
-export function listUndeliveredMail(db: Db, organisationId: string, limit = 100): Promise<UndeliveredMail[]> {
+export function listUndeliveredMail(db: Db, organisationId: string, limit = 100): Promise<UndeliveredMail<Date>[]> {
   return db('mail_outbox')
     .where({ organisation_id: organisationId })
     .whereIn('status', ['failed', 'uncertain'])

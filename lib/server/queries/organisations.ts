@@ -1,4 +1,5 @@
 import 'server-only';
+import type { MemberView, MembershipView } from '@/lib/contracts/people';
 import type { Role } from '@/lib/roles';
 import type { Db } from '@/lib/server/db';
 
@@ -9,15 +10,6 @@ export interface OrganisationRow {
   keep_photo_location: boolean;
   season_start_month: number;
   created_at: Date;
-}
-
-export interface MembershipView {
-  organisationId: string;
-  organisationName: string;
-  unitSystem: 'metric' | 'imperial';
-  /** 1–12: the month the organisation's seasons start in (lib/reports/season.ts). */
-  seasonStartMonth: number;
-  role: Role;
 }
 
 export async function insertOrganisation(db: Db, org: { name: string; unitSystem?: 'metric' | 'imperial' }) {
@@ -53,7 +45,7 @@ export function listMembers(db: Db, organisationId: string) {
     .join('users as u', 'u.id', 'm.user_id')
     .where('m.organisation_id', organisationId)
     .orderBy([{ column: 'm.role' }, { column: 'u.email' }])
-    .select<{ userId: string; email: string; name: string | null; role: Role; since: Date }[]>({
+    .select<MemberView<Date>[]>({
       userId: 'u.id',
       email: 'u.email',
       name: 'u.name',

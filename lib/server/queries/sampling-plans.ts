@@ -1,18 +1,9 @@
 import 'server-only';
+import type { SamplingPlanView } from '@/lib/contracts/plans';
 import type { Db } from '@/lib/server/db';
 
-export interface SamplingPlanView {
-  id: string;
-  blockId: string;
-  name: string;
-  seed: number;
-  options: Record<string, unknown>;
-  addresses: { row: number; position: number }[];
-  createdAt: Date;
-}
-
 export function listSamplingPlans(db: Db, organisationId: string, blockId?: string) {
-  const q = db('sampling_plans').where({ organisation_id: organisationId }).orderBy('created_at', 'desc').select<SamplingPlanView[]>({
+  const q = db('sampling_plans').where({ organisation_id: organisationId }).orderBy('created_at', 'desc').select<SamplingPlanView<Date>[]>({
     id: 'id',
     blockId: 'block_id',
     name: 'name',

@@ -1,21 +1,11 @@
 import 'server-only';
+import type { SprayView } from '@/lib/contracts/sprays';
 import type { Db } from '@/lib/server/db';
-
-export interface SprayView {
-  id: string;
-  blockId: string;
-  blockName: string;
-  product: string;
-  appliedAt: Date;
-  reiHours: number;
-  reentryAt: Date;
-  notes: string | null;
-}
 
 const select = (db: Db) =>
   db('sprays as s')
     .join('blocks as b', 'b.id', 's.block_id')
-    .select<SprayView[]>(
+    .select<SprayView<Date>[]>(
       { id: 's.id', blockId: 's.block_id', blockName: 'b.name', product: 's.product', appliedAt: 's.applied_at', notes: 's.notes' },
       db.raw('s.rei_hours::float as "reiHours"'),
       db.raw(`s.applied_at + s.rei_hours * interval '1 hour' as "reentryAt"`),

@@ -2,9 +2,9 @@ import 'server-only';
 import type { Member } from '@/lib/server/auth/guard';
 import { db } from '@/lib/server/db';
 import { AppError } from '@/lib/server/errors';
-import { getFlag, getStoredFlagHashes, ingestFlags, setFlagStatus } from '@/lib/server/queries/flags';
+import { getFlag, getStoredFlagHashes, ingestFlags, listFlags, setFlagStatus } from '@/lib/server/queries/flags';
 import { hashPayload, racedIds, rejected, settleOnce, validateRecords, type StoredHash, type SyncResult, type ValidRecord } from '@/lib/server/services/sync';
-import { flagRecordSchema, type FlagRecord } from '@/lib/validation/flag';
+import { flagRecordSchema, type FlagListQuery, type FlagRecord } from '@/lib/validation/flag';
 
 const flagHash = (r: FlagRecord) =>
   hashPayload({
@@ -68,12 +68,21 @@ export async function syncFlags(member: Member, records: unknown[]): Promise<Syn
   return results;
 }
 
-export async function closeOrReopenFlag(member: Member, id: string, status: 'open' | 'closed') {
+const noSuchFlag = () => new AppError('not-found', 'No such flag in your organisation.');
+
+export const listFlagViews = (member: Member, query: FlagListQuery) => listFlags(db(), member.organisationId, query);
+
+export async function getFlagView(member: Member, id: string) {
   const flag = await getFlag(db(), member.organisationId, id);
-  if (!flag) throw new AppError('not-found', 'No such flag in your organisation.');
+  if (!flag) throw noSuchFlag();
+  return flag;
+}
+
+export async function closeOrReopenFlag(member: Member, id: string, status: 'open' | 'closed') {
+  const flag = await getFlagView(member, id);
   if (flag.taskId && flag.taskStatus === 'open') {
     throw new AppError('conflict', `This flag is being worked in the task “${flag.taskTitle}”; it closes with that task.`);
   }
   await setFlagStatus(db(), member.organisationId, id, status, member.userId);
-  return getFlag(db(), member.organisationId, id);
+  return getFlagView(member, id);
 }

@@ -20,7 +20,8 @@ import {
   listVineObservations,
   loadGrid,
 } from '@/lib/server/queries/grid';
-import { listPhotoLog } from '@/lib/server/queries/photo-log';
+import { getStoredPhoto, listPhotoLog } from '@/lib/server/queries/photo-log';
+import { presignGet } from '@/lib/server/storage';
 import { settingsForBlock } from '@/lib/server/services/settings';
 
 /** The block's row grid and its summary, with the time its SQL took (for Server-Timing). */
@@ -131,4 +132,14 @@ export async function photoLog(member: Member, filters: PhotoFilters, cursor: Ph
     })),
     nextCursor: rows.length > limit && last ? encodeCursor({ at: last.takenAt, id: last.id }) : null,
   };
+}
+
+// Long enough for a slow phone to start the download, short enough that a leaked link soon dies.
+const LINK_SECONDS = 120;
+
+/** A short-lived link to a stored photo (its thumbnail when asked for and made) for a member of its organisation. */
+export async function photoLink(member: Member, photoId: string, size: 'thumb' | 'full') {
+  const photo = await getStoredPhoto(db(), member.organisationId, photoId);
+  if (!photo) throw new AppError('not-found', 'There is no such photo in your organisation.');
+  return presignGet(size === 'thumb' && photo.thumbKey ? photo.thumbKey : photo.objectKey, LINK_SECONDS);
 }

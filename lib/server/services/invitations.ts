@@ -13,6 +13,7 @@ import {
   getInvitationByTokenHashForUpdate,
   getInvitationForUpdate,
   insertInvitation,
+  listOpenInvitations,
   lockInviter,
   markInvitationAccepted,
   markInvitationRevoked,
@@ -24,6 +25,8 @@ export const INVITATION_DAYS = 7;
 const DAY_MS = 24 * 3600 * 1000;
 
 const hashToken = (token: string) => createHash('sha256').update(token).digest('hex');
+
+export const listInvitations = (member: Member) => listOpenInvitations(db(), member.organisationId);
 
 export async function createInvitation(member: Member, input: { email: string; role: Role }) {
   const existing = await findMemberRoleByEmail(db(), member.organisationId, input.email);

@@ -11,7 +11,7 @@ import { db, type Db } from '@/lib/server/db';
 import { AppError } from '@/lib/server/errors';
 import { findVineByAddress } from '@/lib/server/queries/grid';
 import { getBlock, listBlocks, type BlockRow } from '@/lib/server/queries/blocks';
-import { deleteMeasurement, getMeasurement, insertMeasurement } from '@/lib/server/queries/measurements';
+import { deleteMeasurement, getMeasurement, insertMeasurement, listMeasurements } from '@/lib/server/queries/measurements';
 import {
   countByRowAndKind,
   countSlots,
@@ -177,6 +177,13 @@ export async function exportObservations(member: Member, season: number, blockId
         .replace(/^-|-$/g, '') || 'block'
     : 'all-blocks';
   return { filename: `vineward-observations-${name}-${season}.csv`, stream };
+}
+
+/** A block's yields and pruning weights of one season. */
+export async function listBlockMeasurements(member: Member, query: { blockId: string; season: number }): Promise<MeasurementView[]> {
+  const block = await getBlock(db(), member.organisationId, query.blockId);
+  if (!block) throw new AppError('not-found', 'There is no such block in your organisation.');
+  return listMeasurements(db(), member.organisationId, block.id, seasonBounds(query.season, member.seasonStartMonth));
 }
 
 /** Records a yield or pruning weight; a vine's entry must name one of the block's slots. */

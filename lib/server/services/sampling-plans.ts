@@ -5,11 +5,13 @@ import type { Member } from '@/lib/server/auth/guard';
 import { db } from '@/lib/server/db';
 import { AppError } from '@/lib/server/errors';
 import { getBlock, listPositions } from '@/lib/server/queries/blocks';
-import { insertSamplingPlan } from '@/lib/server/queries/sampling-plans';
+import { insertSamplingPlan, listSamplingPlans } from '@/lib/server/queries/sampling-plans';
 import type { samplingPlanSchema } from '@/lib/validation/sampling-plan';
 import { samplingPlan } from '@/lib/viticulture';
 
 /** Draws a reproducible list of vines (the seed is stored) over the planted slots of a block. */
+export const listPlans = (member: Member, blockId?: string) => listSamplingPlans(db(), member.organisationId, blockId);
+
 export async function createSamplingPlan(member: Member, input: z.infer<typeof samplingPlanSchema>) {
   const block = await getBlock(db(), member.organisationId, input.blockId);
   if (!block) throw new AppError('not-found', 'No such block in your organisation.', { blockId: ['No such block'] });

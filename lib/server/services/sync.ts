@@ -9,14 +9,9 @@ import { getStoredHashes, ingestObservations } from '@/lib/server/queries/observ
 import { observationRecordSchema, type ObservationRecord } from '@/lib/validation/observation';
 import { settingsForBlocks } from '@/lib/server/services/settings';
 import { observationSeverity, type ObservationKind } from '@/lib/viticulture';
+import type { SyncResult, SyncStatus } from '@/lib/contracts/sync';
 
-export type SyncStatus = 'created' | 'duplicate' | 'conflict' | 'rejected';
-
-export interface SyncResult {
-  id: string;
-  status: SyncStatus;
-  errors?: { field: string; message: string }[];
-}
+export type { SyncResult, SyncStatus };
 
 /** Key order and time format must not make a retry look like a different record. */
 function canonical(value: unknown): unknown {

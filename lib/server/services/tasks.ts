@@ -1,12 +1,14 @@
 import 'server-only';
 import { planFromObservations } from '@/lib/grid/vine-plan';
-import type { CheckedVine, PrunerDeviation, PruningCheckReport, TaskDetail, TaskView } from '@/lib/contracts/tasks';
+import type { CheckedVine, PrunerDeviation, PruningCheckReport, TaskDetail, TaskList, TaskView } from '@/lib/contracts/tasks';
+import type { Sendable } from '@/lib/contracts/http';
 import { can } from '@/lib/roles';
 import type { Member } from '@/lib/server/auth/guard';
 import { db, type Db } from '@/lib/server/db';
 import { AppError } from '@/lib/server/errors';
 import { attachFlagsToTask, closeTaskFlags, existingFlagIds, lockOpenFlags, releaseTaskFlags } from '@/lib/server/queries/flags';
 import {
+  blockProgress,
   completeFinishedTasks,
   getMembership,
   getStoredTaskUpdateHashes,
@@ -17,6 +19,7 @@ import {
   listPlanMeasurements,
   listPruningChecks,
   listTaskItems,
+  listTasks,
   lockTask,
   slotsInRuns,
   updateTaskRow,
@@ -25,7 +28,7 @@ import { wakeMailWorker } from '@/lib/server/services/mail-worker';
 import { queueAssignmentMail } from '@/lib/server/services/notifications';
 import { hashPayload, racedIds, rejected, settleOnce, validateRecords, type StoredHash, type SyncResult, type ValidRecord } from '@/lib/server/services/sync';
 import { REASON_LABELS, type FlagReason } from '@/lib/validation/flag';
-import { taskUpdateRecordSchema, type CreateTasksInput, type TaskUpdateRecord, type UpdateTaskInput } from '@/lib/validation/task';
+import { taskUpdateRecordSchema, type CreateTasksInput, type TaskListQuery, type TaskUpdateRecord, type UpdateTaskInput } from '@/lib/validation/task';
 import { settingsForBlocks } from '@/lib/server/services/settings';
 import { budDeviationPercent, pruningCheckBuds } from '@/lib/viticulture';
 
@@ -61,6 +64,30 @@ function titleFor(reasons: FlagReason[], rows: number[]) {
  * order. Flags already worked by an open task, closed flags and other organisations' ids are refused
  * as a whole, so nothing is half made.
  */
+/** Tasks with their progress, and progress per block; `assignee=me&items=1` is the phone's copy for working offline. */
+export async function listTaskViews(member: Member, q: TaskListQuery): Promise<Sendable<TaskList>> {
+  const tasks = await listTasks(db(), member.organisationId, {
+    status: q.status,
+    assigneeId: q.assignee === 'me' ? member.userId : q.assignee,
+    block: q.block,
+    priority: q.priority,
+  });
+  const [items, progress] = await Promise.all([
+    q.items
+      ? listTaskItems(
+          db(),
+          tasks.map((t) => t.id),
+        )
+      : undefined,
+    blockProgress(db(), member.organisationId),
+  ]);
+  return {
+    tasks: items ? tasks.map((t) => ({ ...t, items: items.filter((i) => i.taskId === t.id) })) : tasks,
+    progress,
+    fetchedAt: new Date().toISOString(),
+  };
+}
+
 export async function createTasks(member: Member, input: CreateTasksInput): Promise<TaskView<Date>[]> {
   const ids = [...new Set(input.flagIds)];
   const created = await db().transaction(async (trx) => {

@@ -4,6 +4,7 @@ import { useState } from 'react';
 import { apiSend } from '@/lib/api-client';
 import { Button } from '@/components/ui/button';
 import { Notice } from '@/components/ui/field';
+import type { PreferencesAnswer } from '@/lib/contracts/notifications';
 import { NOTIFICATION_KINDS, type NotificationKind, type Preferences } from '@/lib/validation/notification';
 
 const LABELS: Record<NotificationKind, { title: string; detail: string }> = {
@@ -23,7 +24,7 @@ export function PreferencesForm({ initial }: { initial: Preferences }) {
     setSaving(true);
     setState(undefined);
     try {
-      const { preferences } = await apiSend<{ preferences: Preferences }>('PUT', '/api/notifications/preferences', prefs);
+      const { preferences } = await apiSend<PreferencesAnswer>('PUT', '/api/notifications/preferences', prefs);
       setPrefs(preferences);
       setState({ tone: 'ok', message: 'Saved.' });
     } catch (err) {

@@ -1,6 +1,7 @@
 import type { Metadata } from 'next';
 import { notFound } from 'next/navigation';
-import { TaskDetail, type TaskDetailData } from '@/components/tasks/task-detail';
+import { TaskDetail } from '@/components/tasks/task-detail';
+import type { TaskDetail as TaskDetailView } from '@/lib/contracts/tasks';
 import { isUuid } from '@/lib/grid/filters';
 import { can } from '@/lib/roles';
 import { memberForPage } from '@/lib/server/auth/guard';
@@ -19,6 +20,6 @@ export default async function TaskPage({ params }: { params: Promise<{ id: strin
   });
   if (!detail) notFound();
   // Dates cross to the client as the JSON route would send them.
-  const initial = JSON.parse(JSON.stringify(detail)) as TaskDetailData;
+  const initial = JSON.parse(JSON.stringify(detail)) as TaskDetailView;
   return <TaskDetail initial={initial} canManage={can(member.role, 'manage-tasks')} />;
 }

@@ -1,15 +1,14 @@
-import { db } from '@/lib/server/db';
+import { responds } from '@/lib/contracts/http';
+import type { PreferencesAnswer } from '@/lib/contracts/notifications';
 import { memberRoute } from '@/lib/server/http';
-import { getPreferences, savePreferences } from '@/lib/server/queries/notifications';
-import { wakeMailWorker } from '@/lib/server/services/mail-worker';
+import { loadPreferences, updatePreferences } from '@/lib/server/services/notification-settings';
 import { preferencesSchema } from '@/lib/validation/notification';
 
-/** The signed-in person's choice of notification mails (theirs, in every organisation). */
-export const GET = memberRoute({}, async (member) => ({ preferences: await getPreferences(db(), member.userId) }));
+const response = responds<PreferencesAnswer>();
 
-export const PUT = memberRoute({ body: preferencesSchema }, async (member, { body }) => {
-  await savePreferences(db(), member.userId, body);
-  // A new digest subscriber gets the digest that is due now, not tomorrow's.
-  if (body.digest) wakeMailWorker({ schedule: true });
-  return { preferences: await getPreferences(db(), member.userId) };
-});
+/** The signed-in person's choice of notification mails (theirs, in every organisation). */
+export const GET = memberRoute({ response }, async (member) => ({ preferences: await loadPreferences(member) }));
+
+export const PUT = memberRoute({ body: preferencesSchema, response }, async (member, { body }) => ({
+  preferences: await updatePreferences(member, body),
+}));

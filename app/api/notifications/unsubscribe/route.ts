@@ -1,10 +1,9 @@
-import { db } from '@/lib/server/db';
-import { AppError } from '@/lib/server/errors';
+import { responds } from '@/lib/contracts/http';
+import type { Unsubscribed } from '@/lib/contracts/notifications';
 import { JSON_TYPE, mediaType, readLimitedText } from '@/lib/server/boundary';
+import { AppError } from '@/lib/server/errors';
 import { publicRoute } from '@/lib/server/http';
-import { savePreferences } from '@/lib/server/queries/notifications';
-import { userExists } from '@/lib/server/queries/users';
-import { verifyUnsubscribeToken } from '@/lib/server/services/notifications';
+import { unsubscribeDigest } from '@/lib/server/services/notification-settings';
 import { unsubscribeSchema } from '@/lib/validation/notification';
 
 /**
@@ -16,7 +15,7 @@ import { unsubscribeSchema } from '@/lib/validation/notification';
 const ACCEPTS = [JSON_TYPE, 'application/x-www-form-urlencoded', 'multipart/form-data'];
 const MAX_BYTES = 4096;
 
-export const POST = publicRoute({ accepts: ACCEPTS }, async ({ req }) => {
+export const POST = publicRoute({ accepts: ACCEPTS, response: responds<Unsubscribed>() }, async ({ req }) => {
   const text = await readLimitedText(req, MAX_BYTES);
   let fromBody: unknown;
   try {
@@ -25,10 +24,6 @@ export const POST = publicRoute({ accepts: ACCEPTS }, async ({ req }) => {
     throw new AppError('bad-request', 'The request body is not valid JSON.');
   }
   const { token } = unsubscribeSchema.parse({ token: fromBody ?? req.nextUrl.searchParams.get('token') ?? undefined });
-  const userId = verifyUnsubscribeToken(token);
-  if (!userId) throw new AppError('not-found', 'This unsubscribe link is not valid. Sign in and change your notification settings instead.');
-  if (!(await userExists(db(), userId)))
-    throw new AppError('not-found', 'This unsubscribe link is not valid. Sign in and change your notification settings instead.');
-  await savePreferences(db(), userId, { digest: false });
-  return { digest: false };
+  await unsubscribeDigest(token);
+  return { digest: false } as const;
 });

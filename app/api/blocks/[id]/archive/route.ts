@@ -1,8 +1,13 @@
+import type { BlockOne } from '@/lib/contracts/blocks';
+import { responds } from '@/lib/contracts/http';
 import { memberRoute } from '@/lib/server/http';
 import { idParams } from '@/lib/validation/params';
 import { setArchived } from '@/lib/server/services/blocks';
 
 // Archived blocks leave the lists and the field app but keep their history; restore brings them back.
-export const POST = memberRoute({ permission: 'manage-organisation', params: idParams('a block') }, async (member, { params }) => ({
-  block: await setArchived(member, params.id, true),
-}));
+export const POST = memberRoute(
+  { permission: 'manage-organisation', params: idParams('a block'), response: responds<BlockOne>() },
+  async (member, { params }) => ({
+    block: await setArchived(member, params.id, true),
+  }),
+);

@@ -1,9 +1,10 @@
+import { answersRaw } from '@/lib/contracts/http';
 import { memberRoute } from '@/lib/server/http';
 import { idParams } from '@/lib/validation/params';
 import { exportLayout } from '@/lib/server/services/blocks';
 
 /** The block's layout in the import format (see lib/validation/block.ts), so it round-trips. */
-export const GET = memberRoute({ params: idParams('a block') }, async (member, { params }) => {
+export const GET = memberRoute({ params: idParams('a block'), response: answersRaw }, async (member, { params }) => {
   const { name, csv } = await exportLayout(member, params.id);
   const file = `${
     name

@@ -1,5 +1,7 @@
 import { readLimitedText } from '@/lib/server/boundary';
 import { AppError } from '@/lib/server/errors';
+import type { LayoutImportAnswer } from '@/lib/contracts/blocks';
+import { responds } from '@/lib/contracts/http';
 import { memberRoute } from '@/lib/server/http';
 import { importLayout } from '@/lib/server/services/blocks';
 import { LAYOUT_LIMITS } from '@/lib/validation/block';
@@ -19,10 +21,13 @@ function tooLarge(bytes: number, exact: boolean) {
  * `POST /api/blocks/:id/layout?mode=preview` checks a layout CSV (the request body, text/csv) and
  * answers what it would change; `?mode=apply` makes the change in one transaction.
  */
-export const POST = memberRoute({ permission: 'manage-organisation', params: idParams('a block'), accepts: ['text/csv'] }, async (member, { params, req }) => {
-  const mode = req.nextUrl.searchParams.get('mode') ?? 'preview';
-  if (mode !== 'preview' && mode !== 'apply') throw new AppError('bad-request', 'mode must be preview or apply.');
-  // Refused as soon as it passes the limit rather than after buffering it all.
-  const csv = await readLimitedText(req, LAYOUT_LIMITS.maxCsvBytes, tooLarge);
-  return { summary: await importLayout(member, params.id, csv, mode === 'apply') };
-});
+export const POST = memberRoute(
+  { permission: 'manage-organisation', params: idParams('a block'), accepts: ['text/csv'], response: responds<LayoutImportAnswer>() },
+  async (member, { params, req }) => {
+    const mode = req.nextUrl.searchParams.get('mode') ?? 'preview';
+    if (mode !== 'preview' && mode !== 'apply') throw new AppError('bad-request', 'mode must be preview or apply.');
+    // Refused as soon as it passes the limit rather than after buffering it all.
+    const csv = await readLimitedText(req, LAYOUT_LIMITS.maxCsvBytes, tooLarge);
+    return { summary: await importLayout(member, params.id, csv, mode === 'apply') };
+  },
+);

@@ -1,3 +1,5 @@
+import type { SettingsView } from '@/lib/contracts/settings';
+import { responds } from '@/lib/contracts/http';
 import { memberRoute } from '@/lib/server/http';
 import { loadBlockSettings, saveBlockSettings } from '@/lib/server/services/settings';
 import { idParams } from '@/lib/validation/params';
@@ -5,9 +7,11 @@ import { settingsBodySchema } from '@/lib/validation/settings';
 
 const params = idParams('a block');
 
-/** A block's judgement settings over the organisation's; any member may read them. */
-export const GET = memberRoute({ params }, async (member, { params }) => loadBlockSettings(member, params.id));
+const response = responds<SettingsView>();
 
-export const PUT = memberRoute({ permission: 'manage-organisation', body: settingsBodySchema, params }, async (member, { params, body }) =>
+/** A block's judgement settings over the organisation's; any member may read them. */
+export const GET = memberRoute({ params, response }, async (member, { params }) => loadBlockSettings(member, params.id));
+
+export const PUT = memberRoute({ permission: 'manage-organisation', body: settingsBodySchema, params, response }, async (member, { params, body }) =>
   saveBlockSettings(member, params.id, body.overrides),
 );
