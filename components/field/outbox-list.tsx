@@ -15,7 +15,7 @@ import {
   removeObservation,
   removePhoto,
   replaceObservation,
-  type ObservationEntry,
+  type RecordEntry,
   type PhotoEntry,
 } from '@/lib/offline/outbox';
 import { syncNow } from '@/lib/offline/sync';
@@ -28,9 +28,9 @@ const ObservationForm = dynamic(() => import('@/components/field/observation-for
 /** Everything still on this phone, and a way to fix or discard what the server refused. */
 export function OutboxList({ owner, imperial }: { owner: string; imperial: boolean }) {
   const t = useTranslations();
-  const [records, setRecords] = useState<ObservationEntry[]>([]);
+  const [records, setRecords] = useState<RecordEntry[]>([]);
   const [photos, setPhotos] = useState<PhotoEntry[]>([]);
-  const [editing, setEditing] = useState<ObservationEntry>();
+  const [editing, setEditing] = useState<RecordEntry>();
 
   useEffect(() => {
     const load = () => {

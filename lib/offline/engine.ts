@@ -7,7 +7,7 @@
  */
 import type { SyncResult } from '@/lib/contracts/sync';
 import type { Outbox } from '@/lib/offline/queue';
-import type { ObservationEntry, PhotoEntry } from '@/lib/offline/store';
+import type { RecordEntry, PhotoEntry } from '@/lib/offline/store';
 import { collectionOf } from '@/lib/offline/queue';
 
 /** What the app's API answers; `json` is undefined when the body was not JSON. */
@@ -78,7 +78,7 @@ export interface SyncStatus {
   counted: boolean;
   waiting: number;
   photosWaiting: number;
-  rejected: ObservationEntry[];
+  rejected: RecordEntry[];
   rejectedPhotos: PhotoEntry[];
   otherOwners: number;
   progress: { records: number; recordsTotal: number; bytes: number; bytesTotal: number } | null;
@@ -162,7 +162,7 @@ export function createSyncEngine(parts: SyncParts) {
     return { status: answer.status, json: answer.json };
   }
 
-  async function sendBatch(collection: CollectionRoute, batch: ObservationEntry[]) {
+  async function sendBatch(collection: CollectionRoute, batch: RecordEntry[]) {
     const ids = batch.map((e) => e.id);
     await outbox.patchObservations(ids, { state: 'sending' });
     let answer: Awaited<ReturnType<typeof post>>;

@@ -5,7 +5,7 @@
 import { browserOutbox } from '@/lib/offline/browser';
 import type { Outbox } from '@/lib/offline/queue';
 
-export type { Collection, EntryState, ObservationEntry, PhotoEntry, PhotoState } from '@/lib/offline/store';
+export type { Collection, EntryState, RecordEntry, PhotoEntry, PhotoState } from '@/lib/offline/store';
 export { collectionOf } from '@/lib/offline/queue';
 
 const bound =

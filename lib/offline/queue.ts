@@ -11,7 +11,7 @@
  * Entries left "sending" by a crash or a closed tab go back to "queued" on the next start; the
  * server's once-only ids make the resend harmless.
  */
-import type { Collection, ObservationEntry, OutboxStore, PhotoEntry } from '@/lib/offline/store';
+import type { Collection, RecordEntry, OutboxStore, PhotoEntry } from '@/lib/offline/store';
 
 export interface OutboxOptions {
   /** Tells the other tabs of this phone that the outbox changed, and hears theirs. */
@@ -24,7 +24,7 @@ export interface OutboxOptions {
 const oldestFirst = <T extends { id: string; createdAt: number }>(list: T[]) =>
   list.sort((a, b) => a.createdAt - b.createdAt || (a.id < b.id ? -1 : a.id > b.id ? 1 : 0));
 
-export const collectionOf = (e: ObservationEntry): Collection => e.collection ?? 'observations';
+export const collectionOf = (e: RecordEntry): Collection => e.collection ?? 'observations';
 
 export function createOutbox(store: OutboxStore, options: OutboxOptions = {}) {
   const now = options.now ?? Date.now;
@@ -47,24 +47,24 @@ export function createOutbox(store: OutboxStore, options: OutboxOptions = {}) {
       };
     },
 
-    async enqueueRecord(owner: string, collection: Collection, record: ObservationEntry['record']) {
+    async enqueueRecord(owner: string, collection: Collection, record: RecordEntry['record']) {
       await records.put({ id: record.id, owner, collection, record, state: 'queued', attempts: 0, createdAt: now() });
       changed();
     },
 
-    enqueueObservation: (owner: string, record: ObservationEntry['record']) => outbox.enqueueRecord(owner, 'observations', record),
+    enqueueObservation: (owner: string, record: RecordEntry['record']) => outbox.enqueueRecord(owner, 'observations', record),
 
     async enqueuePhoto(entry: Omit<PhotoEntry, 'state' | 'attempts' | 'createdAt'>) {
       await photos.put({ ...entry, state: 'queued', attempts: 0, createdAt: now() });
       changed();
     },
 
-    listObservations: async (): Promise<ObservationEntry[]> => oldestFirst(await records.list()),
+    listObservations: async (): Promise<RecordEntry[]> => oldestFirst(await records.list()),
     listPhotos: async (): Promise<PhotoEntry[]> => oldestFirst(await photos.list()),
     getObservationEntry: (id: string) => records.get(id),
     getPhotoEntry: (id: string) => photos.get(id),
 
-    async patchObservations(ids: string[], patch: Partial<ObservationEntry>) {
+    async patchObservations(ids: string[], patch: Partial<RecordEntry>) {
       for (const id of ids) await records.update(id, (e) => ({ ...e, ...patch }));
       changed();
     },
@@ -86,7 +86,7 @@ export function createOutbox(store: OutboxStore, options: OutboxOptions = {}) {
     },
 
     /** A person corrected a rejected record: it goes back in the queue under the same id. */
-    async replaceObservation(record: ObservationEntry['record']) {
+    async replaceObservation(record: RecordEntry['record']) {
       await records.update(record.id, (e) => ({ ...e, record, state: 'queued', errors: undefined, conflict: undefined }));
       changed();
     },

@@ -8,7 +8,7 @@
 import { useQuery } from '@tanstack/react-query';
 import { useEffect, useState } from 'react';
 import { LOCAL } from '@/lib/device-keys';
-import { enqueueRecord, listObservations, onOutboxChange, type ObservationEntry } from '@/lib/offline/outbox';
+import { enqueueRecord, listObservations, onOutboxChange, type RecordEntry } from '@/lib/offline/outbox';
 import type { RowWorkPass } from '@/lib/work/passes';
 import { apiGet } from '@/lib/api-client';
 import type { DoneRows } from '@/lib/contracts/field';
@@ -31,7 +31,7 @@ export interface RowWorkDraft {
 
 export function enqueueRowWork(owner: string, record: RowWorkDraft) {
   // The outbox's record type names a vine; row work names a row (and maybe a run), which the list shows by row.
-  return enqueueRecord(owner, ROW_WORK_COLLECTION, record as unknown as ObservationEntry['record']);
+  return enqueueRecord(owner, ROW_WORK_COLLECTION, record as unknown as RecordEntry['record']);
 }
 
 /** What a crew lead entered last, offered again for the next row. */

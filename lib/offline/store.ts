@@ -11,7 +11,8 @@ export type EntryState = 'queued' | 'sending' | 'rejected';
  */
 export type Collection = 'observations' | (string & {});
 
-export interface ObservationEntry {
+/** A record waiting to sync, of any collection (observations, flags, task updates, row work). */
+export interface RecordEntry {
   id: string;
   owner: string;
   collection?: Collection;
@@ -51,6 +52,6 @@ export interface Table<T extends { id: string }> {
 }
 
 export interface OutboxStore {
-  records: Table<ObservationEntry>;
+  records: Table<RecordEntry>;
   photos: Table<PhotoEntry>;
 }

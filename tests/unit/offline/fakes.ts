@@ -7,7 +7,7 @@ import type { Answer, AnswerBody, Clock, Lock, RecordResult, Transport } from '@
 import { createSyncEngine, type SyncParts } from '@/lib/offline/engine';
 import { memoryStore } from '@/lib/offline/memory-store';
 import { createOutbox } from '@/lib/offline/queue';
-import type { ObservationEntry, OutboxStore } from '@/lib/offline/store';
+import type { RecordEntry, OutboxStore } from '@/lib/offline/store';
 import { COLLECTIONS } from '@/lib/offline/sync';
 
 /** Lets every promise chain that waits on nothing but other promises run to its end. */
@@ -85,7 +85,7 @@ export class FakeServer {
     if (session === null) return { status: 401, json: { error: { code: 'unauthorised', message: 'Sign in first.' } } };
     const collection = COLLECTIONS.find((c) => c.path === path);
     if (collection) {
-      const all = (body as Record<string, ObservationEntry['record'][]>)[collection.bodyKey]!;
+      const all = (body as Record<string, RecordEntry['record'][]>)[collection.bodyKey]!;
       const list = partial ? all.slice(0, Math.ceil(all.length / 2)) : all;
       return { status: 200, json: { results: list.map((r) => this.receive(collection.name, r, session)) } };
     }
@@ -107,7 +107,7 @@ export class FakeServer {
     return { status: 404, json: { error: { code: 'not-found', message: 'No such route.' } } };
   }
 
-  private receive(collection: string, record: ObservationEntry['record'], session: string): RecordResult {
+  private receive(collection: string, record: RecordEntry['record'], session: string): RecordResult {
     const payload = JSON.stringify(record);
     const held = this.records.get(record.id);
     if (held) return { id: record.id, status: held.payload === payload ? 'duplicate' : 'conflict' };
@@ -175,7 +175,7 @@ export const BLOCK = '0b10c4a0-0000-4000-8000-000000000001';
 
 export const uuid = (n: number) => `00000000-0000-4000-8000-${n.toString(16).padStart(12, '0')}`;
 
-export const record = (n: number, data: Record<string, unknown> = { budsRetained: 24, budsPushed: 12 }): ObservationEntry['record'] => ({
+export const record = (n: number, data: Record<string, unknown> = { budsRetained: 24, budsPushed: 12 }): RecordEntry['record'] => ({
   id: uuid(n),
   blockId: BLOCK,
   row: 5,

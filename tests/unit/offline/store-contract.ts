@@ -1,8 +1,8 @@
 /** What every outbox store must do, whatever keeps the entries (run by store.test.ts for each). */
 import { describe, expect, it } from 'vitest';
-import type { ObservationEntry, OutboxStore, PhotoEntry } from '@/lib/offline/store';
+import type { RecordEntry, OutboxStore, PhotoEntry } from '@/lib/offline/store';
 
-export const entry = (id: string, patch: Partial<ObservationEntry> = {}): ObservationEntry => ({
+export const entry = (id: string, patch: Partial<RecordEntry> = {}): RecordEntry => ({
   id,
   owner: 'scout-a',
   collection: 'observations',
