@@ -94,6 +94,13 @@ export default tseslint.config(
     },
   },
   {
+    // Screens call the app's API through lib/api-client.ts: one deadline, one ApiError, the server's message.
+    files: ['components/**', 'app/**/*.tsx'],
+    rules: {
+      'no-restricted-globals': ['error', { name: 'fetch', message: 'Call the API with apiGet / apiSend from lib/api-client.ts.' }],
+    },
+  },
+  {
     // A route handler parses, makes one service call and responds: reads and writes go through lib/server/services.
     files: ['app/api/**'],
     rules: {

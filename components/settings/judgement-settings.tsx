@@ -3,6 +3,7 @@
 import { useState } from 'react';
 import { Button } from '@/components/ui/button';
 import { Input, Notice, Select } from '@/components/ui/field';
+import { apiGet, apiSend, ApiError } from '@/lib/api-client';
 import type { SettingsView, SettingView } from '@/lib/contracts/settings';
 import type { BudRange, SettingValue } from '@/lib/viticulture';
 
@@ -77,9 +78,7 @@ export function JudgementSettings({ initial, blocks, canEdit }: { initial: Setti
     setMessage(undefined);
     setBusy(true);
     try {
-      const res = await fetch(blockId ? `/api/blocks/${blockId}/settings` : '/api/settings');
-      if (!res.ok) throw new Error(String(res.status));
-      present((await res.json()) as SettingsView);
+      present(await apiGet<SettingsView>(blockId ? `/api/blocks/${blockId}/settings` : '/api/settings'));
     } catch {
       setMessage({ ok: false, text: 'Those settings could not be loaded. Try again when there is signal.' });
     } finally {
@@ -92,21 +91,20 @@ export function JudgementSettings({ initial, blocks, canEdit }: { initial: Setti
     setBusy(true);
     setMessage(undefined);
     try {
-      const res = await fetch(url, {
-        method: 'PUT',
-        headers: { 'content-type': 'application/json' },
-        body: JSON.stringify({ overrides: overridesOf(view, draft) }),
-      });
-      const body = (await res.json()) as SettingsView & { error?: { message: string; fields?: Record<string, string[]> } };
-      if (!res.ok) {
-        setFields(body.error?.fields ?? {});
-        setMessage({ ok: false, text: body.error?.message ?? `Not saved (${res.status}).` });
-        return;
-      }
-      present(body);
+      present(
+        await apiSend<SettingsView>(
+          'PUT',
+          url,
+          { overrides: overridesOf(view, draft) },
+          { fallback: 'Not saved: the server did not say why. Nothing was changed.' },
+        ),
+      );
       setMessage({ ok: true, text: `Saved. ${view.block ? view.block.name : 'The organisation'}'s judgements now use these settings.` });
-    } catch {
-      setMessage({ ok: false, text: 'Not saved: no answer from the server. Nothing was changed.' });
+    } catch (err) {
+      if (err instanceof ApiError && !err.unanswered) {
+        setFields(err.fields ?? {});
+        setMessage({ ok: false, text: err.message });
+      } else setMessage({ ok: false, text: 'Not saved: no answer from the server. Nothing was changed.' });
     } finally {
       setBusy(false);
     }

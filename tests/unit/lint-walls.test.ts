@@ -44,6 +44,7 @@ const cases: [string, string, string, string][] = [
     'no-restricted-imports',
   ],
   ['lib/contracts calling fetch', 'lib/contracts/wall.ts', "export const a = () => fetch('/api/me');\n", 'no-restricted-globals'],
+  ['a component calling fetch itself', 'components/x/wall.tsx', "export const a = () => fetch('/api/me');\n", 'no-restricted-globals'],
   [
     'a route handler calling a query module instead of a service',
     'app/api/wall/route.ts',
