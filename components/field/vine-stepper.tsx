@@ -16,7 +16,7 @@ import { enqueueObservation, enqueuePhoto, listObservations, onOutboxChange } fr
 import { useDoneRows } from '@/lib/offline/row-work';
 import { requestBackgroundSync, syncNow } from '@/lib/offline/sync';
 import { STATUS_BY_LETTER, useFieldLayout, type FieldLayout } from '@/lib/offline/use-field-layout';
-import { can } from '@/lib/roles';
+import { can, type Role } from '@/lib/roles';
 import { OBSERVATION_KINDS, type ObservationKind } from '@/lib/viticulture';
 import { ROW_WORK_PASSES } from '@/lib/work/passes';
 import { apiGet } from '@/lib/api-client';
@@ -31,6 +31,8 @@ const ObservationForm = dynamic(() => loadObservationForm().then((m) => m.Observ
 const FlagForm = dynamic(() => loadFlagForm().then((m) => m.FlagForm));
 const loadRowWorkForm = () => import('@/components/field/row-work-form');
 const RowWorkForm = dynamic(() => loadRowWorkForm().then((m) => m.RowWorkForm));
+
+const FORMS_PREFETCH_DELAY_MS = 4000;
 
 interface Address {
   row: number;
@@ -68,9 +70,12 @@ export function VineStepper({
   owner,
   initialLayout,
   initialAddress,
+  role,
 }: {
   blockId: string;
   owner: string;
+  /** The person's role as the page knew it, so the buttons it allows are in the first paint. */
+  role?: Role;
   /** The server's render of the layout and the address in the link: the vine in the first paint. */
   initialLayout?: FieldLayout;
   initialAddress?: Address;
@@ -86,11 +91,20 @@ export function VineStepper({
   const [flash, setFlash] = useState<string>();
   const [jump, setJump] = useState('');
 
-  // Fetch the forms while there is signal, right after the page shows: a scout who loses signal
-  // before the service worker has cached them can still record.
+  // Fetch the forms while there is signal, once the page has settled: a scout who loses signal
+  // before the service worker has cached them can still record. Not sooner, so that running their
+  // code never competes with the first taps on a slow phone.
   useEffect(() => {
-    const idle = window.requestIdleCallback ?? ((fn: () => void) => window.setTimeout(fn, 200));
-    idle(() => void Promise.all([loadObservationForm(), loadFlagForm(), loadRowWorkForm()]).catch(() => undefined));
+    let timer: number | undefined;
+    const fetchForms = () => void Promise.all([loadObservationForm(), loadFlagForm(), loadRowWorkForm()]).catch(() => undefined);
+    const idle = () => (window.requestIdleCallback ? window.requestIdleCallback(fetchForms, { timeout: 5000 }) : fetchForms());
+    const settle = () => (timer = window.setTimeout(idle, FORMS_PREFETCH_DELAY_MS));
+    if (document.readyState === 'complete') settle();
+    else window.addEventListener('load', settle, { once: true });
+    return () => {
+      window.removeEventListener('load', settle);
+      window.clearTimeout(timer);
+    };
   }, []);
 
   useEffect(() => {
@@ -116,6 +130,7 @@ export function VineStepper({
     networkMode: 'always',
     staleTime: 5 * 60_000,
     queryFn: async () => (await apiGet<Me>('/api/me')).role,
+    initialData: role,
   });
 
   const rowOf = useCallback((row: number) => layout?.rows.find((r) => r.row === row), [layout]);

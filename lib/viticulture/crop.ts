@@ -100,12 +100,13 @@ export const RAVAZ_TARGETS = Object.freeze({ concord: 15 });
 
 /**
  * The Ravaz range for a grape type: Concord and the Concord-type "American" row read against
- * Bates's 10–20; every other type against `settings.ravaz` (vinifera 5–10 unless the block sets its
- * own). No published range was found for Niagara, Catawba, Delaware or the hybrids.
+ * `settings.ravazAmerican` (Bates's 10–20 unless the block or organisation sets its own); every other
+ * type against `settings.ravaz` (vinifera 5–10). No published range was found for Niagara, Catawba,
+ * Delaware or the hybrids: a block of those sets its own range where its adviser has one.
  */
 export function ravazRangeFor(grapeType: GrapeType | null | undefined, settings?: SettingsOverride): { underBelow: number; overAbove: number } {
-  if (grapeType === 'concord' || grapeType === 'american') return { ...RAVAZ_PRESETS.concord };
-  return { ...resolveSettings(settings).ravaz };
+  const resolved = resolveSettings(settings);
+  return { ...(grapeType === 'concord' || grapeType === 'american' ? resolved.ravazAmerican : resolved.ravaz) };
 }
 
 /**

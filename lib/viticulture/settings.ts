@@ -78,6 +78,11 @@ export interface ViticultureSettings {
     /** Above this it reads as over-cropped. */
     readonly overAbove: number;
   };
+  /** The same reading for Concord and the Concord-type "American" grapes, whose balanced vines carry more. */
+  readonly ravazAmerican: {
+    readonly underBelow: number;
+    readonly overAbove: number;
+  };
   readonly trunkInjury: {
     /** Girdling above this share of the circumference needs action. */
     readonly actAbovePercent: number;
@@ -206,6 +211,12 @@ export const DEFAULT_SETTINGS: ViticultureSettings = deepFreeze<ViticultureSetti
     underBelow: 5,
     overAbove: 10,
   },
+  ravazAmerican: {
+    // T. Bates, Cornell LERGP, "Vine Size: Magic Number 15": "a Ravaz Index > 20 ... overcropped",
+    // "< 10 ... undercropped" (Concord).
+    underBelow: 10,
+    overAbove: 20,
+  },
   trunkInjury: {
     // Common practice, no source: past half the circumference the trunk is usually renewed.
     actAbovePercent: 25,
@@ -311,6 +322,7 @@ function validateSettings(s: ViticultureSettings): void {
   ascending('budbreak', ['failedBelowPercent', 'poorBelowPercent', 'weakBelowPercent'], s.budbreak);
   ascending('budInjury', ['extraFromPercent', 'minimalAbovePercent'], s.budInjury);
   ascending('ravaz', ['underBelow', 'overAbove'], s.ravaz);
+  ascending('ravazAmerican', ['underBelow', 'overAbove'], s.ravazAmerican);
   ascending('trunkInjury', ['actAbovePercent', 'urgentAbovePercent'], s.trunkInjury);
   ascending('pruningRecord', ['fineWithinPercent', 'watchWithinPercent', 'actWithinPercent'], s.pruningRecord);
   ascending('labour', ['spurMinutesPerVine', 'caneMinutesPerVine'], s.labour);
@@ -469,13 +481,25 @@ export const SETTINGS_META: Readonly<Record<SettingKey, SettingMeta>> = Object.f
     'Ravaz index: under-cropped below',
     'kg/kg',
     0.5,
-    'Wines & Vines, June 2017: "the optimum Ravaz Index ... can range from 5 to 10" (vinifera). Concord-type grapes read against 10–20 (Bates, Cornell) whatever this says.',
+    'Wines & Vines, June 2017: "the optimum Ravaz Index ... can range from 5 to 10" (vinifera). Concord-type grapes read against their own range below.',
   ),
   'ravaz.overAbove': m(
     'Ravaz index: over-cropped above',
     'kg/kg',
     0.5,
-    'Wines & Vines, June 2017: "the optimum Ravaz Index ... can range from 5 to 10" (vinifera). Concord-type grapes read against 10–20 (Bates, Cornell) whatever this says.',
+    'Wines & Vines, June 2017: "the optimum Ravaz Index ... can range from 5 to 10" (vinifera). Concord-type grapes read against their own range below.',
+  ),
+  'ravazAmerican.underBelow': m(
+    'Ravaz index, Concord-type grapes: under-cropped below',
+    'kg/kg',
+    0.5,
+    'T. Bates, Cornell LERGP, "Vine Size: Magic Number 15": "< 10 ... undercropped" (Concord). Used for the Concord and American grape types.',
+  ),
+  'ravazAmerican.overAbove': m(
+    'Ravaz index, Concord-type grapes: over-cropped above',
+    'kg/kg',
+    0.5,
+    'T. Bates, Cornell LERGP, "Vine Size: Magic Number 15": "a Ravaz Index > 20 ... overcropped" (Concord). Used for the Concord and American grape types.',
   ),
   'trunkInjury.actAbovePercent': m('Trunk girdling: act above', '% of circumference', 1, NO_SOURCE),
   'trunkInjury.urgentAbovePercent': m(

@@ -1,12 +1,14 @@
 import { spawn } from 'node:child_process';
-import { mkdtemp, readFile, rm } from 'node:fs/promises';
+import { mkdtemp, readFile, rm, writeFile } from 'node:fs/promises';
 import { cpus, loadavg, tmpdir } from 'node:os';
 import path from 'node:path';
 import { Client } from '../helpers/http';
 import { median, type BenchContext } from './context';
 
 const UPPER_TERRACE = '0b10c4a0-0000-4000-8000-000000000001';
-const PAGES = ['/field', `/field/blocks/${UPPER_TERRACE}/walk?row=1&position=1`];
+const ALL_PAGES = ['/field', `/field/blocks/${UPPER_TERRACE}/walk?row=1&position=1`];
+// LIGHTHOUSE_PAGE=walk measures only the pages whose path contains it.
+const PAGES = ALL_PAGES.filter((p) => p.includes(process.env.LIGHTHOUSE_PAGE ?? ''));
 const RUNS = 3;
 const TARGET = { score: 90, lcpMs: 2500, tbtMs: 200 };
 
@@ -47,7 +49,11 @@ async function lighthouse(url: string, cookie: string): Promise<Report> {
         else reject(new Error(`lighthouse exited with ${code} on ${url}`));
       });
     });
-    return JSON.parse(await readFile(out, 'utf8')) as Report;
+    const text = await readFile(out, 'utf8');
+    // LIGHTHOUSE_KEEP=<dir> keeps each report, to read what the figures are made of.
+    const keep = process.env.LIGHTHOUSE_KEEP;
+    if (keep) await writeFile(path.join(keep, `${new URL(url).pathname.split('/').filter(Boolean).join('-') || 'root'}-${Date.now()}.json`), text);
+    return JSON.parse(text) as Report;
   } finally {
     await rm(dir, { recursive: true, force: true });
   }

@@ -74,10 +74,12 @@ export function ravazWorking(yieldKgPerVine: number, pruningKgPerVine: number, r
   return `${formatNumber(yieldKgPerVine, 2)} kg of fruit a vine ÷ ${formatNumber(pruningKgPerVine, 2)} kg of prunings a vine = ${formatNumber(index)}; between ${range.underBelow} and ${range.overAbove} reads as balanced, so this is ${RAVAZ_WORDS[reading]}`;
 }
 
-export function ravazSource(grapeType: GrapeType | null): string {
+/** The range a block's index is read against, and where the published one comes from. */
+export function ravazSource(grapeType: GrapeType | null, range: { underBelow: number; overAbove: number }): string {
+  const used = `${range.underBelow}–${range.overAbove}`;
   return grapeType === 'concord' || grapeType === 'american'
-    ? `Concord-type grapes: 10–20, balanced near 15 (${SOURCES.ravazConcord})`
-    : `${grapeType ?? 'the block'}: 5–10 for vinifera unless the estate set its own (${SOURCES.ravazVinifera})`;
+    ? `Concord-type grapes: ${used}; published 10–20, balanced near 15 (${SOURCES.ravazConcord})`
+    : `${grapeType ?? 'the block'}: ${used}; published 5–10 for vinifera (${SOURCES.ravazVinifera})`;
 }
 
 export function ravazFor(input: BlockReportInput, vintage: number, s: ViticultureSettings): RavazSection | null {
@@ -129,7 +131,7 @@ export function ravazFor(input: BlockReportInput, vintage: number, s: Viticultur
     reading: read(index),
     readings,
     range,
-    rangeSource: ravazSource(grapeType),
+    rangeSource: ravazSource(grapeType, range),
     note: `Yields of the ${vintage} harvest over the one-year wood weighed at the ${vintage + 1} winter pruning.`,
   };
 }

@@ -163,7 +163,7 @@ function cropLoadTarget(input: BlockReportInput, s: ViticultureSettings): CropLo
     highKgPerVine: high,
     targetKgPerVine: target === null ? null : cropLoadTargetKg(pruningKgPerVine, target),
     how: `${p} kg of prunings a vine × a Ravaz index of ${range.underBelow} to ${range.overAbove} = ${formatNumber(low, 1)} to ${formatNumber(high, 1)} kg of fruit a vine${target === null ? '' : `; × ${target}, the balanced index, = ${formatNumber(cropLoadTargetKg(pruningKgPerVine, target), 1)} kg`}`,
-    from: `mean pruning weight of ${formatCount(vines)} vines weighed at the ${input.season} winter pruning; Ravaz range for ${ravazSource(grapeType)}`,
+    from: `mean pruning weight of ${formatCount(vines)} vines weighed at the ${input.season} winter pruning; Ravaz range for ${ravazSource(grapeType, range)}`,
     source: target === null ? SOURCES.ravazVinifera : SOURCES.ravazConcord,
   };
 }

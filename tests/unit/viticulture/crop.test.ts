@@ -130,6 +130,16 @@ describe('Ravaz by grape type, crop-load target, lag phase and counted clusters'
     expect(ravazRangeFor(null, { ravaz: { underBelow: 6, overAbove: 9 } })).toEqual({ underBelow: 6, overAbove: 9 });
   });
 
+  it('lets a block or estate set its own Concord-type range, where its adviser reads the vines otherwise', () => {
+    const own = { ravazAmerican: { underBelow: 12, overAbove: 18 } };
+    expect(ravazRangeFor('concord', own)).toEqual({ underBelow: 12, overAbove: 18 });
+    expect(readRavaz(19, { ravaz: ravazRangeFor('concord', own) })).toBe('over-cropped');
+    // Bates's 10–20 reads the same vine as balanced.
+    expect(readRavaz(19, { ravaz: ravazRangeFor('concord') })).toBe('balanced');
+    // The vinifera range is untouched by it.
+    expect(ravazRangeFor('vinifera', own)).toEqual({ underBelow: 5, overAbove: 10 });
+  });
+
   it('sets the crop a vine can ripen at Ravaz target × pruning weight: 15 × 1.5 kg = 22.5 kg for Concord (Bates)', () => {
     expect(RAVAZ_TARGETS.concord).toBe(15);
     expect(cropLoadTargetKg(1.5, 15)).toBeCloseTo(22.5, 12);

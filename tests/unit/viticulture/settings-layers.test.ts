@@ -57,7 +57,7 @@ describe('layerSettings (defaults ← organisation ← block)', () => {
 
 describe('settings metadata and schema', () => {
   it('names a unit, a step and a source for every setting', () => {
-    expect(SETTING_KEYS).toHaveLength(43);
+    expect(SETTING_KEYS).toHaveLength(45);
     for (const key of SETTING_KEYS) {
       const meta = SETTINGS_META[key];
       expect(meta.source.length, key).toBeGreaterThan(10);

@@ -7,6 +7,7 @@ describe('settings', () => {
     expect(DEFAULT_SETTINGS.budInjury.extraFromPercent).toBe(20); // Cornell NNY 2014: "if <20% of buds are injured ..."
     expect(DEFAULT_SETTINGS.budInjury.minimalAbovePercent).toBe(50); // Purdue FFF: ">50% bud damage- Minimally prune"
     expect(DEFAULT_SETTINGS.ravaz).toEqual({ underBelow: 5, overAbove: 10 }); // Wines & Vines June 2017: "can range from 5 to 10"
+    expect(DEFAULT_SETTINGS.ravazAmerican).toEqual({ underBelow: 10, overAbove: 20 }); // Bates, "Vine Size: Magic Number 15": "< 10 ... undercropped", "> 20 ... overcropped"
     expect(DEFAULT_SETTINGS.pruning.formula).toEqual({ firstUnitBuds: 20, perAdditionalUnitBuds: 20, unit: 'lb' }); // Ohio State 2023: "Vinifera 20 + 20"
     expect(DEFAULT_SETTINGS.plan.budsPerRenewalSpur).toBe(2); // Yuma Sun 2022: "only two buds"
     expect(DEFAULT_SETTINGS.budLoad).toEqual({ minBudsPerFt: 4, maxBudsPerFt: 6 }); // Ohio State 2023: "approximately 4-6 buds per foot"

@@ -39,6 +39,7 @@ export default async function WalkPage({ params, searchParams }: { params: Promi
       owner={member.email}
       initialLayout={layout}
       initialAddress={row && position && !q.plan && !q.task ? { row, position } : undefined}
+      role={member.role}
     />
   );
 }
