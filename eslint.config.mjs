@@ -168,12 +168,12 @@ export default tseslint.config(
         'error',
         // db()('table'), trx('table'), conn('table'): a query built here instead of in lib/server/queries.
         { selector: "CallExpression[callee.type='CallExpression'][callee.callee.name='db']", message: QUERY_WALL },
-        { selector: 'CallExpression[callee.name=/^(trx|conn|knex)$/]', message: QUERY_WALL },
+        { selector: 'CallExpression[callee.name=/^(trx|conn|knex|database)$/]', message: QUERY_WALL },
         {
           selector: "CallExpression[callee.property.name=/^(raw|schema|fn)$/][callee.object.type='CallExpression'][callee.object.callee.name='db']",
           message: QUERY_WALL,
         },
-        { selector: 'CallExpression[callee.property.name=/^(raw|schema|fn)$/][callee.object.name=/^(trx|conn|knex)$/]', message: QUERY_WALL },
+        { selector: 'CallExpression[callee.property.name=/^(raw|schema|fn)$/][callee.object.name=/^(trx|conn|knex|database)$/]', message: QUERY_WALL },
       ],
     },
   },

@@ -58,6 +58,12 @@ const cases: [string, string, string, string][] = [
     'no-restricted-syntax',
   ],
   [
+    'a service building a query on a connection it named database',
+    'lib/server/services/wall.ts',
+    "import type { Db } from '@/lib/server/db';\nexport const a = (database: Db) => database('block_rows').first();\n",
+    'no-restricted-syntax',
+  ],
+  [
     'a service building a query in a transaction',
     'lib/server/services/wall.ts',
     "import type { Db } from '@/lib/server/db';\nexport const a = (trx: Db) => trx('flags').pluck('id');\n",

@@ -26,10 +26,10 @@ export default async function FieldPage() {
       <LanguageSwitch saved={isLocale(user?.locale) ? user.locale : 'en'} />
       <h2 className="text-xl font-bold">{t('chooseBlock')}</h2>
       <FieldBlockList initial={initial} />
-      <ButtonLink href="/field/outbox" variant="secondary">
+      <ButtonLink href="/field/outbox" prefetch={false} variant="secondary">
         {t('outbox')}
       </ButtonLink>
-      <ButtonLink href="/safety" variant="secondary">
+      <ButtonLink href="/safety" prefetch={false} variant="secondary">
         {t('cautions')}
       </ButtonLink>
     </div>

@@ -34,6 +34,10 @@ export function listBlockRows(db: Db, blockId: string) {
   return db('block_rows').where({ block_id: blockId }).orderBy('row_number').select<{ row_number: number; vine_count: number }[]>('row_number', 'vine_count');
 }
 
+export async function hasBlockRow(db: Db, blockId: string, rowNumber: number) {
+  return !!(await db('block_rows').where({ block_id: blockId, row_number: rowNumber }).first('row_number'));
+}
+
 export interface PositionRow {
   id: string;
   row_number: number;

@@ -10,7 +10,7 @@ import type { Member } from '@/lib/server/auth/guard';
 import { db, type Db } from '@/lib/server/db';
 import { AppError } from '@/lib/server/errors';
 import { findVineByAddress } from '@/lib/server/queries/grid';
-import { getBlock, listBlocks, type BlockRow } from '@/lib/server/queries/blocks';
+import { getBlock, hasBlockRow, listBlocks, type BlockRow } from '@/lib/server/queries/blocks';
 import { deleteMeasurement, getMeasurement, insertMeasurement, listMeasurements } from '@/lib/server/queries/measurements';
 import {
   countByRowAndKind,
@@ -198,8 +198,8 @@ export async function recordMeasurement(member: Member, input: MeasurementInput)
       throw new AppError('invalid-input', `Row ${input.row} has no vine ${input.position} in ${block.name}.`, { position: ['No such vine in this row'] });
     positionId = vine.positionId;
   } else {
-    const row = await database('block_rows').where({ block_id: block.id, row_number: input.row }).first('row_number');
-    if (!row) throw new AppError('invalid-input', `${block.name} has no row ${input.row}.`, { row: ['No such row in this block'] });
+    if (!(await hasBlockRow(database, block.id, input.row)))
+      throw new AppError('invalid-input', `${block.name} has no row ${input.row}.`, { row: ['No such row in this block'] });
   }
   const id = await insertMeasurement(database, {
     organisation_id: member.organisationId,
