@@ -262,7 +262,7 @@ export function VineStepper({
           }}
         />
       ) : kind ? (
-        <FieldSettingsProvider settings={layout.settings}>
+        <FieldSettingsProvider settings={layout.settings} vineSpacingM={layout.block.vineSpacingM}>
           <ObservationForm kind={kind} imperial={layout.block.unitSystem === 'imperial'} onSave={save} onCancel={() => setKind(undefined)} />
         </FieldSettingsProvider>
       ) : flagging ? (

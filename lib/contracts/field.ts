@@ -13,6 +13,8 @@ export interface FieldLayout {
     rowCount: number;
     positionOrigin: string | null;
     unitSystem: 'metric' | 'imperial';
+    /** For the bud-load check of a bud target; absent from a copy cached before it was sent. */
+    vineSpacingM?: number;
   };
   /** `statuses` holds one letter per slot: P planted, M missing, D dead, R replant. */
   rows: { row: number; vineCount: number; statuses: string }[];

@@ -130,6 +130,25 @@ test('every observation form opens with its first field uncovered, keeps its ver
   }
 });
 
+test('a bud target far over the row it fills is questioned beside the field, one within it is not', async ({ page }) => {
+  // Ohio State, "2023 Grape Pruning Primer": "approximately 4-6 buds per foot of vine spacing".
+  // North Bench plants a vine every 1.4 m (4.59 ft): 18–28 buds a vine; 80 is 17.4 a foot.
+  await signInAs(page, 'manager@example.com');
+  await page.goto(`/field/blocks/${NORTH_BENCH}/walk?row=5&position=10`);
+  await page.getByRole('button', { name: 'Pruning record', exact: true }).click();
+  const form = page.getByRole('form', { name: 'Pruning record' });
+  const target = form.getByLabel('Bud target (optional)', { exact: true });
+  await target.fill('80');
+  await expect(form.getByTestId('bud-load-note')).toHaveText(
+    '80 buds a vine is 17.4 a foot of row (57.1 a metre): more than the 4–6 a foot (18–28 a vine) published for this spacing. Check the target.',
+  );
+  await expect(form.getByTestId('bud-load-note')).toBeInViewport({ ratio: 1 });
+  await target.fill('24');
+  await expect(form.getByTestId('bud-load-note')).toHaveCount(0);
+  await target.fill('10');
+  await expect(form.getByTestId('bud-load-note')).toContainText('fewer than the 4–6 a foot (18–28 a vine)');
+});
+
 test('the flag form and both row work forms open with their first field uncovered and keep the focused field clear', async ({ page }) => {
   test.setTimeout(180_000);
   await signInAs(page, 'pruner@example.com');

@@ -2,8 +2,8 @@
 
 import { useTranslations } from 'next-intl';
 import { memberLabel, useCrew } from '@/components/tasks/use-crew';
-import { useFieldSettings } from '@/components/field/field-settings';
-import { budDeviationPercent, pruningCheckBuds } from '@/lib/viticulture';
+import { useFieldSettings, useVineSpacing } from '@/components/field/field-settings';
+import { budDeviationPercent, checkBudLoad, pruningCheckBuds } from '@/lib/viticulture';
 import type { FormValues } from '@/lib/units/observation';
 import { ChoiceField, CountField, NumberField, Reads, type FieldsProps } from './parts';
 
@@ -16,7 +16,10 @@ export function PruningRecordFields({ form, errors, imperial }: FieldsProps) {
       <CountField {...shared} name="budsPerCane" label={t('budsPerCane')} />
       <CountField {...shared} name="renewalSpurs" label={t('renewalSpurs')} />
       <NumberField {...shared} name="pruningWeightKg" label={t('pruningWeight')} unit={imperial ? 'lb' : 'kg'} />
-      <CountField {...shared} name="budTarget" label={t('budTarget')} />
+      <Reads>
+        <CountField {...shared} name="budTarget" label={t('budTarget')} />
+        <BudLoadNote target={form.watch('budTarget')} />
+      </Reads>
     </>
   );
 }
@@ -32,6 +35,7 @@ export function PruningCheckFields({ form, errors }: FieldsProps) {
       <CountField {...shared} name="renewalSpurs" label={t('renewalSpurs')} />
       <Reads>
         <CountField {...shared} name="budTarget" label={t('budTargetBlock')} />
+        <BudLoadNote target={form.watch('budTarget')} />
         <CheckFeedback values={form.watch()} />
       </Reads>
     </>
@@ -46,6 +50,33 @@ function CrewField({ form, errors }: Omit<FieldsProps, 'imperial'>) {
   const pruners = crew.data.filter((m) => m.role === 'pruner');
   const options = (pruners.length ? pruners : crew.data.filter((m) => m.role !== 'advisor')).map((m) => ({ value: m.userId, label: memberLabel(m) }));
   return <ChoiceField form={form} errors={errors} name="prunedBy" label={t('prunedBy')} options={options} />;
+}
+
+/**
+ * A bud target read against the row it fills (Ohio State, "2023 Grape Pruning Primer": about 4–6 buds
+ * per foot of vine spacing): far outside it, the target is more likely a slip than the vine's load.
+ */
+function BudLoadNote({ target }: { target: unknown }) {
+  const t = useTranslations('feedback');
+  const settings = useFieldSettings();
+  const spacing = useVineSpacing();
+  if (!spacing || typeof target !== 'number' || !Number.isInteger(target) || target <= 0) return null;
+  const load = checkBudLoad(target, spacing, settings);
+  if (load.reading === 'within') return null;
+  const { minBudsPerFt, maxBudsPerFt } = settings.budLoad;
+  return (
+    <p role="status" className="rounded-lg border-2 border-cut bg-cut-tint p-2 font-bold" data-testid="bud-load-note">
+      {t(load.reading === 'over' ? 'budLoadOver' : 'budLoadUnder', {
+        buds: target,
+        perFt: Math.round(load.budsPerFt * 10) / 10,
+        perM: Math.round(load.budsPerM * 10) / 10,
+        min: load.rangePerVine.min,
+        max: load.rangePerVine.max,
+        lowFt: minBudsPerFt,
+        highFt: maxBudsPerFt,
+      })}
+    </p>
+  );
 }
 
 function CheckFeedback({ values }: { values: FormValues }) {

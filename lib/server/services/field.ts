@@ -35,6 +35,7 @@ export async function fieldLayout(member: Member, blockId: string): Promise<Send
       rowCount: block.row_count,
       positionOrigin: block.position_origin,
       unitSystem: member.unitSystem,
+      vineSpacingM: Number(block.vine_spacing_m),
     },
     ...layout,
     sprays,
