@@ -14,8 +14,10 @@ interface BlockOption {
   id: string;
   name: string;
   vineCount: number;
-  /** The block's own judgement settings (settings screen), not the defaults. */
+  /** The spread of the block's weighed vines (last season's, else this season's), else its setting. */
   yieldCvPercent: number;
+  /** Where that spread comes from, in words. */
+  yieldCvFrom: string;
   sampleMarginPercent: number;
 }
 
@@ -86,7 +88,8 @@ export function PlanForm({ blocks }: { blocks: BlockOption[] }) {
                 {' · '}
                 <button type="button" className="underline" onClick={() => form.setValue('count', forYield)}>
                   {forYield} to estimate the mean yield a vine within ±{block?.sampleMarginPercent}% (vine yields varying by {block?.yieldCvPercent}%)
-                </button>
+                </button>{' '}
+                <span className="text-sm text-bark-soft">(spread from {block?.yieldCvFrom})</span>
               </>
             )}
             {' · '}

@@ -75,7 +75,22 @@ test("the sampling plan's yield suggestion uses the block's own vine-to-vine spr
     // correction n = n0 / (1 + (n0 − 1) / N) (Cochran, Sampling Techniques, 3rd ed., 1977, ch. 4; chapter from memory)
     // gives 8.64 / (1 + 7.64 / 500) = 8.51 → 9 vines. The default 30% spread would give 33.
     await expect(page.getByRole('button', { name: /^9 to estimate the mean yield a vine within ±10% \(vine yields varying by 15%\)/ })).toBeVisible();
+    await expect(page.getByText("(spread from the block's setting)")).toBeVisible();
+
+    // Eight vines weighed one by one: their own spread, 2.138 / 5 = 42.8%, replaces the setting.
+    // (1.96 × 42.8 / 10)² = 70.4; 70.4 / (1 + 69.4 / 500) = 61.8 → 62 vines.
+    for (const [i, kg] of [2, 4, 4, 4, 5, 5, 7, 9].entries()) {
+      const res = await page.request.post('/api/measurements', {
+        data: { blockId: wide.id, kind: 'yield', row: 1, position: i + 1, weight: kg, weightUnit: 'kg', clusters: null, measuredOn: '2026-09-18' },
+      });
+      expect(res.status()).toBe(201);
+    }
+    await page.reload();
+    await page.getByLabel('Block').selectOption({ label: `${wide.name} (500 vines)` });
+    await expect(page.getByRole('button', { name: /^62 to estimate the mean yield a vine within ±10% \(vine yields varying by 42.8%\)/ })).toBeVisible();
+    await expect(page.getByText(/\(spread from 8 single-vine yields of 20\d\d\)/)).toBeVisible();
   } finally {
+    await testDb()('measurements').where({ block_id: wide.id }).delete();
     await testDb()('blocks').where({ id: wide.id }).delete();
   }
 });

@@ -4,6 +4,7 @@ import { ravazWorking } from '@/lib/reports/block/balance';
 import { adjustForBudInjury, killWorking } from '@/lib/reports/block/bud-injury';
 import { targetWorking } from '@/lib/reports/block/bud-load';
 import { budbreakWorking } from '@/lib/reports/block/budbreak';
+import { measuredYieldSpread } from '@/lib/reports/block/crop';
 import { shareWorking } from '@/lib/reports/block/common';
 import { SOURCES } from '@/lib/reports/block/sources';
 import { cropEstimate, labourEstimate, labourWorking } from '@/lib/reports/estimates';
@@ -215,5 +216,26 @@ describe('the block report in words', () => {
         .flatMap(({ path, text }) => codeWords(text).map((w) => `${path}: ${w}`));
       expect(leaks).toEqual([]);
     }
+  });
+});
+
+describe('the measured spread of vine yields, for the yield sample', () => {
+  // 2, 4, 4, 4, 5, 5, 7, 9: sample standard deviation 2.138 over a mean of 5 (the textbook set; from memory) = 42.76%.
+  const weighed = [2, 4, 4, 4, 5, 5, 7, 9];
+
+  it("takes last season's single-vine yields first", () => {
+    const spread = measuredYieldSpread((s) => (s === 2025 ? weighed : [1, 1, 1, 1, 9]), 2026);
+    expect(spread?.season).toBe(2025);
+    expect(spread?.vines).toBe(8);
+    expect(spread?.cvPercent).toBeCloseTo(42.76, 2);
+  });
+
+  it("takes this season's pilot sample when last season weighed fewer than five vines", () => {
+    expect(measuredYieldSpread((s) => (s === 2025 ? [3, 4, 5, 6] : weighed), 2026)).toMatchObject({ season: 2026, vines: 8 });
+  });
+
+  it('gives none when neither season weighed five vines, so the setting stands', () => {
+    expect(measuredYieldSpread((s) => (s === 2025 ? [3, 4] : [5, 6, 7, 8]), 2026)).toBeNull();
+    expect(measuredYieldSpread(() => [0, 0, 0, 0, 0], 2026)).toBeNull();
   });
 });

@@ -5,17 +5,19 @@ import { memberForPage } from '@/lib/server/auth/guard';
 import { db } from '@/lib/server/db';
 import { countSlotsByBlock, listBlocks } from '@/lib/server/queries/blocks';
 import { listSamplingPlans } from '@/lib/server/queries/sampling-plans';
+import { measuredYieldSpreads } from '@/lib/server/services/sampling-plans';
 import { settingsForBlocks } from '@/lib/server/services/settings';
 
 export const metadata: Metadata = { title: 'Sampling plans' };
 
 export default async function PlansPage() {
   const member = await memberForPage();
-  const [blocks, counts, plans, settingsOf] = await Promise.all([
+  const [blocks, counts, plans, settingsOf, spreads] = await Promise.all([
     listBlocks(db(), member.organisationId),
     countSlotsByBlock(db(), member.organisationId),
     listSamplingPlans(db(), member.organisationId),
     settingsForBlocks(db(), member.organisationId),
+    measuredYieldSpreads(member),
   ]);
   const names = new Map(blocks.map((b) => [b.id, b.name]));
   const vineCount = (id: string) => {
@@ -37,7 +39,15 @@ export default async function PlansPage() {
           <PlanForm
             blocks={blocks.map((b) => {
               const { yieldCvPercent, sampleMarginPercent } = settingsOf(b.id).crop;
-              return { id: b.id, name: b.name, vineCount: vineCount(b.id), yieldCvPercent, sampleMarginPercent };
+              const measured = spreads.get(b.id);
+              return {
+                id: b.id,
+                name: b.name,
+                vineCount: vineCount(b.id),
+                yieldCvPercent: measured ? Number(measured.cvPercent.toFixed(1)) : yieldCvPercent,
+                yieldCvFrom: measured ? `${measured.vines} single-vine yields of ${measured.season}` : "the block's setting",
+                sampleMarginPercent,
+              };
             })}
           />
         </section>

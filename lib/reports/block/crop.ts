@@ -107,22 +107,33 @@ function cropBudbreak(input: BlockReportInput, s: ViticultureSettings, entered: 
 }
 
 // Fewer than five vines say little about the spread; the default is safer then.
-const MIN_CV_VINES = 5;
+export const MIN_CV_VINES = 5;
+
+/**
+ * The spread of a block's vine yields: last season's single-vine yields, else this season's (a
+ * pilot sample), when at least five vines were weighed; null when neither was.
+ */
+export function measuredYieldSpread(
+  yieldsOf: (season: number) => readonly number[],
+  season: number,
+): { cvPercent: number; vines: number; season: number } | null {
+  for (const s of [season - 1, season]) {
+    const yields = yieldsOf(s);
+    if (yields.length >= MIN_CV_VINES && yields.some((y) => y > 0))
+      return { cvPercent: coefficientOfVariationPercent(yields), vines: yields.length, season: s };
+  }
+  return null;
+}
 
 /** Vines to weigh for a crop estimate, from the CV of vine yields: last season's, else this season's, else the default. */
 function cropSampling(input: BlockReportInput, s: ViticultureSettings, bearing: number): CropSampling {
   const perVine = (season: number) =>
     input.measurements.filter((m) => m.kind === 'yield' && m.season === season && m.position !== null && m.vines > 0).map((m) => m.weightKg / m.vines);
-  let cvPercent = s.crop.yieldCvPercent;
-  let cvSource = `a default of ${s.crop.yieldCvPercent}% (from memory); weigh at least ${MIN_CV_VINES} single vines for the block's own`;
-  for (const season of [input.season - 1, input.season]) {
-    const yields = perVine(season);
-    if (yields.length >= MIN_CV_VINES && yields.some((y) => y > 0)) {
-      cvPercent = coefficientOfVariationPercent(yields);
-      cvSource = `the spread of ${formatCount(yields.length)} single-vine yields of ${season} (standard deviation ÷ mean)`;
-      break;
-    }
-  }
+  const measured = measuredYieldSpread(perVine, input.season);
+  const cvPercent = measured?.cvPercent ?? s.crop.yieldCvPercent;
+  const cvSource = measured
+    ? `the spread of ${formatCount(measured.vines)} single-vine yields of ${measured.season} (standard deviation ÷ mean)`
+    : `a default of ${s.crop.yieldCvPercent}% (from memory); weigh at least ${MIN_CV_VINES} single vines for the block's own`;
   const marginPercent = s.crop.sampleMarginPercent;
   const vines = sampleSizeForMean(cvPercent, marginPercent, 0.95, bearing > 0 ? bearing : undefined);
   const raw = ((1.96 * cvPercent) / marginPercent) ** 2;

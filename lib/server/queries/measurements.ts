@@ -60,3 +60,18 @@ export function listMeasurements(db: Db, organisationId: string, blockId: string
 export function deleteMeasurement(db: Db, organisationId: string, id: string) {
   return db('measurements').where({ organisation_id: organisationId, id }).delete();
 }
+
+/** The organisation's single-vine yields in a period, per vine, for the spread of vine yields. */
+export function listSingleVineYields(
+  db: Db,
+  organisationId: string,
+  period: SeasonBounds,
+): Promise<{ blockId: string; kgPerVine: number; measuredOn: string }[]> {
+  return db('measurements as m')
+    .where({ 'm.organisation_id': organisationId, 'm.kind': 'yield' })
+    .whereNotNull('m.position_id')
+    .andWhere('m.vines', '>', 0)
+    .andWhere('m.measured_on', '>=', period.from.slice(0, 10))
+    .andWhere('m.measured_on', '<', period.to.slice(0, 10))
+    .select({ blockId: 'm.block_id', kgPerVine: db.raw('m.weight_kg::float8 / m.vines'), measuredOn: db.raw(`to_char(m.measured_on, 'YYYY-MM-DD')`) });
+}

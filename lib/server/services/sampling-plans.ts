@@ -5,7 +5,10 @@ import type { Member } from '@/lib/server/auth/guard';
 import { db } from '@/lib/server/db';
 import { AppError } from '@/lib/server/errors';
 import { getBlock, listPositions } from '@/lib/server/queries/blocks';
+import { listSingleVineYields } from '@/lib/server/queries/measurements';
 import { insertSamplingPlan, listSamplingPlans } from '@/lib/server/queries/sampling-plans';
+import { measuredYieldSpread } from '@/lib/reports/block/crop';
+import { seasonBounds, seasonOf } from '@/lib/reports/season';
 import type { samplingPlanSchema } from '@/lib/validation/sampling-plan';
 import { samplingPlan } from '@/lib/viticulture';
 
@@ -38,4 +41,26 @@ export async function createSamplingPlan(member: Member, input: z.infer<typeof s
     createdBy: member.userId,
   });
   return { id, name: input.name, seed, count: addresses.length, addresses };
+}
+
+/**
+ * Each block's measured spread of vine yields for the plan form's yield suggestion: last season's
+ * single-vine yields, else this season's; blocks with fewer than five weighed vines are left out.
+ */
+export async function measuredYieldSpreads(member: Member, now = new Date()) {
+  const season = seasonOf(now, member.seasonStartMonth);
+  const period = { from: seasonBounds(season - 1, member.seasonStartMonth).from, to: seasonBounds(season, member.seasonStartMonth).to };
+  const bySeason = new Map<string, Map<number, number[]>>();
+  for (const y of await listSingleVineYields(db(), member.organisationId, period)) {
+    const seasons = bySeason.get(y.blockId) ?? new Map<number, number[]>();
+    const s = seasonOf(`${y.measuredOn}T12:00:00Z`, member.seasonStartMonth);
+    seasons.set(s, [...(seasons.get(s) ?? []), y.kgPerVine]);
+    bySeason.set(y.blockId, seasons);
+  }
+  const spreads = new Map<string, { cvPercent: number; vines: number; season: number }>();
+  for (const [blockId, seasons] of bySeason) {
+    const spread = measuredYieldSpread((s) => seasons.get(s) ?? [], season);
+    if (spread) spreads.set(blockId, spread);
+  }
+  return spreads;
 }
