@@ -6,8 +6,6 @@ import { Notice } from '@/components/ui/field';
 import { apiGet } from '@/lib/api-client';
 import type { BlockList, BlockSummary } from '@/lib/contracts/blocks';
 
-export type { BlockSummary };
-
 /** `initial` is the page's own render of the list, so the blocks show in the first paint. */
 export function FieldBlockList({ initial }: { initial?: BlockSummary[] }) {
   const t = useTranslations('field');

@@ -1,7 +1,7 @@
 // Crop estimates and vine balance (Ravaz index).
 import { requireFraction, requireNonNegative, requirePositive } from './check';
 import type { GrapeType } from './pruning';
-import { resolveSettings, type SettingsOverride } from './settings';
+import { DEFAULT_SETTINGS, resolveSettings, type SettingsOverride } from './settings';
 import { KG_PER_LB, acToHa } from './units';
 
 /** 2000 lb, exactly 907.18474 kg. */
@@ -91,8 +91,8 @@ export type RavazReading = 'under-cropped' | 'balanced' | 'over-cropped';
  * LERGP, "Vine Size: Magic Number 15" ("a Ravaz Index > 20 ... overcropped", "< 10 ... undercropped").
  */
 export const RAVAZ_PRESETS = Object.freeze({
-  vinifera: Object.freeze({ underBelow: 5, overAbove: 10 }),
-  concord: Object.freeze({ underBelow: 10, overAbove: 20 }),
+  vinifera: DEFAULT_SETTINGS.ravaz,
+  concord: DEFAULT_SETTINGS.ravazAmerican,
 });
 
 /** Ravaz targets with a published single value: Concord 15 (Bates, "Vine Size: Magic Number 15"). */
@@ -104,9 +104,12 @@ export const RAVAZ_TARGETS = Object.freeze({ concord: 15 });
  * type against `settings.ravaz` (vinifera 5–10). No published range was found for Niagara, Catawba,
  * Delaware or the hybrids: a block of those sets its own range where its adviser has one.
  */
+/** Concord and Ohio State's Concord-type "American" row: the grapes Bates's range is for. */
+export const isConcordType = (grapeType: GrapeType | null | undefined) => grapeType === 'concord' || grapeType === 'american';
+
 export function ravazRangeFor(grapeType: GrapeType | null | undefined, settings?: SettingsOverride): { underBelow: number; overAbove: number } {
   const resolved = resolveSettings(settings);
-  return { ...(grapeType === 'concord' || grapeType === 'american' ? resolved.ravazAmerican : resolved.ravaz) };
+  return { ...(isConcordType(grapeType) ? resolved.ravazAmerican : resolved.ravaz) };
 }
 
 /**

@@ -33,6 +33,7 @@ export {
   cropLoadTargetKg,
   harvestClusterWeightG,
   ravazRangeFor,
+  isConcordType,
   estimateCropKg,
   estimateCrop,
   cropShortTonsPerAcre,

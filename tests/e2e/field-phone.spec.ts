@@ -143,6 +143,7 @@ test('a bud target far over the row it fills is questioned beside the field, one
     '80 buds a vine is 17.4 a foot of row (57.1 a metre): more than the 4–6 a foot (18–28 a vine) published for this spacing. Check the target.',
   );
   await expect(form.getByTestId('bud-load-note')).toBeInViewport({ ratio: 1 });
+  await expectAccessible(page);
   await target.fill('24');
   await expect(form.getByTestId('bud-load-note')).toHaveCount(0);
   await target.fill('10');

@@ -3,7 +3,7 @@
  * at the next winter's pruning: vintage V uses yields of season V and pruning weights of season
  * V + 1. Vines pair with vines and row samples with row samples of the same row.
  */
-import { ravazIndex, ravazRangeFor, readRavaz, type GrapeType, type RavazReading, type ViticultureSettings } from '@/lib/viticulture';
+import { isConcordType, ravazIndex, ravazRangeFor, readRavaz, type GrapeType, type RavazReading, type ViticultureSettings } from '@/lib/viticulture';
 import type { UnitSystem } from '@/lib/units';
 import { formatCount, formatNumber, formatWeightKg } from '../format';
 import { formulaFor, pruningWeights, vineKey, type Figure } from './common';
@@ -77,7 +77,7 @@ export function ravazWorking(yieldKgPerVine: number, pruningKgPerVine: number, r
 /** The range a block's index is read against, and where the published one comes from. */
 export function ravazSource(grapeType: GrapeType | null, range: { underBelow: number; overAbove: number }): string {
   const used = `${range.underBelow}–${range.overAbove}`;
-  return grapeType === 'concord' || grapeType === 'american'
+  return isConcordType(grapeType)
     ? `Concord-type grapes: ${used}; published 10–20, balanced near 15 (${SOURCES.ravazConcord})`
     : `${grapeType ?? 'the block'}: ${used}; published 5–10 for vinifera (${SOURCES.ravazVinifera})`;
 }
@@ -126,7 +126,7 @@ export function ravazFor(input: BlockReportInput, vintage: number, s: Viticultur
       text: formatNumber(index),
       how: `Fruit weight over the weight of the one-year wood that grew with it: ${ravazWorking(meanYield, meanPruning, range)}`,
       from: `mean yield and mean pruning weight per vine over ${formatCount(vines)} vines weighed at the ${vintage} harvest and at the ${vintage + 1} winter pruning (${formatCount(paired.length)} vines or row samples)`,
-      source: grapeType === 'concord' || grapeType === 'american' ? SOURCES.ravazConcord : SOURCES.ravazVinifera,
+      source: isConcordType(grapeType) ? SOURCES.ravazConcord : SOURCES.ravazVinifera,
     },
     reading: read(index),
     readings,

@@ -6,6 +6,7 @@ import {
   budbreakPercent,
   coefficientOfVariationPercent,
   cropLoadTargetKg,
+  isConcordType,
   isWeakBudbreak,
   RAVAZ_TARGETS,
   ravazRangeFor,
@@ -107,7 +108,7 @@ function cropBudbreak(input: BlockReportInput, s: ViticultureSettings, entered: 
 }
 
 // Fewer than five vines say little about the spread; the default is safer then.
-export const MIN_CV_VINES = 5;
+const MIN_CV_VINES = 5;
 
 /**
  * The spread of a block's vine yields: last season's single-vine yields, else this season's (a
@@ -164,7 +165,7 @@ function cropLoadTarget(input: BlockReportInput, s: ViticultureSettings): CropLo
   const pruningKgPerVine = kg / vines;
   const { grapeType } = formulaFor(input.options, s);
   const range = ravazRangeFor(grapeType, s);
-  const target = grapeType === 'concord' || grapeType === 'american' ? RAVAZ_TARGETS.concord : null;
+  const target = isConcordType(grapeType) ? RAVAZ_TARGETS.concord : null;
   const low = cropLoadTargetKg(pruningKgPerVine, Math.max(range.underBelow, Number.EPSILON));
   const high = cropLoadTargetKg(pruningKgPerVine, range.overAbove);
   const p = formatNumber(pruningKgPerVine, 2);

@@ -54,7 +54,9 @@ export async function measuredYieldSpreads(member: Member, now = new Date()) {
   for (const y of await listSingleVineYields(db(), member.organisationId, period)) {
     const seasons = bySeason.get(y.blockId) ?? new Map<number, number[]>();
     const s = seasonOf(`${y.measuredOn}T12:00:00Z`, member.seasonStartMonth);
-    seasons.set(s, [...(seasons.get(s) ?? []), y.kgPerVine]);
+    const yields = seasons.get(s) ?? [];
+    yields.push(y.kgPerVine);
+    seasons.set(s, yields);
     bySeason.set(y.blockId, seasons);
   }
   const spreads = new Map<string, { cvPercent: number; vines: number; season: number }>();
