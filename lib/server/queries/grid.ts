@@ -191,13 +191,13 @@ function summaryCells(organisationId: string, blockId: string, order: string, f:
       from (
         select vp.row_number, vp.position, vp.status, ((g.open_levels | g.closed_levels) & ${LOOKED_MASK}) <> 0 as looked,
           ${worst} as worst, ${kinds} as kinds
-        from vine_positions vp left join grid_vines g on g.position_id = vp.id and g.organisation_id = ?
+        from vine_positions vp left join grid_vines g on g.position_id = vp.id and g.organisation_id = ? and g.block_id = ?
         where vp.block_id = ?
       ) s
       group by row_number
     ) v on v.row_number = r.row_number
     where r.block_id = ?`;
-  return { sql, bindings: [...bindings, organisationId, blockId, blockId] };
+  return { sql, bindings: [...bindings, organisationId, blockId, blockId, blockId] };
 }
 
 const countsOf = (from: string) => `select coalesce(json_agg(json_build_array(kind, severity, n)), '[]') as counts from (${from}) c`;

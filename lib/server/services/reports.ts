@@ -1,4 +1,7 @@
 import 'server-only';
+import { createHash, randomUUID } from 'node:crypto';
+import { readdirSync, readFileSync } from 'node:fs';
+import path from 'node:path';
 import { can } from '@/lib/roles';
 import type { BlockReportResponse, EstateReportResponse } from '@/lib/reports/api';
 import { buildBlockReport, type BlockReport, type BlockReportInput } from '@/lib/reports/block-report';
@@ -28,6 +31,7 @@ import {
 import { loadRecordedLabour } from '@/lib/server/services/row-work';
 import { weightKg, type MeasurementInput, type MeasurementView } from '@/lib/validation/measurement';
 import type { ReportOptions } from '@/lib/validation/report';
+import { findSnapshots, saveSnapshot, type SnapshotLookup } from '@/lib/server/queries/report-snapshots';
 import { settingsForBlocks } from '@/lib/server/services/settings';
 import type { ViticultureSettings } from '@/lib/viticulture';
 
@@ -39,7 +43,7 @@ async function blockOf(database: Db, member: Member, blockId: string): Promise<B
   return block;
 }
 
-async function blockSeason(
+async function workOutBlockSeason(
   database: Db,
   member: Member,
   block: BlockRow,
@@ -94,6 +98,69 @@ async function blockSeason(
   return buildBlockReport(input);
 }
 
+/**
+ * The code that turns records into a report, by content: a snapshot made by other code is not
+ * used. Read from the sources beside the running server; without them each process keeps its own.
+ */
+let codeVersion: string | undefined;
+function reportCode() {
+  if (codeVersion) return codeVersion;
+  try {
+    const hash = createHash('sha256');
+    const walk = (dir: string) => {
+      for (const entry of readdirSync(dir, { withFileTypes: true }).sort((a, b) => a.name.localeCompare(b.name))) {
+        const file = path.join(dir, entry.name);
+        if (entry.isDirectory()) walk(file);
+        else if (/\.tsx?$/.test(entry.name)) hash.update(file).update(readFileSync(file));
+      }
+    };
+    walk(path.join(process.cwd(), 'lib'));
+    codeVersion = hash.digest('hex');
+  } catch {
+    codeVersion = randomUUID();
+  }
+  return codeVersion;
+}
+
+interface SeasonAsk {
+  block: BlockRow;
+  season: number;
+  options: ReportOptions;
+  settings: ViticultureSettings;
+}
+
+/** Everything a block's season report depends on besides the records its revision counts. */
+function snapshotKey(member: Member, ask: SeasonAsk): SnapshotLookup {
+  const key = createHash('sha256')
+    .update(JSON.stringify([reportCode(), member.unitSystem, member.seasonStartMonth, ask.block, ask.options, ask.settings]))
+    .digest('hex');
+  return { blockId: ask.block.id, season: ask.season, key };
+}
+
+/**
+ * Blocks' season reports, each from its snapshot while the block has not changed since (see
+ * db/migrations/20261205-01-report-snapshots.ts), else worked out from the records and kept.
+ * Those to work out go a few at a time, each running its queries side by side, so an estate of
+ * many blocks neither waits for them one by one nor takes the whole pool.
+ */
+async function blockSeasons(database: Db, member: Member, asks: SeasonAsk[]): Promise<BlockReport[]> {
+  const lookups = asks.map((ask) => snapshotKey(member, ask));
+  const found = await findSnapshots(database, lookups);
+  const reports = found.map((f) => f.report);
+  const missing = asks.flatMap((ask, i) => (reports[i] ? [] : [i]));
+  for (let at = 0; at < missing.length; at += BLOCKS_AT_ONCE) {
+    await Promise.all(
+      missing.slice(at, at + BLOCKS_AT_ONCE).map(async (i) => {
+        const { block, season, options, settings } = asks[i]!;
+        const report = await workOutBlockSeason(database, member, block, season, options, settings);
+        await saveSnapshot(database, { ...lookups[i]!, revision: found[i]!.revision, report });
+        reports[i] = report;
+      }),
+    );
+  }
+  return reports as BlockReport[];
+}
+
 /** A block's season report, with the season before (or the one asked for) side by side. */
 export async function loadBlockReport(member: Member, blockId: string, options: ReportOptions, now = new Date()): Promise<BlockReportResponse> {
   const database = db();
@@ -103,38 +170,37 @@ export async function loadBlockReport(member: Member, blockId: string, options: 
   const season = options.season ?? defaultSeason(seasons, now, month);
   const previous = options.compare === 'none' ? null : (options.compare ?? season - 1);
   const settings = (await settingsForBlocks(database, member.organisationId, [block.id]))(block.id);
-  const report = await blockSeason(database, member, block, season, options, settings);
-  let comparison: Comparison | null = null;
+  const { season: _s, compare: _c, ...inputs } = options;
+  const asks: SeasonAsk[] = [{ block, season, options: inputs, settings }];
   if (previous !== null && previous !== season) {
     // The other season is read from its own records; only the inputs a person chose carry over.
-    const { budsPerVine: _b, budbreakPercent: _p, budTarget: _t, ...shared } = options;
-    const [before, persisted] = await Promise.all([
-      blockSeason(database, member, block, previous, shared, settings),
-      listPersistedProblems(database, member.organisationId, block.id, seasonBounds(season, month), seasonBounds(previous, month)),
-    ]);
-    comparison = compareReports(report, before, persisted);
+    const { budsPerVine: _b, budbreakPercent: _p, budTarget: _t, ...shared } = inputs;
+    asks.push({ block, season: previous, options: shared, settings });
   }
-  return { report, comparison, seasons };
+  const [[report, before], persisted] = await Promise.all([
+    blockSeasons(database, member, asks),
+    asks.length > 1
+      ? listPersistedProblems(database, member.organisationId, block.id, seasonBounds(season, month), seasonBounds(previous!, month))
+      : Promise.resolve(null),
+  ]);
+  const comparison: Comparison | null = before && persisted ? compareReports(report!, before, persisted) : null;
+  return { report: report!, comparison, seasons };
 }
 
 const BLOCKS_AT_ONCE = 2;
 
-/**
- * Every active block's season. Each block runs its queries side by side, so blocks go a few at a
- * time: an estate of many blocks neither waits for them one by one nor takes the whole pool.
- */
+/** Every active block's season. */
 export async function loadEstateReport(member: Member, options: ReportOptions, now = new Date()): Promise<EstateReportResponse> {
   const database = db();
   const seasons = await listSeasons(database, member.organisationId, undefined, member.seasonStartMonth);
   const season = options.season ?? defaultSeason(seasons, now, member.seasonStartMonth);
-  const { budsPerVine: _b, budbreakPercent: _p, budTarget: _t, minutesPerVine: _m, ...shared } = options;
+  const { budsPerVine: _b, budbreakPercent: _p, budTarget: _t, minutesPerVine: _m, season: _s, compare: _c, ...shared } = options;
   const [all, settingsOf] = await Promise.all([listBlocks(database, member.organisationId), settingsForBlocks(database, member.organisationId)]);
-  const blocks: BlockReport[] = [];
-  for (let i = 0; i < all.length; i += BLOCKS_AT_ONCE) {
-    blocks.push(
-      ...(await Promise.all(all.slice(i, i + BLOCKS_AT_ONCE).map((block) => blockSeason(database, member, block, season, shared, settingsOf(block.id))))),
-    );
-  }
+  const blocks = await blockSeasons(
+    database,
+    member,
+    all.map((block) => ({ block, season, options: shared, settings: settingsOf(block.id) })),
+  );
   return { ...buildEstateReport(season, blocks), seasons };
 }
 
