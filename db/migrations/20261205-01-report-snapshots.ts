@@ -12,11 +12,18 @@ import type { Knex } from 'knex';
  *   used only while its block is still at that revision.
  */
 const BY_BLOCK = ['observations', 'measurements', 'tasks', 'row_work', 'flags', 'vine_positions', 'block_rows'];
-const BY_OTHER: [table: string, column: string, via: string][] = [
-  ['blocks', 'id', 'block'],
-  ['task_items', 'task_id', 'task'],
-  ['vines', 'position_id', 'position'],
+const BY_OTHER: [table: string, via: string][] = [
+  ['blocks', 'self'],
+  ['task_items', 'task'],
+  ['vines', 'slot'],
 ];
+/** The blocks a statement's rows (a transition table) belong to, as SQL. */
+const VIA: Record<string, (rows: string) => string> = {
+  block: (rows) => `select distinct block_id from ${rows}`,
+  self: (rows) => `select id from ${rows}`,
+  task: (rows) => `select distinct t.block_id from tasks t where t.id in (select task_id from ${rows})`,
+  slot: (rows) => `select distinct vp.block_id from vine_positions vp where vp.id in (select position_id from ${rows})`,
+};
 const OPS = [
   ['inserted', 'insert', 'new table as new_rows'],
   ['updated', 'update', 'old table as old_rows new table as new_rows'],
@@ -46,25 +53,22 @@ export async function up(knex: Knex) {
       on conflict (block_id) do update set revision = r.revision + 1
   $$`);
 
-  // Arguments: the column naming the row's block, task or vine, and which of them it names.
-  await knex.raw(`create function report_rows_changed() returns trigger language plpgsql as $$
-    declare keys uuid[] := '{}';
-    begin
-      if tg_op in ('INSERT', 'UPDATE') then
-        keys := keys || array(select (to_jsonb(n) ->> tg_argv[0])::uuid from new_rows n);
-      end if;
-      if tg_op in ('DELETE', 'UPDATE') then
-        keys := keys || array(select (to_jsonb(o) ->> tg_argv[0])::uuid from old_rows o);
-      end if;
-      perform report_revise(case tg_argv[1]
-        when 'block' then array(select distinct k from unnest(keys) k where k is not null)
-        when 'task' then array(select distinct t.block_id from tasks t where t.id = any(keys))
-        when 'position' then array(select distinct vp.block_id from vine_positions vp where vp.id = any(keys))
-      end);
-      return null;
-    end $$`);
-  for (const table of BY_BLOCK) await triggers(knex, table, 'block_id', 'block');
-  for (const [table, column, via] of BY_OTHER) await triggers(knex, table, column, via);
+  // One function per way a row names its block: in a column, by being one, through its task or its slot.
+  for (const [via, blocksOf] of Object.entries(VIA)) {
+    await knex.raw(`create function report_rows_changed_${via}() returns trigger language plpgsql as $$
+      begin
+        if tg_op = 'INSERT' then
+          perform report_revise(array(${blocksOf('new_rows')}));
+        elsif tg_op = 'DELETE' then
+          perform report_revise(array(${blocksOf('old_rows')}));
+        else
+          perform report_revise(array(${blocksOf('new_rows')} union ${blocksOf('old_rows')}));
+        end if;
+        return null;
+      end $$`);
+  }
+  for (const table of BY_BLOCK) await triggers(knex, table, 'block');
+  for (const [table, via] of BY_OTHER) await triggers(knex, table, via);
 
   // Pay rates and season start are the organisation's; names of people appear beside tasks and work.
   await knex.raw(`create function report_organisation_changed() returns trigger language plpgsql as $$
@@ -95,10 +99,10 @@ export async function up(knex: Knex) {
   }
 }
 
-async function triggers(knex: Knex, table: string, column: string, via: string) {
+async function triggers(knex: Knex, table: string, via: string) {
   for (const [name, op, referencing] of OPS) {
     await knex.raw(`create trigger report_${table}_${name} after ${op} on ${table}
-      referencing ${referencing} for each statement execute function report_rows_changed('${column}', '${via}')`);
+      referencing ${referencing} for each statement execute function report_rows_changed_${via}()`);
   }
 }
 
@@ -109,7 +113,8 @@ export async function down(knex: Knex) {
   }
   await knex.raw('drop trigger if exists report_organisation_changed on organisations');
   await knex.raw('drop trigger if exists report_person_renamed on users');
-  for (const fn of ['report_rows_changed()', 'report_organisation_changed()', 'report_person_renamed()', 'report_rows_truncated()', 'report_revise(uuid[])']) {
+  for (const via of Object.keys(VIA)) await knex.raw(`drop function if exists report_rows_changed_${via}()`);
+  for (const fn of ['report_organisation_changed()', 'report_person_renamed()', 'report_rows_truncated()', 'report_revise(uuid[])']) {
     await knex.raw(`drop function if exists ${fn}`);
   }
   await knex.raw('drop table if exists report_snapshots');

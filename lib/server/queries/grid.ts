@@ -109,8 +109,8 @@ function observationMatch(organisationId: string, blockId: string, f: GridFilter
  * when the row has gaps (rows normally run 1…last), and the last position.
  */
 const SLOT_COLUMNS = `
-  json_agg(position * 4 + case status when 'replant' then 1 when 'missing' then 2 else 3 end order by position) filter (where status <> 'planted') as slots,
-  case when count(*) = max(position) then null else json_agg(position order by position) end as present,
+  json_agg(position * 4 + case status when 'replant' then 1 when 'missing' then 2 else 3 end) filter (where status <> 'planted') as slots,
+  case when count(*) = max(position) then null else json_agg(position) end as present,
   max(position) as last`;
 
 /**
@@ -128,8 +128,8 @@ function observationCells(organisationId: string, blockId: string, order: string
     from block_rows r
     left join (select row_number, ${SLOT_COLUMNS} from vine_positions where block_id = ? group by row_number) sl on sl.row_number = r.row_number
     cross join lateral (
-      select json_agg(position * 4 + worst order by position) filter (where worst is not null) as worst,
-        json_agg(position * 65536 + kinds order by position) filter (where kinds is not null) as kinds,
+      select json_agg(position * 4 + worst) filter (where worst is not null) as worst,
+        json_agg(position * 65536 + kinds) filter (where kinds is not null) as kinds,
         count(*) filter (where looked)::int as scouted
       from (
         select position,
@@ -185,12 +185,13 @@ function summaryCells(organisationId: string, blockId: string, order: string, f:
     from block_rows r
     left join (
       select row_number, ${SLOT_COLUMNS},
-        json_agg(position * 4 + worst order by position) filter (where worst is not null) as worst,
-        json_agg(position * 65536 + kinds order by position) filter (where kinds is not null) as kinds,
+        json_agg(position * 4 + worst) filter (where worst is not null) as worst,
+        json_agg(position * 65536 + kinds) filter (where kinds is not null) as kinds,
         count(*) filter (where looked)::int as scouted
       from (
         select vp.row_number, vp.position, vp.status, ((g.open_levels | g.closed_levels) & ${LOOKED_MASK}) <> 0 as looked,
           ${worst} as worst, ${kinds} as kinds
+        -- By block as well as slot, so the block's own index is read, not every vine of the organisation.
         from vine_positions vp left join grid_vines g on g.position_id = vp.id and g.organisation_id = ? and g.block_id = ?
         where vp.block_id = ?
       ) s
