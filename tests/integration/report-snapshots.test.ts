@@ -72,6 +72,14 @@ beforeAll(async () => {
 });
 
 describe('kept block reports', () => {
+  it('answers from a kept report exactly what it answered when it worked the report out', async () => {
+    await syncObservation(1, 5);
+    const read = async () => (await manager.fetch(`/api/reports?season=${SEASON}`)).json();
+    const workedOut = await read();
+    expect(Number((await testDb()('report_snapshots').where({ block_id: block.id }).count({ n: '*' }))[0]!.n)).toBeGreaterThan(0);
+    expect(await read()).toEqual(workedOut);
+  });
+
   it('reads an unchanged block from its kept report, and works it out again after a record syncs', async () => {
     await markKept();
     const before = (await estate()).get(block.id)!.scouting.vinesScouted;
