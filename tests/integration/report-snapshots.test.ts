@@ -54,10 +54,21 @@ async function expectWorkedOutAgain() {
   return read.get(block.id)!;
 }
 
-async function syncObservation(row: number, position: number, kind = 'weak-budbreak', data: object = { budsRetained: 28, budsPushed: 9 }) {
+async function syncObservation(row: number, position: number) {
   const id = randomUUID();
   const res = await manager.json('/api/sync', 'POST', {
-    observations: [{ id, blockId: block.id, row, position, kind, data, note: '', observedAt: `${SEASON}-07-01T09:00:00Z` }],
+    observations: [
+      {
+        id,
+        blockId: block.id,
+        row,
+        position,
+        kind: 'weak-budbreak',
+        data: { budsRetained: 28, budsPushed: 9 },
+        note: '',
+        observedAt: `${SEASON}-07-01T09:00:00Z`,
+      },
+    ],
   });
   expect((await res.json()).results[0]).toMatchObject({ status: 'created' });
   return id;

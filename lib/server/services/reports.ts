@@ -1,6 +1,6 @@
 import 'server-only';
 import { createHash, randomUUID } from 'node:crypto';
-import { readdirSync, readFileSync } from 'node:fs';
+import { readdir, readFile } from 'node:fs/promises';
 import path from 'node:path';
 import { can } from '@/lib/roles';
 import type { BlockReportResponse, EstateReportResponse } from '@/lib/reports/api';
@@ -102,25 +102,23 @@ async function workOutBlockSeason(
  * The code that turns records into a report, by content: a snapshot made by other code is not
  * used. Read from the sources beside the running server; without them each process keeps its own.
  */
-let codeVersion: string | undefined;
+let codeVersion: Promise<string> | undefined;
 function reportCode() {
-  if (codeVersion) return codeVersion;
-  try {
-    const hash = createHash('sha256');
-    const walk = (dir: string) => {
-      for (const entry of readdirSync(dir, { withFileTypes: true }).sort((a, b) => a.name.localeCompare(b.name))) {
-        const file = path.join(dir, entry.name);
-        if (entry.isDirectory()) walk(file);
-        else if (/\.tsx?$/.test(entry.name)) hash.update(file).update(readFileSync(file));
-      }
-    };
-    walk(path.join(process.cwd(), 'lib'));
-    codeVersion = hash.digest('hex');
-  } catch {
-    codeVersion = randomUUID();
-  }
+  codeVersion ??= (async () => {
+    try {
+      const dir = path.join(process.cwd(), 'lib');
+      const files = (await readdir(dir, { recursive: true })).filter((f) => /\.tsx?$/.test(f)).sort();
+      const hash = createHash('sha256');
+      for (const file of files) hash.update(file).update(await readFile(path.join(dir, file)));
+      return hash.digest('hex');
+    } catch {
+      return randomUUID();
+    }
+  })();
   return codeVersion;
 }
+
+const BLOCKS_AT_ONCE = 2;
 
 interface SeasonAsk {
   block: BlockRow;
@@ -130,9 +128,9 @@ interface SeasonAsk {
 }
 
 /** Everything a block's season report depends on besides the records its revision counts. */
-function snapshotKey(member: Member, ask: SeasonAsk): SnapshotLookup {
+function snapshotKey(member: Member, ask: SeasonAsk, code: string): SnapshotLookup {
   const key = createHash('sha256')
-    .update(JSON.stringify([reportCode(), member.unitSystem, member.seasonStartMonth, ask.block, ask.options, ask.settings]))
+    .update(JSON.stringify([code, member.unitSystem, member.seasonStartMonth, ask.block, ask.options, ask.settings]))
     .digest('hex');
   return { blockId: ask.block.id, season: ask.season, key };
 }
@@ -144,7 +142,8 @@ function snapshotKey(member: Member, ask: SeasonAsk): SnapshotLookup {
  * many blocks neither waits for them one by one nor takes the whole pool.
  */
 async function blockSeasons(database: Db, member: Member, asks: SeasonAsk[]): Promise<BlockReport[]> {
-  const lookups = asks.map((ask) => snapshotKey(member, ask));
+  const code = await reportCode();
+  const lookups = asks.map((ask) => snapshotKey(member, ask, code));
   const found = await findSnapshots(database, lookups);
   const reports = found.map((f) => f.report);
   const missing = asks.flatMap((ask, i) => (reports[i] ? [] : [i]));
@@ -153,7 +152,10 @@ async function blockSeasons(database: Db, member: Member, asks: SeasonAsk[]): Pr
       missing.slice(at, at + BLOCKS_AT_ONCE).map(async (i) => {
         const { block, season, options, settings } = asks[i]!;
         const report = await workOutBlockSeason(database, member, block, season, options, settings);
-        await saveSnapshot(database, { ...lookups[i]!, revision: found[i]!.revision, report });
+        // A report that could not be kept is still the right answer; the next read works it out again.
+        await saveSnapshot(database, { ...lookups[i]!, revision: found[i]!.revision, report }).catch((err: unknown) =>
+          console.error('A block report could not be kept', err),
+        );
         reports[i] = report;
       }),
     );
@@ -186,8 +188,6 @@ export async function loadBlockReport(member: Member, blockId: string, options: 
   const comparison: Comparison | null = before && persisted ? compareReports(report!, before, persisted) : null;
   return { report: report!, comparison, seasons };
 }
-
-const BLOCKS_AT_ONCE = 2;
 
 /** Every active block's season. */
 export async function loadEstateReport(member: Member, options: ReportOptions, now = new Date()): Promise<EstateReportResponse> {
