@@ -2,7 +2,7 @@
  * The figures beside the grid, from what the grid query returns: counts by kind and severity,
  * incidence per kind with its Wilson interval, the rows with the most problem vines, and slot counts.
  */
-import { cellLevel, cellSlot, SLOTS, type Slot } from '@/lib/grid/cells';
+import { LEVELS_PER_SLOT, SLOTS, type Slot } from '@/lib/grid/cells';
 import { isFindingKind } from '@/lib/labels';
 import { wilsonInterval, type ObservationKind, type ProportionInterval } from '@/lib/viticulture';
 
@@ -47,29 +47,30 @@ export interface GridSummary {
 }
 
 export const WORST_ROWS = 5;
+const NO_SLOT = SLOTS.indexOf('none');
 
 export function summariseGrid(rows: readonly number[], cells: readonly (readonly number[])[], kinds: readonly KindCounts[], vinesScouted: number): GridSummary {
-  const slots = Object.fromEntries(SLOTS.map((s) => [s, 0])) as Record<Slot, number>;
-  const byLevel = { watch: 0, act: 0, urgent: 0 };
+  // By index, not by label: a 22,500-vine block is read on every grid request.
+  const perSlot = SLOTS.map(() => 0);
+  // A cell's level is its severity + 1: 2 is "watch", 3 "act", 4 "act now".
+  const perLevel = [0, 0, 0, 0, 0];
   const perRow: RowProblems[] = [];
   cells.forEach((codes, i) => {
-    const row: RowProblems = { row: rows[i]!, problems: 0, urgent: 0 };
+    let problems = 0;
+    let urgent = 0;
     for (const code of codes) {
-      const slot = cellSlot(code);
-      if (slot === 'none') continue;
-      slots[slot]++;
-      const level = cellLevel(code);
-      if (level === null || level === 0) continue;
-      row.problems++;
-      if (level === 1) byLevel.watch++;
-      else if (level === 2) byLevel.act++;
-      else {
-        byLevel.urgent++;
-        row.urgent++;
-      }
+      const slot = (code / LEVELS_PER_SLOT) | 0;
+      if (slot >= NO_SLOT) continue;
+      const level = code % LEVELS_PER_SLOT;
+      perSlot[slot]!++;
+      perLevel[level]!++;
+      if (level >= 2) problems++;
+      if (level === 4) urgent++;
     }
-    if (row.problems) perRow.push(row);
+    if (problems) perRow.push({ row: rows[i]!, problems, urgent });
   });
+  const slots = Object.fromEntries(SLOTS.map((s, i) => [s, perSlot[i]!])) as Record<Slot, number>;
+  const byLevel = { watch: perLevel[2]!, act: perLevel[3]!, urgent: perLevel[4]! };
   perRow.sort((a, b) => b.problems - a.problems || b.urgent - a.urgent || a.row - b.row);
   const slotCount = SLOTS.reduce((sum, s) => (s === 'none' ? sum : sum + slots[s]), 0);
   return {
