@@ -1,3 +1,4 @@
+import { encode } from 'next-auth/jwt';
 import { afterAll, describe, expect, it } from 'vitest';
 import type { Role } from '@/lib/roles';
 import { closeTestDb, makeMember, makeOrganisation, makeTeam, PASSWORD } from '../helpers/fixtures';
@@ -25,6 +26,26 @@ describe('the server-side guard', () => {
       expect(res.status, `${method} ${path}`).toBe(401);
       expect((await res.json()).error.code).toBe('unauthenticated');
     }
+  });
+
+  it('takes the session only from its own cookie, signed with the server secret and not expired', async () => {
+    const team = await makeTeam();
+    const signedIn = await as(team.scout.email);
+    const name = 'next-auth.session-token';
+    const token = signedIn.cookie(name)!;
+    const secret = process.env.NEXTAUTH_SECRET!;
+    const claims = { sub: team.scout.id, uid: team.scout.id, email: team.scout.email };
+    const me = (headers: Record<string, string>) => fetch(new URL('/api/me', signedIn.base), { headers });
+
+    expect((await me({ cookie: `${name}=${token}` })).status).toBe(200);
+    // Made here with the server's secret: the control for the refusals below.
+    expect((await me({ cookie: `${name}=${await encode({ token: claims, secret })}` })).status).toBe(200);
+    expect((await me({ authorization: `Bearer ${token}` })).status).toBe(401);
+    const flipped = token.slice(0, -3) + (token.at(-3) === 'A' ? 'B' : 'A') + token.slice(-2);
+    expect((await me({ cookie: `${name}=${flipped}` })).status).toBe(401);
+    expect((await me({ cookie: `${name}=${await encode({ token: claims, secret: 'another-secret-another-secret-00' })}` })).status).toBe(401);
+    // Past next-auth's 15 s of clock tolerance.
+    expect((await me({ cookie: `${name}=${await encode({ token: claims, secret, maxAge: -60 })}` })).status).toBe(401);
   });
 
   // "manage team, invitations": manager only (roles table in DESIGN.md).

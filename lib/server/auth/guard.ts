@@ -1,10 +1,10 @@
 import 'server-only';
-import { getServerSession } from 'next-auth';
+import { getToken } from 'next-auth/jwt';
 import { cookies } from 'next/headers';
 import { redirect } from 'next/navigation';
 import { can, homeFor, type Permission, type Role } from '@/lib/roles';
-import { authOptions } from '@/lib/server/auth/options';
 import { db } from '@/lib/server/db';
+import { getEnv } from '@/lib/env';
 import { AppError } from '@/lib/server/errors';
 import type { MembershipView } from '@/lib/contracts/people';
 import { listMemberships } from '@/lib/server/queries/organisations';
@@ -25,21 +25,35 @@ export interface Member {
 }
 
 /**
+ * The signed-in person, from the session cookie's token alone. getServerSession runs next-auth's
+ * whole session endpoint for this, signing a fresh token that a server component then drops (it
+ * cannot set cookies): about 1.1 ms a request against 0.4 ms for reading the token.
+ */
+async function sessionUser(jar: Awaited<ReturnType<typeof cookies>>) {
+  const token = await getToken({
+    // Only the cookie: a bearer header is not a way in.
+    req: { cookies: Object.fromEntries(jar.getAll().map((c) => [c.name, c.value])), headers: {} } as Parameters<typeof getToken>[0]['req'],
+    secret: getEnv().NEXTAUTH_SECRET,
+  });
+  return typeof token?.uid === 'string' ? { id: token.uid, email: token.email ?? '', name: token.name ?? null } : null;
+}
+
+/**
  * Resolves session → person → current organisation → role, from the database on every call,
  * so a removed member or a changed role takes effect at once. Returns null when signed out.
  */
 export async function currentMember(): Promise<Member | null> {
-  const session = await getServerSession(authOptions());
-  const userId = session?.user?.id;
-  if (!userId) return null;
-  const memberships = await listMemberships(db(), userId);
+  const jar = await cookies();
+  const user = await sessionUser(jar);
+  if (!user) return null;
+  const memberships = await listMemberships(db(), user.id);
   if (memberships.length === 0) return null;
-  const wanted = (await cookies()).get(ORG_COOKIE)?.value;
+  const wanted = jar.get(ORG_COOKIE)?.value;
   const current = memberships.find((m) => m.organisationId === wanted) ?? memberships[0]!;
   return {
-    userId,
-    email: session.user.email ?? '',
-    name: session.user.name ?? null,
+    userId: user.id,
+    email: user.email,
+    name: user.name,
     organisationId: current.organisationId,
     organisationName: current.organisationName,
     unitSystem: current.unitSystem,
