@@ -12,7 +12,7 @@ import { Button } from '@/components/ui/button';
 import { Notice } from '@/components/ui/field';
 import { apiGet } from '@/lib/api-client';
 import type { GridResponse } from '@/lib/contracts/grid';
-import { cellLevel } from '@/lib/grid/cells';
+import { cellLevel, unpackRow } from '@/lib/grid/cells';
 import { describeRow, nextProblem } from '@/lib/grid/describe';
 import { datesInOrder, gridFiltersToSearch, readGridFilters, type GridFilters as Filters } from '@/lib/grid/filters';
 import { SEVERITY_LABELS } from '@/lib/grid/labels';
@@ -67,7 +67,7 @@ export function GridView({ block, people }: GridViewProps) {
   });
   const data = query.data;
   const rows = useMemo(() => data?.rows ?? [], [data]);
-  const cells = useMemo(() => data?.cells ?? [], [data]);
+  const cells = useMemo(() => data?.cells.map(unpackRow) ?? [], [data]);
   const rowIndex = useMemo(() => new Map(rows.map((n, i) => [n, i])), [rows]);
 
   const selected = address && rowIndex.has(address.row) ? { r: rowIndex.get(address.row)!, c: address.position - 1 } : null;

@@ -21,7 +21,8 @@ export interface GridResponse {
   block: GridBlock;
   filters: GridFilters;
   rows: number[];
-  cells: number[][];
+  /** One string per row, one letter per vine: lib/grid/cells.ts packRow. */
+  cells: string[];
   summary: GridSummary;
 }
 

@@ -1,5 +1,6 @@
 import { randomUUID } from 'node:crypto';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { unpackRow } from '@/lib/grid/cells';
 import { closeTestDb, makeBlock, makeTeam, PASSWORD, testDb } from '../helpers/fixtures';
 import { Client } from '../helpers/http';
 
@@ -206,14 +207,14 @@ describe('reading and closing flags', () => {
     };
     expect((await (await as.scout.json('/api/sync', 'POST', { observations: [observation] })).json()).results[0].status).toBe('created');
     const before = await (await as.manager.fetch(`/api/grid/${own.id}?flagged=1`)).json();
-    expect(before.cells[0][2] % 5).toBe(0);
+    expect(unpackRow(before.cells[0])[2]! % 5).toBe(0);
 
     const f = flag({ blockId: own.id, row: 1, position: 2, toPosition: 4, reason: 'lighter-bud-load', note: 'Weak push' });
     await results(as.pruner, [f]);
     const after = await (await as.manager.fetch(`/api/grid/${own.id}?flagged=1`)).json();
     // The flagged vine with a finding is coloured; unflagged vines stay blank.
-    expect(after.cells[0][2] % 5).toBe(4);
-    expect(after.cells[1].every((c: number) => c % 5 === 0)).toBe(true);
+    expect(unpackRow(after.cells[0])[2]! % 5).toBe(4);
+    expect(unpackRow(after.cells[1]).every((c) => c % 5 === 0)).toBe(true);
 
     const panel = await (await as.advisor.fetch(`/api/vines?block=${own.id}&row=1&position=3`)).json();
     expect(panel.flags).toEqual([expect.objectContaining({ id: f.id, text: 'Lighter bud load (vines 2–4): Weak push', by: team.pruner.name })]);

@@ -1,6 +1,7 @@
 import { randomUUID } from 'node:crypto';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { planVine, wilsonInterval } from '@/lib/viticulture';
+import { unpackRow } from '@/lib/grid/cells';
 import { closeTestDb, makeBlock, makeTeam, PASSWORD, testDb } from '../helpers/fixtures';
 import { Client } from '../helpers/http';
 
@@ -80,13 +81,17 @@ beforeAll(async () => {
 async function grid(query = '') {
   const res = await manager.fetch(`/api/grid/${block.id}${query}`);
   expect(res.status, await res.clone().text()).toBe(200);
-  return res.json();
+  const body = await res.json();
+  // Rows travel as one letter per vine; the tests read the codes.
+  return { ...body, wire: body.cells as string[], cells: (body.cells as string[]).map(unpackRow) };
 }
 
 describe('GET /api/grid/:blockId', () => {
   it('colours each vine by its worst open finding, with slots shown apart and short rows kept short', async () => {
     const body = await grid();
     expect(body.rows).toEqual([1, 2, 3]);
+    // 'A' + code: 1 → B, 4 → E, 13 → N, 9 → J.
+    expect(body.wire[0]).toBe('BEAANJ');
     expect(body.cells).toEqual([
       // v1 fine, v2 act now (trunk beats budbreak), v3 closed so blank, v4 blank, v5 missing slot acting, v6 replant act now
       [1, 4, 0, 0, 13, 9],

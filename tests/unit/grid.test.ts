@@ -1,5 +1,18 @@
 import { describe, expect, it } from 'vitest';
-import { cellLevel, cellSlot, encodeCell, GRID_KINDS, kindCounts, kindMasks, rowCodes, SLOTS, type Level, type RawGridRow } from '@/lib/grid/cells';
+import {
+  cellLevel,
+  cellSlot,
+  encodeCell,
+  GRID_KINDS,
+  kindCounts,
+  kindMasks,
+  packRow,
+  rowCodes,
+  SLOTS,
+  unpackRow,
+  type Level,
+  type RawGridRow,
+} from '@/lib/grid/cells';
 import { describeCell, describeRow, nextProblem } from '@/lib/grid/describe';
 import { gridFiltersToSearch, parseGridFilters, readGridFilters } from '@/lib/grid/filters';
 import { decodeCursor, encodeCursor, parsePhotoFilters, readPhotoFilters } from '@/lib/grid/photo-filters';
@@ -24,6 +37,18 @@ describe('grid cell codes', () => {
     expect(encodeCell('missing', 2)).toBe(13);
     expect(encodeCell('dead', null)).toBe(15);
     expect(encodeCell('none', null)).toBe(20);
+  });
+
+  it('send a row as one plain letter per vine and read every code back', () => {
+    const every = SLOTS.flatMap((slot) => ([null, 0, 1, 2, 3] as Level[]).map((level) => encodeCell(slot, level)));
+    const text = packRow(every);
+    expect(text).toBe('ABCDEFGHIJKLMNOPQRSTUVWXY');
+    // Nothing JSON would have to escape, so a row costs one byte a vine on the wire.
+    expect(JSON.stringify(text)).toBe(`"${text}"`);
+    expect(unpackRow(text)).toEqual(every);
+    expect(unpackRow(packRow([]))).toEqual([]);
+    const long = Array.from({ length: 5000 }, (_, i) => i % 25);
+    expect(unpackRow(packRow(long))).toEqual(long);
   });
 });
 

@@ -2,6 +2,7 @@ import 'server-only';
 import type { GridResponse, PhotoLogResponse, VinePanelResponse, VineRow } from '@/lib/contracts/grid';
 import type { Sendable } from '@/lib/contracts/http';
 import type { GridFilters } from '@/lib/grid/filters';
+import { packRow } from '@/lib/grid/cells';
 import { describeData } from '@/lib/grid/labels';
 import { encodeCursor, type PhotoCursor, type PhotoFilters } from '@/lib/grid/photo-filters';
 import { summariseGrid } from '@/lib/grid/summary';
@@ -46,7 +47,7 @@ export async function gridView(member: Member, blockId: string, filters: GridFil
       },
       filters,
       rows: grid.rows,
-      cells: grid.cells,
+      cells: grid.cells.map(packRow),
       summary: summariseGrid(grid.rows, grid.cells, grid.kinds, grid.vinesScouted),
     },
     sqlMs,
