@@ -2,13 +2,12 @@
  * The sync engine (lib/offline/engine.ts) wired to the browser: the IndexedDB outbox, fetch, Web
  * Locks, real timers, and the page's online, visibility and service-worker events.
  */
+import { SYNC_BATCH_LIMIT } from '@/lib/contracts/sync';
 import { LOCAL, SYNC_TAG } from '@/lib/device-keys';
 import { browserOutbox, fetchTransport, realClock, webLock } from '@/lib/offline/browser';
 import { createSyncEngine, type SyncEngine } from '@/lib/offline/engine';
 
 export type { SyncStatus } from '@/lib/offline/engine';
-
-export const BATCH_SIZE = 200;
 
 /**
  * Record collections, drained in this order before photos. Each endpoint takes
@@ -32,7 +31,7 @@ function browserSync() {
     lock: webLock(SYNC_TAG),
     clock: realClock,
     collections: COLLECTIONS,
-    batchSize: BATCH_SIZE,
+    batchSize: SYNC_BATCH_LIMIT,
     online: () => (typeof navigator === 'undefined' ? true : navigator.onLine),
     lastSynced: {
       read: () => Number(localStorage.getItem(LOCAL.lastSynced)) || null,

@@ -5,6 +5,7 @@
  */
 import { z } from 'zod';
 import { CANE_INJURY_CAUSES, EXPOSURES, INJURY_SEVERITIES, TRUNK_INJURY_CAUSES, VINE_STATES, WOOD_ORIGINS, type ObservationKind } from '@/lib/viticulture';
+import { SYNC_BATCH_LIMIT } from '@/lib/contracts/sync';
 
 const count = (max: number) => z.number().int('Must be a whole number').min(0, 'Cannot be negative').max(max, `At most ${max}`);
 const mm = (max: number) => z.number().positive('Must be more than 0').max(max, `At most ${max} mm`);
@@ -84,7 +85,7 @@ export const observationRecordSchema = z
 
 export type ObservationRecord = z.infer<typeof observationRecordSchema>;
 
-export const SYNC_BATCH_LIMIT = 500;
+export { SYNC_BATCH_LIMIT };
 
 export const syncRequestSchema = z.strictObject({
   observations: z.array(z.unknown()).max(SYNC_BATCH_LIMIT, `At most ${SYNC_BATCH_LIMIT} records per request`),

@@ -70,7 +70,7 @@ async function timeRoute(ctx: BenchContext) {
   await manager.signIn('manager@example.com', 'vineward-demo');
   for (const [label, view] of VIEWS) {
     const filters = readGridFilters(new URLSearchParams(view));
-    const statements = gridStatements(org, CREEK_FLAT, 'ascending', filters);
+    const statements = gridStatements(org, CREEK_FLAT, filters);
     const route: number[] = [];
     const sql: number[] = [];
     const inRoute: number[] = [];

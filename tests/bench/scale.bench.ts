@@ -65,7 +65,7 @@ async function grids(ctx: BenchContext, estate: Estate, manager: Client) {
   const all = { route: [] as number[], bare: [] as number[] };
   const perBlock: string[] = [];
   for (const [i, id] of estate.blockIds.entries()) {
-    const statements = gridStatements(estate.manager.organisationId, id, 'ascending', filters);
+    const statements = gridStatements(estate.manager.organisationId, id, filters);
     const t = await pair(
       runs,
       async () => ok(await manager.fetch(`/api/grid/${id}`)),

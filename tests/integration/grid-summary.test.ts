@@ -121,8 +121,8 @@ async function expectSourcesAgree(db: Knex, blockId: string) {
   for (const view of views(team.scout.id)) {
     // As the route reads it (the summary wherever it can answer) against the observations alone.
     const [asRouted, fromObservations] = await Promise.all([
-      loadGrid(db, team.org.id, blockId, 'ascending', view),
-      loadGrid(db, team.org.id, blockId, 'ascending', view, 'observations'),
+      loadGrid(db, team.org.id, blockId, view),
+      loadGrid(db, team.org.id, blockId, view, 'observations'),
     ]);
     expect(asRouted, JSON.stringify(view)).toEqual(fromObservations);
   }
@@ -231,7 +231,7 @@ describe('the grid summary kept by triggers', () => {
       if (!closing.isCompleted()) await closing.rollback();
       if (!adding.isCompleted()) await adding.rollback();
     }
-    const grid = await loadGrid(db, team.org.id, block.id, 'ascending', DEFAULT_GRID_FILTERS);
+    const grid = await loadGrid(db, team.org.id, block.id, DEFAULT_GRID_FILTERS);
     // Codes are slot × 5 + level, level = worst open severity + 1: vine 1 urgent (3), vine 2 the open trunk injury (2).
     expect(grid.cells).toEqual([[4, 3, 0, 0]]);
     expect(grid.vinesScouted).toBe(2);

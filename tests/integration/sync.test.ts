@@ -139,6 +139,17 @@ describe('POST /api/sync', () => {
     expect((await testDb()('observations').where({ id: r.id }).first()).organisation_id).toBe(team.org.id);
   });
 
+  it('rejects a record whose block id is not an id and still stores the rest of its batch', async () => {
+    const bad = record({ blockId: 'not-a-block' });
+    const good = record();
+    const res = await sync(scout, [bad, good, record({ blockId: null })]);
+    expect(res.status).toBe(200);
+    const { results } = await res.json();
+    expect(results.map((r: { status: string }) => r.status)).toEqual(['rejected', 'created', 'rejected']);
+    expect(results[0].errors.map((e: { field: string }) => e.field)).toEqual(['blockId']);
+    expect(await testDb()('observations').whereIn('id', [bad.id, good.id]).pluck('id')).toEqual([good.id]);
+  });
+
   it('refuses a batch of 501 records as a whole with a clear message', async () => {
     const batch = Array.from({ length: 501 }, () => record());
     const res = await sync(scout, batch);

@@ -11,7 +11,7 @@ import { listFlagsOnVine, openFlagPositionsSql } from '@/lib/server/queries/flag
 import { REASON_LABELS } from '@/lib/validation/flag';
 
 export interface GridData {
-  /** Row numbers in the block's display order. */
+  /** Row numbers, ascending; the caller lays them out in the block's own order. */
   rows: number[];
   /** Per row, one cell code (lib/grid/cells.ts) for each position from 1. */
   cells: number[][];
@@ -48,19 +48,12 @@ export const gridSource = (f: GridFilters): GridSource => (f.from || f.to || f.b
  * the period but a missing-vine one (a hole is found without looking at a vine; the season report
  * counts the same way). Both sources give the same answer (a test holds them equal); `source` forces one.
  */
-export function gridStatements(
-  organisationId: string,
-  blockId: string,
-  rowOrder: 'ascending' | 'descending',
-  f: GridFilters,
-  source?: GridSource,
-): GridStatements {
-  const order = rowOrder === 'descending' ? 'desc' : 'asc';
+export function gridStatements(organisationId: string, blockId: string, f: GridFilters, source?: GridSource): GridStatements {
   const cellsFrom = source ?? gridSource(f);
   if (cellsFrom === 'summary' && gridSource(f) === 'observations') throw new Error('The grid summary cannot answer a date or person filter');
   const countsFrom = f.flagged ? 'observations' : (source ?? 'summary');
   return {
-    cells: cellsFrom === 'summary' ? summaryCells(organisationId, blockId, order, f) : observationCells(organisationId, blockId, order, f),
+    cells: cellsFrom === 'summary' ? summaryCells(organisationId, blockId, f) : observationCells(organisationId, blockId, f),
     counts: countsFrom === 'summary' ? summaryCounts(organisationId, blockId, f) : observationCounts(organisationId, blockId, f),
   };
 }
@@ -119,7 +112,7 @@ const SLOT_COLUMNS = `
  * + kind bits (lib/grid/cells.ts reads them). One row at a time (lateral), so each step reads a
  * short run of the block's slot index in vine order, whatever the planner thinks of the table.
  */
-function observationCells(organisationId: string, blockId: string, order: string, f: GridFilters): Fragment {
+function observationCells(organisationId: string, blockId: string, f: GridFilters): Fragment {
   const scope = observationScope(organisationId, blockId, f);
   const hit = observationMatch(organisationId, blockId, f);
   const sql = `
@@ -143,7 +136,7 @@ function observationCells(organisationId: string, blockId: string, order: string
       ) vines
     ) v
     where r.block_id = ?
-    order by r.row_number ${order}`;
+    order by r.row_number`;
   return { sql, bindings: [blockId, GRID_KINDS, ...hit.bindings, ...scope.bindings, blockId] };
 }
 
@@ -156,7 +149,7 @@ const LOOKED_MASK = 2 ** (3 * GRID_KINDS.length) - 1 - 7 * 2 ** (3 * GRID_KINDS.
  * levels from the packed columns, three bits per kind at the place GRID_KINDS gives it (a test holds
  * it equal to the database's grid_kind_index); those places are integers made here, never input.
  */
-function summaryCells(organisationId: string, blockId: string, order: string, f: GridFilters): Fragment {
+function summaryCells(organisationId: string, blockId: string, f: GridFilters): Fragment {
   const columns = f.status === 'all' ? ['open', 'closed'] : [f.status];
   let worst: string;
   let kinds: string;
@@ -197,7 +190,7 @@ function summaryCells(organisationId: string, blockId: string, order: string, f:
       group by row_number
     ) v on v.row_number = r.row_number
     where r.block_id = ?
-    order by r.row_number ${order}`;
+    order by r.row_number`;
   return { sql, bindings: [...bindings, organisationId, blockId, blockId, blockId] };
 }
 
@@ -270,15 +263,8 @@ export async function runGridStatements(db: Db, statements: GridStatements) {
   };
 }
 
-export async function loadGrid(
-  db: Db,
-  organisationId: string,
-  blockId: string,
-  rowOrder: 'ascending' | 'descending',
-  f: GridFilters,
-  source?: GridSource,
-): Promise<GridData> {
-  const { rows, counts } = await runGridStatements(db, gridStatements(organisationId, blockId, rowOrder, f, source));
+export async function loadGrid(db: Db, organisationId: string, blockId: string, f: GridFilters, source?: GridSource): Promise<GridData> {
+  const { rows, counts } = await runGridStatements(db, gridStatements(organisationId, blockId, f, source));
   return {
     rows: rows.map(([n]) => n),
     cells: rows.map(rowCodes),

@@ -1,6 +1,7 @@
 import 'server-only';
 import { createHash } from 'node:crypto';
 import type { ZodType } from 'zod';
+import { isUuid } from '@/lib/grid/filters';
 import { can } from '@/lib/roles';
 import type { Member } from '@/lib/server/auth/guard';
 import { db } from '@/lib/server/db';
@@ -125,9 +126,12 @@ export function settleOnce<R extends { id: string }>(
  */
 export async function syncObservations(member: Member, records: unknown[]): Promise<SyncResult[]> {
   const results: SyncResult[] = new Array(records.length);
+  // Severity is judged with each block's own settings, as the phone judged it. Asked for before the
+  // records are validated, so that the database answers while the CPU validates.
+  const blockIds = new Set(records.map((r) => (r as { blockId?: unknown } | null)?.blockId).filter(isUuid));
+  const settings = settingsForBlocks(db(), member.organisationId, [...blockIds]);
   const valid = validateRecords(records, observationRecordSchema, payloadHash, results);
-  // Severity is judged with each block's own settings, as the phone judged it.
-  const settingsOf = await settingsForBlocks(db(), member.organisationId, [...new Set(valid.map((v) => v.record.blockId))]);
+  const settingsOf = await settings;
   const outcomes = await ingestObservations(
     db(),
     member.organisationId,
