@@ -17,7 +17,7 @@ import type { BenchContext } from '../tests/bench/context';
 import { buildIfNeeded, startNext } from './lib/app';
 import { migrate } from './lib/migrate';
 import { PROFILES } from './lib/profile';
-import { log, root, stopChild } from './lib/services';
+import { ensureChromium, log, root, stopChild } from './lib/services';
 import { startStack } from './lib/stack';
 
 async function main() {
@@ -25,6 +25,8 @@ async function main() {
   const files = readdirSync(path.join(root, 'tests/bench'))
     .filter((f) => f.endsWith('.bench.ts') && (!filter || f.includes(filter)))
     .sort();
+  // Lighthouse drives Debian's Chromium, installed here as `npm test` installs it for the browser tests.
+  if (files.some((f) => f.includes('lighthouse'))) ensureChromium();
   const profile = PROFILES.test;
   const stack = await startStack(profile, { fast: true });
   let next: Awaited<ReturnType<typeof startNext>> | undefined;
