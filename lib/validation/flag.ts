@@ -3,7 +3,7 @@
  * needs extra care, with a reason from the list. Same once-only rules as observations.
  */
 import { z } from 'zod';
-import { SYNC_BATCH_LIMIT } from '@/lib/validation/observation';
+import { SYNC_BATCH_LIMIT } from '@/lib/contracts/sync';
 
 export const FLAG_REASONS = ['retrain', 'trunk-renewal', 'replant', 'lighter-bud-load', 'heavier-bud-load', 'remove-injured-wood', 'other'] as const;
 export type FlagReason = (typeof FLAG_REASONS)[number];

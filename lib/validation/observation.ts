@@ -85,8 +85,6 @@ export const observationRecordSchema = z
 
 export type ObservationRecord = z.infer<typeof observationRecordSchema>;
 
-export { SYNC_BATCH_LIMIT };
-
 export const syncRequestSchema = z.strictObject({
   observations: z.array(z.unknown()).max(SYNC_BATCH_LIMIT, `At most ${SYNC_BATCH_LIMIT} records per request`),
 });

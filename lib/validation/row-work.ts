@@ -3,7 +3,7 @@
  * a row, or a run of its positions, by a crew. Same once-only rules as observations.
  */
 import { z } from 'zod';
-import { SYNC_BATCH_LIMIT } from '@/lib/validation/observation';
+import { SYNC_BATCH_LIMIT } from '@/lib/contracts/sync';
 import { PAY_BASES } from '@/lib/work/cost';
 import { ROW_WORK_PASSES } from '@/lib/work/passes';
 

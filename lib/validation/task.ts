@@ -4,7 +4,7 @@
  * observations (device-made id, duplicate or conflict on a resend).
  */
 import { z } from 'zod';
-import { SYNC_BATCH_LIMIT } from '@/lib/validation/observation';
+import { SYNC_BATCH_LIMIT } from '@/lib/contracts/sync';
 
 export const TASK_PRIORITIES = ['low', 'normal', 'high'] as const;
 export type TaskPriority = (typeof TASK_PRIORITIES)[number];
