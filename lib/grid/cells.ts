@@ -76,20 +76,25 @@ export function rowCodes([, vineCount, slots, present, worst, last]: RawGridRow)
   return codes;
 }
 
-/** How many vines share each combination of kind bits. */
-export function kindMasks(rows: readonly RawGridRow[]): [number, number][] {
-  const tally = new Map<number, number>();
+/**
+ * How many vines have each kind at "watch" or worse: entry i counts the vines with bit i + 1 set.
+ * Counted bit by bit, not by combination, since a block of 22,500 vines is read on every request.
+ */
+export function vinesPerKind(rows: readonly RawGridRow[], kinds: number): number[] {
+  const vines = new Array<number>(kinds).fill(0);
   for (const row of rows) {
-    for (const packed of row[6] ?? []) {
-      const mask = packed % 65536;
-      tally.set(mask, (tally.get(mask) ?? 0) + 1);
+    const packed = row[6];
+    if (!packed) continue;
+    for (let i = 0; i < packed.length; i++) {
+      // Bit 0 stands for a kind GRID_KINDS does not know, which no count asks for.
+      for (let bits = (packed[i]! % 65536) >>> 1, kind = 0; bits; bits >>>= 1, kind++) if (bits & 1) vines[kind]!++;
     }
   }
-  return [...tally];
+  return vines;
 }
 
-/** Counts by kind and severity, and vines affected per kind from the vines' kind masks. */
-export function kindCounts(kinds: readonly string[], counts: [string, number, number][], masks: [number, number][]) {
+/** Counts by kind and severity, and vines affected per kind (vinesPerKind). */
+export function kindCounts(kinds: readonly string[], counts: [string, number, number][], vines: readonly number[]) {
   const byKind = new Map<string, [number, number, number, number]>();
   for (const [kind, severity, n] of counts) {
     const row = byKind.get(kind) ?? [0, 0, 0, 0];
@@ -97,8 +102,7 @@ export function kindCounts(kinds: readonly string[], counts: [string, number, nu
     byKind.set(kind, row);
   }
   return [...byKind.keys()].sort().map((kind) => {
-    const bit = 1 << (kinds.indexOf(kind) + 1);
-    const vinesAffected = kinds.includes(kind) ? masks.reduce((sum, [mask, vines]) => (mask & bit ? sum + vines : sum), 0) : 0;
-    return { kind: kind as ObservationKind, bySeverity: byKind.get(kind)!, vinesAffected };
+    const at = kinds.indexOf(kind);
+    return { kind: kind as ObservationKind, bySeverity: byKind.get(kind)!, vinesAffected: at < 0 ? 0 : (vines[at] ?? 0) };
   });
 }

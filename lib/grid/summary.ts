@@ -50,25 +50,30 @@ export const WORST_ROWS = 5;
 const NO_SLOT = SLOTS.indexOf('none');
 
 export function summariseGrid(rows: readonly number[], cells: readonly (readonly number[])[], kinds: readonly KindCounts[], vinesScouted: number): GridSummary {
-  // By index, not by label: a 22,500-vine block is read on every grid request.
+  // A 22,500-vine block is read on every grid request: each row's codes are tallied by index into
+  // a typed array, and the slots and levels read from the 25 tallies, not from each vine.
   const perSlot = SLOTS.map(() => 0);
   // A cell's level is its severity + 1: 2 is "watch", 3 "act", 4 "act now".
   const perLevel = [0, 0, 0, 0, 0];
   const perRow: RowProblems[] = [];
-  cells.forEach((codes, i) => {
+  const tally = new Int32Array(SLOTS.length * LEVELS_PER_SLOT);
+  for (let i = 0; i < cells.length; i++) {
+    const codes = cells[i]!;
+    tally.fill(0);
+    for (let j = 0; j < codes.length; j++) tally[codes[j]!]!++;
     let problems = 0;
     let urgent = 0;
-    for (const code of codes) {
-      const slot = (code / LEVELS_PER_SLOT) | 0;
-      if (slot >= NO_SLOT) continue;
-      const level = code % LEVELS_PER_SLOT;
-      perSlot[slot]!++;
-      perLevel[level]!++;
-      if (level >= 2) problems++;
-      if (level === 4) urgent++;
+    for (let slot = 0; slot < NO_SLOT; slot++) {
+      for (let level = 0; level < LEVELS_PER_SLOT; level++) {
+        const n = tally[slot * LEVELS_PER_SLOT + level]!;
+        perSlot[slot]! += n;
+        perLevel[level]! += n;
+        if (level >= 2) problems += n;
+        if (level === 4) urgent += n;
+      }
     }
     if (problems) perRow.push({ row: rows[i]!, problems, urgent });
-  });
+  }
   const slots = Object.fromEntries(SLOTS.map((s, i) => [s, perSlot[i]!])) as Record<Slot, number>;
   const byLevel = { watch: perLevel[2]!, act: perLevel[3]!, urgent: perLevel[4]! };
   perRow.sort((a, b) => b.problems - a.problems || b.urgent - a.urgent || a.row - b.row);

@@ -1,12 +1,11 @@
 import { randomUUID } from 'node:crypto';
-import http from 'node:http';
 import { loadavg } from 'node:os';
-import { gunzipSync } from 'node:zlib';
 import type { Knex } from 'knex';
 import { SYNC_BATCH_LIMIT } from '@/lib/contracts/sync';
 import { Client } from '../helpers/http';
 import { median, percentile, type BenchContext } from './context';
 import { serverModules } from './estate';
+import { keptAlive } from './keep-alive';
 
 const UPPER_TERRACE = '0b10c4a0-0000-4000-8000-000000000001';
 const BATCH = SYNC_BATCH_LIMIT;
@@ -57,41 +56,6 @@ async function rawRows(db: Knex, t: IngestTarget) {
 }
 
 /**
- * POST with node:http over one kept-alive connection, gzip accepted as a browser accepts it, so
- * the figure is the server's: undici's fetch adds a few milliseconds of its own per batch on this
- * 2-core machine (its figure is printed apart), which a phone spends on the phone.
- */
-function poster(base: string, cookie: string) {
-  const agent = new http.Agent({ keepAlive: true, maxSockets: 1 });
-  const post = (path: string, body: unknown) => {
-    const text = JSON.stringify(body);
-    return new Promise<{ status: number; json: unknown }>((resolve, reject) => {
-      const req = http.request(
-        new URL(path, base),
-        {
-          method: 'POST',
-          agent,
-          headers: { 'content-type': 'application/json', 'content-length': Buffer.byteLength(text), 'accept-encoding': 'gzip', cookie },
-        },
-        (res) => {
-          const chunks: Buffer[] = [];
-          res.on('data', (c: Buffer) => chunks.push(c));
-          res.on('end', () => {
-            const bytes = Buffer.concat(chunks);
-            const plain = res.headers['content-encoding'] === 'gzip' ? gunzipSync(bytes) : bytes;
-            resolve({ status: res.statusCode ?? 0, json: JSON.parse(plain.toString('utf8')) });
-          });
-          res.on('error', reject);
-        },
-      );
-      req.on('error', reject);
-      req.end(text);
-    });
-  };
-  return { post, close: () => agent.destroy() };
-}
-
-/**
  * Sync ingest through the real route against a raw multi-row insert of the same kind of rows into
  * the same table (its grid-summary triggers included), batches of each taken in turn so that both
  * see the same machine load.
@@ -123,7 +87,7 @@ export async function measureIngest(ctx: BenchContext, t: IngestTarget, label: s
         payload_sha256: 'bench',
       })),
     );
-  const device = poster(ctx.appUrl, scout.cookieHeader);
+  const device = keptAlive(ctx.appUrl, scout.cookieHeader);
   const viaHttp = async () => {
     const { status, json } = await device.post('/api/sync', { observations: records(BATCH, t) });
     const results = (json as { results?: { status: string }[] }).results;

@@ -5,7 +5,7 @@ import {
   encodeCell,
   GRID_KINDS,
   kindCounts,
-  kindMasks,
+  vinesPerKind,
   packRow,
   rowCodes,
   SLOTS,
@@ -67,19 +67,15 @@ describe('rows from the grid statement', () => {
     expect(rowCodes([1, 3, null, null, null, 0, null, 0])).toEqual(Array(3).fill(encodeCell('none', null)));
   });
 
-  it('tally vines by their kind bits across rows', () => {
+  it('count vines per kind from their kind bits across rows, a vine once for each kind it shows', () => {
     const packed = (position: number, mask: number) => position * 65536 + mask;
-    const row = (kinds: number[]): RawGridRow => [1, 10, null, null, null, 10, kinds, kinds.length];
-    expect(new Map(kindMasks([row([packed(1, 8), packed(2, 8), packed(3, 24)]), row([packed(10000, 8)])]))).toEqual(
-      new Map([
-        [8, 3],
-        [24, 1],
-      ]),
-    );
+    const row = (kinds: number[] | null): RawGridRow => [1, 10, null, null, null, 10, kinds, kinds?.length ?? 0];
+    // Bits 3 and 4 are kinds 2 and 3; bit 0 (a kind the grid does not know) counts for none.
+    const rows = [row([packed(1, 8), packed(2, 8), packed(3, 24)]), row(null), row([packed(10000, 8), packed(4, 1)])];
+    expect(vinesPerKind(rows, 5)).toEqual([0, 0, 3 + 1, 1, 0]);
   });
 
   it('count findings by kind and severity, and vines affected per kind from their kind bits', () => {
-    const bit = (kind: string) => 1 << (GRID_KINDS.indexOf(kind) + 1);
     const counts: [string, number, number][] = [
       ['weak-budbreak', 0, 4],
       ['weak-budbreak', 2, 3],
@@ -87,12 +83,8 @@ describe('rows from the grid statement', () => {
       ['note', 0, 1],
     ];
     // 2 vines with budbreak only, 1 with both, 1 with trunk injury only.
-    const masks: [number, number][] = [
-      [bit('weak-budbreak'), 2],
-      [bit('weak-budbreak') | bit('trunk-injury'), 1],
-      [bit('trunk-injury'), 1],
-    ];
-    expect(kindCounts(GRID_KINDS, counts, masks)).toEqual([
+    const vines = GRID_KINDS.map((kind) => ({ 'weak-budbreak': 3, 'trunk-injury': 2 })[kind] ?? 0);
+    expect(kindCounts(GRID_KINDS, counts, vines)).toEqual([
       { kind: 'note', bySeverity: [1, 0, 0, 0], vinesAffected: 0 },
       { kind: 'trunk-injury', bySeverity: [0, 0, 0, 2], vinesAffected: 2 },
       { kind: 'weak-budbreak', bySeverity: [4, 0, 3, 0], vinesAffected: 3 },

@@ -1,5 +1,5 @@
 import 'server-only';
-import { GRID_KINDS, kindCounts, kindMasks, rowCodes, type RawGridRow } from '@/lib/grid/cells';
+import { GRID_KINDS, kindCounts, rowCodes, vinesPerKind, type RawGridRow } from '@/lib/grid/cells';
 import { dayAfter, type GridFilters } from '@/lib/grid/filters';
 import type { KindCounts } from '@/lib/grid/summary';
 import type { Planting, VineNote, VineObservation, VinePhoto, VineRow } from '@/lib/contracts/grid';
@@ -268,7 +268,7 @@ export async function loadGrid(db: Db, organisationId: string, blockId: string, 
   return {
     rows: rows.map(([n]) => n),
     cells: rows.map(rowCodes),
-    kinds: kindCounts(GRID_KINDS, counts, kindMasks(rows)),
+    kinds: kindCounts(GRID_KINDS, counts, vinesPerKind(rows, GRID_KINDS.length)),
     vinesScouted: rows.reduce((sum, row) => sum + row[7], 0),
   };
 }
